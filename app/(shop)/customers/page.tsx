@@ -1,0 +1,78 @@
+import { AddCustomerForm } from "@/components/customers/add-customer-form";
+import { Pager } from "@/components/ui/pager";
+import { getDb } from "@/db/client";
+import { listCustomers } from "@/db/customers";
+import { requirePageUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { listQuerySchema } from "@/lib/validation/customers";
+
+export const metadata = { title: "Customers" };
+
+export default async function CustomersPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | undefined>>;
+}) {
+  const user = await requirePageUser(SHOP_ROLES, "/customers");
+  const raw = await searchParams;
+  const parsed = listQuerySchema.safeParse(raw);
+  const query = parsed.success ? parsed.data : listQuerySchema.parse({});
+  const { customers, total } = await listCustomers(getDb(), {
+    search: query.search,
+    limit: query.pageSize,
+    offset: (query.page - 1) * query.pageSize,
+  });
+  const canAdd = user.role === "owner" || user.role === "counter";
+
+  return (
+    <section className="space-y-4">
+      <div className="flex flex-wrap items-end justify-between gap-4">
+        <h1 className="text-2xl font-semibold">Customers</h1>
+        <form role="search" className="flex items-end gap-2">
+          <label className="text-sm">
+            <span className="mb-1 block font-semibold">Find</span>
+            <input
+              name="search"
+              defaultValue={query.search ?? ""}
+              placeholder="Name, company, e-mail, phone"
+              className="field-input w-72"
+            />
+          </label>
+          <button className="btn-secondary" type="submit">
+            Show
+          </button>
+        </form>
+      </div>
+      <div className="panel overflow-x-auto">
+        <table className="w-full text-left text-sm">
+          <thead className="border-b border-graphite-200 bg-graphite-50 text-graphite-600">
+            <tr>
+              <th className="px-4 py-2 font-semibold">Name</th>
+              <th className="px-4 py-2 font-semibold">Company</th>
+              <th className="px-4 py-2 font-semibold">E-mail</th>
+              <th className="px-4 py-2 font-semibold">Phone</th>
+            </tr>
+          </thead>
+          <tbody>
+            {customers.map((c) => (
+              <tr key={c.id} className="border-b border-graphite-100 last:border-0">
+                <td className="px-4 py-2 font-semibold">{c.name}</td>
+                <td className="px-4 py-2">{c.company}</td>
+                <td className="px-4 py-2">{c.email}</td>
+                <td className="px-4 py-2">{c.phone}</td>
+              </tr>
+            ))}
+            {customers.length === 0 ? (
+              <tr>
+                <td colSpan={4} className="px-4 py-8 text-center text-graphite-500">
+                  No customers match.
+                </td>
+              </tr>
+            ) : null}
+          </tbody>
+        </table>
+      </div>
+      <Pager page={query.page} pageSize={query.pageSize} total={total} params={raw} />
+      {canAdd ? <AddCustomerForm /> : null}
+    </section>
+  );
+}

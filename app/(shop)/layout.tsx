@@ -1,0 +1,16 @@
+import type { ReactNode } from "react";
+import { AppHeader } from "@/components/shell/app-header";
+import { ALL_ROLES, requirePageUser } from "@/lib/auth/guard";
+
+// Every shop page depends on who is signed in: never prerendered.
+export const dynamic = "force-dynamic";
+
+export default async function ShopLayout({ children }: { children: ReactNode }) {
+  const user = await requirePageUser(ALL_ROLES);
+  return (
+    <>
+      <AppHeader user={user} />
+      <main className="mx-auto max-w-7xl px-4 py-6">{children}</main>
+    </>
+  );
+}

@@ -1,0 +1,55 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { z } from "zod";
+import { getDb } from "@/db/client";
+import type { User } from "@/db/users";
+import { checkAccess } from "@/lib/auth/guard";
+import { type ActionResult, toActionFailure } from "@/lib/http/action-result";
+import { addUser, changeUser } from "@/lib/users/manage";
+import { newUserSchema, userChangesSchema } from "@/lib/validation/users";
+
+function formValues(form: FormData): Record<string, string> {
+  const values: Record<string, string> = {};
+  for (const [k, v] of form)
+    if (typeof v === "string" && v !== "" && !k.startsWith("$")) values[k] = v;
+  return values;
+}
+
+export async function createUserAction(
+  _prev: ActionResult<User> | null,
+  form: FormData,
+): Promise<ActionResult<User>> {
+  const access = await checkAccess(["owner"]);
+  if (!access.ok) return { ok: false, status: access.status, message: access.message };
+  try {
+    const user = await addUser(getDb(), newUserSchema.parse(formValues(form)), access.user);
+    revalidatePath("/users");
+    return { ok: true, data: user, message: `${user.name} can now sign in as ${user.role}.` };
+  } catch (error) {
+    return toActionFailure(error);
+  }
+}
+
+const changeFormSchema = z.object({ userId: z.coerce.number().int().positive() });
+
+export async function changeUserAction(
+  _prev: ActionResult<User> | null,
+  form: FormData,
+): Promise<ActionResult<User>> {
+  const access = await checkAccess(["owner"]);
+  if (!access.ok) return { ok: false, status: access.status, message: access.message };
+  try {
+    const { userId, ...rest } = formValues(form);
+    const { userId: id } = changeFormSchema.parse({ userId });
+    const changes = userChangesSchema.parse({
+      ...rest,
+      ...(rest.disabled === undefined ? {} : { disabled: rest.disabled === "true" }),
+    });
+    const user = await changeUser(getDb(), id, changes, access.user);
+    revalidatePath("/users");
+    return { ok: true, data: user, message: `${user.name}: saved.` };
+  } catch (error) {
+    return toActionFailure(error);
+  }
+}

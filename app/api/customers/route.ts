@@ -1,0 +1,22 @@
+import { getDb } from "@/db/client";
+import { createCustomer, listCustomers } from "@/db/customers";
+import { requireApiUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { json, parseJson, route } from "@/lib/http/route";
+import { customerSchema, listQuerySchema } from "@/lib/validation/customers";
+
+export const GET = route(async (req) => {
+  await requireApiUser(SHOP_ROLES);
+  const query = listQuerySchema.parse(Object.fromEntries(new URL(req.url).searchParams));
+  const { customers, total } = await listCustomers(getDb(), {
+    search: query.search,
+    limit: query.pageSize,
+    offset: (query.page - 1) * query.pageSize,
+  });
+  return json({ customers, total, page: query.page, pageSize: query.pageSize });
+});
+
+export const POST = route(async (req) => {
+  const actor = await requireApiUser(["owner", "counter"]);
+  const input = await parseJson(req, customerSchema);
+  return json({ customer: await createCustomer(getDb(), input, actor.id) }, 201);
+});

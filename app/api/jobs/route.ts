@@ -1,0 +1,25 @@
+import { getDb } from "@/db/client";
+import { createJob, listJobs } from "@/db/jobs";
+import { ALL_ROLES, requireApiUser } from "@/lib/auth/guard";
+import { customerScope } from "@/lib/jobs/access";
+import { json, parseJson, route } from "@/lib/http/route";
+import { jobListQuerySchema, newJobSchema } from "@/lib/validation/jobs";
+
+export const GET = route(async (req) => {
+  const user = await requireApiUser(ALL_ROLES);
+  const query = jobListQuerySchema.parse(Object.fromEntries(new URL(req.url).searchParams));
+  const { jobs, total } = await listJobs(getDb(), {
+    customerId: customerScope(user) ?? query.customerId,
+    status: query.status,
+    search: query.search,
+    limit: query.pageSize,
+    offset: (query.page - 1) * query.pageSize,
+  });
+  return json({ jobs, total, page: query.page, pageSize: query.pageSize });
+});
+
+export const POST = route(async (req) => {
+  const actor = await requireApiUser(["owner", "counter"]);
+  const input = await parseJson(req, newJobSchema);
+  return json({ job: await createJob(getDb(), input, actor.id) }, 201);
+});

@@ -1,0 +1,15 @@
+/** The one error shape the web edge answers with (STYLE.md §9). */
+export interface ErrorBody {
+  error: { code: string; message: string; fields?: Record<string, string> };
+}
+
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly fields?: Record<string, string>,
+  ) {
+    super(message);
+  }
+}

@@ -1,0 +1,46 @@
+// One command for a fresh machine: migrate, seed if empty, build, serve on http://localhost:3000.
+import { spawn, spawnSync } from "node:child_process";
+import { randomBytes } from "node:crypto";
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
+import path from "node:path";
+
+const root = path.resolve(import.meta.dirname, "..");
+const port = process.env.PORT ?? "3000";
+const dataDir = path.join(root, "data");
+mkdirSync(dataDir, { recursive: true });
+
+// A demo secret kept in the data folder so sessions survive a restart; production sets its own.
+const secretFile = path.join(dataDir, ".demo-secret");
+if (!existsSync(secretFile))
+  writeFileSync(secretFile, randomBytes(32).toString("hex"), { mode: 0o600 });
+
+const env: NodeJS.ProcessEnv = {
+  ...process.env,
+  DATABASE_PATH: process.env.DATABASE_PATH ?? path.join(dataDir, "counterpoise.db"),
+  NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? readFileSync(secretFile, "utf8").trim(),
+  NEXTAUTH_URL: process.env.NEXTAUTH_URL ?? `http://localhost:${port}`,
+};
+
+function run(label: string, args: string[]) {
+  console.log(`\n▸ ${label}`);
+  const result = spawnSync(process.execPath, args, { cwd: root, env, stdio: "inherit" });
+  if (result.status !== 0) {
+    console.error(`${label} failed`);
+    process.exit(result.status ?? 1);
+  }
+}
+
+const tsx = path.join(root, "node_modules/tsx/dist/cli.mjs");
+const next = path.join(root, "node_modules/next/dist/bin/next");
+run("migrating the database", [tsx, "scripts/migrate.ts"]);
+run("seeding the demo shop (only if empty)", [tsx, "scripts/seed.ts"]);
+if (process.env.SKIP_BUILD !== "1") run("building the app", [next, "build"]);
+
+console.log(`\n▸ serving on http://localhost:${port} (Ctrl-C stops)`);
+const server = spawn(process.execPath, [next, "start", "-p", port, "-H", "127.0.0.1"], {
+  cwd: root,
+  env,
+  stdio: "inherit",
+});
+for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => server.kill(signal));
+server.on("exit", (code) => process.exit(code ?? 0));

@@ -1,0 +1,16 @@
+// Fills an empty database with the demo shop (npm run db:seed). Leaves a used database alone.
+import { openDatabase } from "@/db/client";
+import { migrateToLatest } from "@/db/migrate";
+import { seedDemo } from "@/lib/demo/seed";
+import { env } from "@/lib/env";
+
+const db = openDatabase(env().DATABASE_PATH);
+try {
+  await migrateToLatest(db);
+  console.log((await seedDemo(db)) ? "demo shop seeded" : "database already has data: not seeded");
+} catch (error) {
+  console.error("seeding failed:", error);
+  process.exitCode = 1;
+} finally {
+  await db.destroy();
+}

@@ -1,0 +1,26 @@
+import { describe, expect, it } from "vitest";
+import { GET } from "@/app/api/health/route";
+import { openDatabase, setDb } from "@/db/client";
+import { latestMigration } from "@/db/migrate";
+import { freshDb } from "../helpers/db";
+
+describe("GET /api/health", () => {
+  it("reports the database reachable and at the latest migration", async () => {
+    await freshDb();
+    const res = await GET();
+    expect(res.status).toBe(200);
+    expect(await res.json()).toEqual({
+      status: "ok",
+      database: "reachable",
+      migration: latestMigration,
+      latestMigration,
+    });
+  });
+
+  it("answers 503 when the database has not been migrated", async () => {
+    setDb(openDatabase(":memory:"));
+    const res = await GET();
+    expect(res.status).toBe(503);
+    expect(await res.json()).toMatchObject({ status: "needs-migration", migration: null });
+  });
+});
