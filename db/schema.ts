@@ -69,6 +69,10 @@ export interface SignInFailureTable {
   locked_until: string | null;
 }
 
+/**
+ * Every table. Feature areas keep their table interfaces in their own `db/*-schema.ts` file and
+ * extend this interface with them.
+ */
 export interface Database {
   users: UserTable;
   customers: CustomerTable;
