@@ -1,8 +1,145 @@
-import type { Kysely } from "kysely";
+import type { Kysely, Updateable } from "kysely";
 import { createAuditEntry } from "./audit";
 import { containsText } from "./search";
 import { NotFoundError, StaleWriteError } from "./errors";
-import type { Database, JobRow, JobStatus } from "./schema";
+import type { Database, JobRow, JobStatus, JobTable } from "./schema";
+
+export const BROUGHT_ITEMS = [
+  "pistons",
+  "wristPins",
+  "rings",
+  "rods",
+  "bearings",
+  "crankshaft",
+  "flywheel",
+  "clutch",
+  "damper",
+] as const;
+export type BroughtItem = (typeof BROUGHT_ITEMS)[number];
+
+export interface BroughtEntry {
+  item: BroughtItem;
+  quantity: number;
+  condition: string | null;
+}
+
+/** The engine and this job's balancing settings. Decimal strings; lengths in mm. */
+export interface JobSpec {
+  layout: string | null;
+  rodsPerPin: number | null;
+  bobweightNeeded: boolean | null;
+  cylinders: number | null;
+  boreMm: string | null;
+  strokeMm: string | null;
+  rodLengthMm: string | null;
+  maxRpm: number | null;
+  massUnit: "g" | "oz";
+  scaleResolution: string;
+  scaleName: string | null;
+  balancerName: string | null;
+  tolerance: string;
+  balanceFactor: string | null;
+  oilAllowance: string;
+  benchOrder: "by-kind" | "by-cylinder";
+  drillDiameterMm: string | null;
+  material: string | null;
+  items: BroughtEntry[];
+  condition: string | null;
+  promisedDate: string | null;
+  balanceType: "internal" | "external" | null;
+  /** Cylinders whose pistons may be swapped among themselves (a bank each, say); null: any. */
+  pairingGroups: number[][] | null;
+}
+
+/** What a job starts with when the counter leaves a setting alone (common practice defaults). */
+export const DEFAULT_SPEC: JobSpec = {
+  layout: null,
+  rodsPerPin: null,
+  bobweightNeeded: null,
+  cylinders: null,
+  boreMm: null,
+  strokeMm: null,
+  rodLengthMm: null,
+  maxRpm: null,
+  massUnit: "g",
+  scaleResolution: "0.1",
+  scaleName: null,
+  balancerName: null,
+  tolerance: "0.5",
+  balanceFactor: null,
+  oilAllowance: "0",
+  benchOrder: "by-kind",
+  drillDiameterMm: null,
+  material: null,
+  items: [],
+  condition: null,
+  promisedDate: null,
+  balanceType: null,
+  pairingGroups: null,
+};
+
+function toSpec(row: JobRow): JobSpec {
+  return {
+    layout: row.layout,
+    rodsPerPin: row.rods_per_pin,
+    bobweightNeeded: row.bobweight_needed === null ? null : row.bobweight_needed === 1,
+    cylinders: row.cylinders,
+    boreMm: row.bore_mm,
+    strokeMm: row.stroke_mm,
+    rodLengthMm: row.rod_length_mm,
+    maxRpm: row.max_rpm,
+    massUnit: row.mass_unit ?? DEFAULT_SPEC.massUnit,
+    scaleResolution: row.scale_resolution ?? DEFAULT_SPEC.scaleResolution,
+    scaleName: row.scale_name,
+    balancerName: row.balancer_name,
+    tolerance: row.tolerance ?? DEFAULT_SPEC.tolerance,
+    balanceFactor: row.balance_factor,
+    oilAllowance: row.oil_allowance ?? DEFAULT_SPEC.oilAllowance,
+    benchOrder: row.bench_order ?? DEFAULT_SPEC.benchOrder,
+    drillDiameterMm: row.drill_diameter_mm,
+    material: row.material,
+    items: row.items_json ? (JSON.parse(row.items_json) as BroughtEntry[]) : [],
+    condition: row.condition,
+    promisedDate: row.promised_date,
+    balanceType: row.balance_type,
+    pairingGroups: row.pairing_json ? (JSON.parse(row.pairing_json) as number[][]) : null,
+  };
+}
+
+function specColumns(spec: Partial<JobSpec>): Updateable<JobTable> {
+  const bool = (v: boolean | null | undefined) =>
+    v === undefined ? undefined : v === null ? null : v ? 1 : 0;
+  return {
+    layout: spec.layout,
+    rods_per_pin: spec.rodsPerPin,
+    bobweight_needed: bool(spec.bobweightNeeded),
+    cylinders: spec.cylinders,
+    bore_mm: spec.boreMm,
+    stroke_mm: spec.strokeMm,
+    rod_length_mm: spec.rodLengthMm,
+    max_rpm: spec.maxRpm,
+    mass_unit: spec.massUnit,
+    scale_resolution: spec.scaleResolution,
+    scale_name: spec.scaleName,
+    balancer_name: spec.balancerName,
+    tolerance: spec.tolerance,
+    balance_factor: spec.balanceFactor,
+    oil_allowance: spec.oilAllowance,
+    bench_order: spec.benchOrder,
+    drill_diameter_mm: spec.drillDiameterMm,
+    material: spec.material,
+    items_json: spec.items === undefined ? undefined : JSON.stringify(spec.items),
+    condition: spec.condition,
+    promised_date: spec.promisedDate,
+    balance_type: spec.balanceType,
+    pairing_json:
+      spec.pairingGroups === undefined
+        ? undefined
+        : spec.pairingGroups === null
+          ? null
+          : JSON.stringify(spec.pairingGroups),
+  };
+}
 
 export interface Job {
   id: number;
@@ -15,6 +152,7 @@ export interface Job {
   version: number;
   createdAt: string;
   updatedAt: string;
+  spec: JobSpec;
 }
 
 type JobWithCustomer = JobRow & { customer_name: string };
@@ -31,6 +169,7 @@ function toJob(row: JobWithCustomer): Job {
     version: row.version,
     createdAt: row.created_at,
     updatedAt: row.updated_at,
+    spec: toSpec(row),
   };
 }
 
@@ -61,6 +200,7 @@ export interface NewJob {
   engine: string;
   notes?: string | null;
   status?: JobStatus;
+  spec?: Partial<JobSpec>;
 }
 
 export async function createJob(
@@ -86,6 +226,7 @@ export async function createJob(
         notes: input.notes?.trim() || null,
         status: input.status ?? "booked",
         updated_at: now.toISOString(),
+        ...specColumns({ ...DEFAULT_SPEC, ...input.spec }),
       })
       .returning("id")
       .executeTakeFirstOrThrow();
@@ -112,6 +253,7 @@ export interface JobChanges {
   engine?: string;
   notes?: string | null;
   status?: JobStatus;
+  spec?: Partial<JobSpec>;
 }
 
 /** Applies changes only if the stored version is the one the caller read; bumps the version. */
@@ -133,6 +275,7 @@ export async function updateJob(
         engine: changes.engine?.trim() ?? before.engine,
         notes: changes.notes === undefined ? before.notes : changes.notes?.trim() || null,
         status: changes.status ?? before.status,
+        ...specColumns(changes.spec ?? {}),
         version: before.version + 1,
         updated_at: now.toISOString(),
       })

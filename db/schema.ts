@@ -49,6 +49,30 @@ export interface JobTable {
   version: Generated<number>;
   created_at: CreatedAt;
   updated_at: string;
+  // The engine and this job's balancing settings (decimal strings; lengths in mm).
+  layout: string | null;
+  rods_per_pin: number | null;
+  bobweight_needed: number | null;
+  cylinders: number | null;
+  bore_mm: string | null;
+  stroke_mm: string | null;
+  rod_length_mm: string | null;
+  max_rpm: number | null;
+  mass_unit: "g" | "oz" | null;
+  scale_resolution: string | null;
+  scale_name: string | null;
+  balancer_name: string | null;
+  tolerance: string | null;
+  balance_factor: string | null;
+  oil_allowance: string | null;
+  bench_order: "by-kind" | "by-cylinder" | null;
+  drill_diameter_mm: string | null;
+  material: string | null;
+  items_json: string | null;
+  condition: string | null;
+  promised_date: string | null;
+  balance_type: "internal" | "external" | null;
+  pairing_json: string | null;
 }
 
 export interface AuditLogTable {
@@ -60,6 +84,52 @@ export interface AuditLogTable {
   before_json: string | null;
   after_json: string | null;
   at: CreatedAt;
+}
+
+export const PART_KINDS = [
+  "piston",
+  "wristPin",
+  "retainers",
+  "rings",
+  "smallEnd",
+  "bigEnd",
+  "bearing",
+  "rodTotal",
+] as const;
+export type PartKind = (typeof PART_KINDS)[number];
+export type WeighPhase = "initial" | "final";
+
+export interface PartWeightTable {
+  id: Generated<number>;
+  job_id: number;
+  cylinder: number;
+  kind: PartKind;
+  phase: WeighPhase;
+  readings_json: string;
+  version: Generated<number>;
+  updated_by: number | null;
+  updated_at: ColumnType<string, string | undefined, string>;
+}
+
+export interface PartTargetTable {
+  job_id: number;
+  kind: PartKind;
+  target: string | null;
+  version: Generated<number>;
+  updated_at: ColumnType<string, string | undefined, string>;
+}
+
+export const ROTATING_PARTS = ["crankshaft", "flywheel", "clutch", "damper"] as const;
+export type RotatingPart = (typeof ROTATING_PARTS)[number];
+
+export interface RotatingRecordTable {
+  id: Generated<number>;
+  job_id: number;
+  part: RotatingPart;
+  data_json: string;
+  version: Generated<number>;
+  updated_by: number | null;
+  updated_at: ColumnType<string, string | undefined, string>;
 }
 
 export interface SignInFailureTable {
@@ -79,6 +149,9 @@ export interface Database {
   jobs: JobTable;
   audit_log: AuditLogTable;
   sign_in_failures: SignInFailureTable;
+  part_weights: PartWeightTable;
+  part_targets: PartTargetTable;
+  rotating_records: RotatingRecordTable;
 }
 
 export type UserRow = Selectable<UserTable>;

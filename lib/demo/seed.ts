@@ -1,9 +1,11 @@
 import type { DB } from "@/db/client";
 import { createCustomer } from "@/db/customers";
-import { createJob, updateJob } from "@/db/jobs";
-import type { JobStatus, Role } from "@/db/schema";
+import { createJob, type JobSpec, updateJob } from "@/db/jobs";
+import type { JobStatus, PartKind, Role } from "@/db/schema";
+import { savePartWeight } from "@/db/weights";
 import { createUser } from "@/db/users";
 import { hashPassword } from "@/lib/auth/password";
+import { DEMO_V8_WEIGHTS } from "./v8-weights";
 
 /** Every demo account signs in with this password; the README lists the e-mails. */
 export const DEMO_PASSWORD = "balance-demo-2026";
@@ -38,38 +40,104 @@ const CUSTOMERS = [
   },
 ];
 
-const JOBS: { customer: number; engine: string; status: JobStatus; notes: string }[] = [
+const JOBS: {
+  customer: number;
+  engine: string;
+  status: JobStatus;
+  notes: string;
+  spec: Partial<JobSpec>;
+}[] = [
   {
     customer: 0,
-    engine: "Cross-plane V8, 4.0 in bore, 3.48 in stroke",
+    engine: "Cross-plane V8, 4.030 in bore, 3.480 in stroke",
     status: "weighing",
     notes: "Full rotating assembly balance; new forged pistons and rods.",
+    spec: {
+      layout: "v8-cross-plane",
+      cylinders: 8,
+      boreMm: "102.36",
+      strokeMm: "88.39",
+      rodLengthMm: "152.4",
+      maxRpm: 7000,
+      oilAllowance: "4",
+      drillDiameterMm: "9.5",
+      scaleName: "Bench scale, 0.1 g",
+      balancerName: "Soft-bearing crank balancer",
+      balanceType: "internal",
+      pairingGroups: [
+        [1, 3, 5, 7],
+        [2, 4, 6, 8],
+      ],
+      items: [
+        { item: "pistons", quantity: 8, condition: "new, forged" },
+        { item: "rods", quantity: 8, condition: "new" },
+        { item: "crankshaft", quantity: 1, condition: "forged steel, ground" },
+        { item: "damper", quantity: 1, condition: "used" },
+      ],
+    },
   },
   {
     customer: 1,
     engine: "In-line four, 86 mm bore, 86 mm stroke",
     status: "booked",
     notes: "Match pistons and rods; crank spun bare.",
+    spec: {
+      layout: "inline-4",
+      cylinders: 4,
+      boreMm: "86",
+      strokeMm: "86",
+      rodLengthMm: "143",
+      maxRpm: 7500,
+    },
   },
   {
     customer: 2,
     engine: "90° V6, 3.74 in bore, 3.48 in stroke",
     status: "balancing",
     notes: "Balance with flywheel and damper; externally balanced.",
+    spec: {
+      layout: "v6-90",
+      cylinders: 6,
+      boreMm: "95",
+      strokeMm: "88.4",
+      maxRpm: 6000,
+      balanceType: "external",
+    },
   },
   {
     customer: 3,
     engine: "Single cylinder, 96 mm bore, 62 mm stroke",
     status: "ready",
     notes: "Rebuilt crank; 55 % factor asked for.",
+    spec: {
+      layout: "single",
+      cylinders: 1,
+      boreMm: "96",
+      strokeMm: "62",
+      balanceFactor: "55",
+      maxRpm: 9000,
+    },
   },
   {
     customer: 0,
     engine: "Flat-plane V8, 92 mm bore, 75 mm stroke",
     status: "collected",
     notes: "Parts matched; no bobweights.",
+    spec: { layout: "v8-flat-plane", cylinders: 8, boreMm: "92", strokeMm: "75", maxRpm: 9000 },
   },
 ];
+
+async function weighDemoV8(db: DB, jobId: number) {
+  for (const [kind, values] of Object.entries(DEMO_V8_WEIGHTS) as [PartKind, string[]][]) {
+    for (const [i, value] of values.entries()) {
+      await savePartWeight(
+        db,
+        { jobId, cylinder: i + 1, kind, phase: "initial", readings: [value], baseVersion: 0 },
+        null,
+      );
+    }
+  }
+}
 
 /** Fills an empty database with the demo shop. Returns false when there is already data. */
 export async function seedDemo(db: DB): Promise<boolean> {
@@ -88,13 +156,15 @@ export async function seedDemo(db: DB): Promise<boolean> {
     );
   }
 
-  for (const j of JOBS) {
+  for (const [index, j] of JOBS.entries()) {
+    const customerId = customers[j.customer]!.id;
     const job = await createJob(
       db,
-      { customerId: customers[j.customer]!.id, engine: j.engine, notes: j.notes },
+      { customerId, engine: j.engine, notes: j.notes, spec: j.spec },
       null,
     );
     if (j.status !== "booked") await updateJob(db, job.id, job.version, { status: j.status }, null);
+    if (index === 0) await weighDemoV8(db, job.id);
   }
   return true;
 }

@@ -1,19 +1,7 @@
 import { z } from "zod";
 import { JOB_STATUSES } from "@/db/schema";
 import { listQuerySchema } from "./customers";
-
-export const newJobSchema = z
-  .object({
-    customerId: z.coerce.number().int().positive("Choose a customer."),
-    engine: z
-      .string()
-      .trim()
-      .min(1, "Describe the engine.")
-      .max(200, "Use at most 200 characters."),
-    notes: z.string().trim().max(4000).optional().nullable(),
-  })
-  .strict();
-export type NewJobInput = z.infer<typeof newJobSchema>;
+import { jobSpecSchema } from "./workshop";
 
 export const jobStatusField = z.enum(JOB_STATUSES, { message: "Not a job state." });
 
@@ -29,5 +17,9 @@ export const jobChangesSchema = z
     engine: z.string().trim().min(1).max(200).optional(),
     notes: z.string().trim().max(4000).nullable().optional(),
     status: jobStatusField.optional(),
+    spec: jobSpecSchema.partial().optional(),
   })
   .strict();
+
+/** Settings the counter may change at booking; the rest of the spec is the machinist's. */
+export const COUNTER_SPEC_FIELDS = ["promisedDate", "items", "condition"] as const;

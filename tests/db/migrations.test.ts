@@ -19,6 +19,9 @@ describe("migrations", () => {
       "audit_log",
       "customers",
       "jobs",
+      "part_targets",
+      "part_weights",
+      "rotating_records",
       "sign_in_failures",
       "users",
     ]);

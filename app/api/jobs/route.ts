@@ -3,7 +3,8 @@ import { createJob, listJobs } from "@/db/jobs";
 import { ALL_ROLES, requireApiUser } from "@/lib/auth/guard";
 import { customerScope } from "@/lib/jobs/access";
 import { json, parseJson, route } from "@/lib/http/route";
-import { jobListQuerySchema, newJobSchema } from "@/lib/validation/jobs";
+import { jobListQuerySchema } from "@/lib/validation/jobs";
+import { bookingSchema } from "@/lib/validation/workshop";
 
 export const GET = route(async (req) => {
   const user = await requireApiUser(ALL_ROLES);
@@ -20,6 +21,6 @@ export const GET = route(async (req) => {
 
 export const POST = route(async (req) => {
   const actor = await requireApiUser(["owner", "counter"]);
-  const input = await parseJson(req, newJobSchema);
+  const input = await parseJson(req, bookingSchema);
   return json({ job: await createJob(getDb(), input, actor.id) }, 201);
 });

@@ -3,7 +3,8 @@ import { updateJob } from "@/db/jobs";
 import { ALL_ROLES, requireApiUser } from "@/lib/auth/guard";
 import { findJobForUser } from "@/lib/jobs/access";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
-import { jobChangesSchema } from "@/lib/validation/jobs";
+import { COUNTER_SPEC_FIELDS, jobChangesSchema } from "@/lib/validation/jobs";
+import { HttpError } from "@/lib/http/errors";
 
 type Params = { id: string };
 
@@ -17,5 +18,16 @@ export const PATCH = route<Params>(async (req, { params }) => {
   const id = parseId((await params).id);
   await findJobForUser(getDb(), id, actor);
   const { version, ...changes } = await parseJson(req, jobChangesSchema);
+  const machinistOnly = Object.keys(changes.spec ?? {}).filter(
+    (k) => !(COUNTER_SPEC_FIELDS as readonly string[]).includes(k),
+  );
+  if (actor.role === "counter" && machinistOnly.length > 0) {
+    throw new HttpError(
+      403,
+      "forbidden",
+      "Balancing settings are the machinist's.",
+      Object.fromEntries(machinistOnly.map((k) => [`spec.${k}`, "The machinist sets this."])),
+    );
+  }
   return json({ job: await updateJob(getDb(), id, version, changes, actor.id) });
 });

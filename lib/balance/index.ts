@@ -1,0 +1,106 @@
+/**
+ * Counterpoise balance engine: the trade's computations, pure and exact. Every quantity in
+ * and out is a decimal string; Decimal (decimal.js) is used only inside. Units: masses in
+ * g (or the job's unit), lengths and radii in mm, densities in g/cm³, speeds in rpm, rotor
+ * mass in kg, accelerations in m/s², forces in N, unbalance in g·mm.
+ */
+export { BalanceInputError, isBalanceInputError, type BalanceErrorCode } from "./errors";
+export {
+  INTERNAL_PRECISION,
+  RESULT_SIGNIFICANT_DIGITS,
+  MAX_INPUT_SIGNIFICANT_DIGITS,
+} from "./decimal";
+export {
+  convertMass,
+  convertLength,
+  GRAMS_PER_OUNCE,
+  GRAMS_PER_GRAIN,
+  MILLIMETRES_PER_INCH,
+  CONVERSION_RELATIVE_TOLERANCE,
+  MASS_UNITS,
+  LENGTH_UNITS,
+  type MassUnit,
+  type LengthUnit,
+} from "./units";
+export { formatMass } from "./format-mass";
+export {
+  LAYOUT_PRESETS,
+  findLayoutPreset,
+  CUSTOM_DEFAULT_BALANCE_FACTOR,
+  type LayoutPreset,
+  type FixedLayoutPreset,
+  type CustomLayoutPreset,
+} from "./layouts";
+export {
+  matchSet,
+  DEFAULT_TOLERANCE_G,
+  type PartStatus,
+  type MatchSetInput,
+  type MatchSetResult,
+  type MatchedPart,
+} from "./match-set";
+export { bobweightForCrankpin, type BobweightInput } from "./bobweight";
+export {
+  computeBalance,
+  MATCHED_KINDS,
+  RECIPROCATING_KINDS,
+  DEFAULT_RESOLUTION_G,
+  DEFAULT_TOLERANCE_OZ,
+  DEFAULT_RESOLUTION_OZ,
+  type BalanceInput,
+  type BalanceResult,
+  type BalanceMassUnit,
+  type BalanceWarning,
+  type BalanceWarningCode,
+  type BobweightResult,
+  type CylinderInput,
+  type CylinderResult,
+  type LayoutInput,
+  type MatchedKind,
+  type PartKind,
+  type PartResult,
+  type WeightInput,
+} from "./compute-balance";
+export {
+  suggestPairing,
+  type PairingInput,
+  type PairingCylinderInput,
+  type PairingResult,
+  type PairingAssignment,
+} from "./pairing";
+export {
+  permissibleUnbalance,
+  BALANCE_GRADES,
+  PLANE_SHARE_MIN,
+  PLANE_SHARE_MAX,
+  type BalanceGrade,
+  type PermissibleUnbalanceInput,
+  type PermissibleUnbalance,
+  type PlaneAllowance,
+} from "./permissible-unbalance";
+export {
+  checkResidual,
+  type CheckResidualInput,
+  type ResidualReading,
+  type ResidualCheck,
+  type PlaneCheck,
+} from "./check-residual";
+export {
+  drillDepthForMass,
+  DEFAULT_POINT_ANGLE_DEG,
+  type DrillDepthInput,
+  type DrillDepth,
+} from "./drill-depth";
+export { plugNetMass, type PlugNetMassInput, type PlugNetMass } from "./plug-net-mass";
+export { moveCorrection, type MoveCorrectionInput, type MovedCorrection } from "./move-correction";
+export {
+  splitCorrection,
+  type SplitCorrectionInput,
+  type SplitCorrection,
+} from "./split-correction";
+export {
+  reciprocatingLoads,
+  type ReciprocatingLoadsInput,
+  type ReciprocatingLoads,
+} from "./reciprocating-loads";
+export { MATERIAL_DENSITIES, type MaterialDensity, type MaterialId } from "./materials";

@@ -1,0 +1,36 @@
+import type { DB } from "@/db/client";
+import type { Job } from "@/db/jobs";
+import {
+  listPartTargets,
+  listPartWeights,
+  listRotatingRecords,
+  type PartTarget,
+  type PartWeight,
+  type RotatingRecord,
+} from "@/db/weights";
+import { buildWorkshopPlan, type WorkshopPlan } from "./plan";
+import { checkRotatingRecord, type RotatingCheck } from "./rotating";
+
+export interface Workshop {
+  job: Job;
+  weights: PartWeight[];
+  targets: PartTarget[];
+  rotating: (RotatingRecord & { check: RotatingCheck })[];
+  plan: WorkshopPlan;
+}
+
+/** Everything the bench pages show for one job, with the plan worked out from it. */
+export async function loadWorkshop(db: DB, job: Job): Promise<Workshop> {
+  const [weights, targets, rotating] = await Promise.all([
+    listPartWeights(db, job.id),
+    listPartTargets(db, job.id),
+    listRotatingRecords(db, job.id),
+  ]);
+  return {
+    job,
+    weights,
+    targets,
+    rotating: rotating.map((r) => ({ ...r, check: checkRotatingRecord(r) })),
+    plan: buildWorkshopPlan(job, weights, targets, job.spec.pairingGroups ?? undefined),
+  };
+}
