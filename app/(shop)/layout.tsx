@@ -1,4 +1,5 @@
 import type { ReactNode } from "react";
+import { Providers } from "@/components/providers";
 import { AppHeader } from "@/components/shell/app-header";
 import { ALL_ROLES, requirePageUser } from "@/lib/auth/guard";
 
@@ -10,7 +11,9 @@ export default async function ShopLayout({ children }: { children: ReactNode }) 
   return (
     <>
       <AppHeader user={user} />
-      <main className="mx-auto max-w-7xl px-4 py-6">{children}</main>
+      <main className="mx-auto max-w-7xl px-4 py-6">
+        <Providers>{children}</Providers>
+      </main>
     </>
   );
 }

@@ -99,10 +99,25 @@ export const targetWriteSchema = z
 
 export const rotatingPartField = z.enum(ROTATING_PARTS);
 
-const planeReading = z.object({
-  mass: decimalString,
-  angle: decimalString.refine((v) => Number(v) < 360, "Angle from 0 to 359.9°.").optional(),
-});
+/** A form's empty box means "not given". */
+const blankToNull = (v: unknown) => (v === "" || v === undefined ? null : v);
+const optionalPositive = z.preprocess(blankToNull, positiveDecimal.nullable()).optional();
+
+const planeReading = z.preprocess(
+  (v) =>
+    v && typeof v === "object" && "mass" in v && (v as { mass: unknown }).mass === "" ? null : v,
+  z
+    .object({
+      mass: decimalString,
+      angle: z
+        .preprocess(
+          blankToNull,
+          decimalString.refine((v) => Number(v) < 360, "Angle from 0 to 359.9°.").nullable(),
+        )
+        .optional(),
+    })
+    .nullable(),
+);
 
 const correction = z.object({
   plane: z.enum(["A", "B"]),
@@ -114,20 +129,14 @@ const correction = z.object({
 /** The record of one rotating part on the balancer: readings before and after, and corrections. */
 export const rotatingRecordSchema = z
   .object({
-    massKg: positiveDecimal.nullable().optional(),
-    rpm: z.number().int().min(100).max(30_000).nullable().optional(),
+    massKg: optionalPositive,
+    rpm: z.preprocess(blankToNull, z.number().int().min(100).max(30_000).nullable()).optional(),
     grade: z.string().max(10).nullable().optional(),
-    radiusMm: positiveDecimal.nullable().optional(),
-    planeDistanceAMm: positiveDecimal.nullable().optional(),
-    planeDistanceBMm: positiveDecimal.nullable().optional(),
-    before: z
-      .object({ A: planeReading.nullable(), B: planeReading.nullable() })
-      .partial()
-      .optional(),
-    after: z
-      .object({ A: planeReading.nullable(), B: planeReading.nullable() })
-      .partial()
-      .optional(),
+    radiusMm: optionalPositive,
+    planeDistanceAMm: optionalPositive,
+    planeDistanceBMm: optionalPositive,
+    before: z.object({ A: planeReading, B: planeReading }).partial().optional(),
+    after: z.object({ A: planeReading, B: planeReading }).partial().optional(),
     corrections: z.array(correction).max(40).optional(),
     notes: z.string().trim().max(2000).nullable().optional(),
   })
@@ -155,3 +164,13 @@ export const pairingApplySchema = z
       .optional(),
   })
   .strict();
+
+/**
+ * One weigh-in cell as typed: one reading, or repeated readings separated by spaces, "/" or ";".
+ * Each reading is the same `decimalString` the API checks.
+ */
+export const readingsTextSchema = z
+  .string()
+  .max(120, "Too many readings.")
+  .transform((text) => text.split(/[\s/;]+/).filter(Boolean))
+  .pipe(z.array(decimalString).max(10, "At most 10 readings of one part."));

@@ -1,42 +1,83 @@
-import { notFound } from "next/navigation";
-import { StatusBadge } from "@/components/jobs/status-badge";
+import { JobSettingsForm, JobStateControl } from "@/components/jobs/job-settings-form";
 import { listAuditEntries } from "@/db/audit";
 import { getDb } from "@/db/client";
-import { ALL_ROLES, requirePageUser } from "@/lib/auth/guard";
-import { HttpError } from "@/lib/http/errors";
-import { findJobForUser } from "@/lib/jobs/access";
+import { findLayoutPreset } from "@/lib/balance";
+import { loadPageJob } from "@/lib/jobs/page-job";
 
-export default async function JobPage({ params }: { params: Promise<{ id: string }> }) {
+const ITEM_LABEL: Record<string, string> = {
+  pistons: "Pistons",
+  wristPins: "Wrist pins",
+  rings: "Ring sets",
+  rods: "Con-rods",
+  bearings: "Rod bearings",
+  crankshaft: "Crankshaft",
+  flywheel: "Flywheel / flexplate",
+  clutch: "Clutch cover",
+  damper: "Damper",
+};
+
+export default async function JobOverviewPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  const user = await requirePageUser(ALL_ROLES, `/jobs/${id}`);
-  const jobId = Number(id);
-  if (!Number.isSafeInteger(jobId) || jobId < 1) notFound();
-  const job = await findJobForUser(getDb(), jobId, user).catch((e: unknown) => {
-    if (e instanceof HttpError && e.status === 404) notFound();
-    throw e;
-  });
-  const history = user.role === "customer" ? [] : await listAuditEntries(getDb(), "job", job.id);
-
+  const { job, user } = await loadPageJob(id, `/jobs/${id}`);
+  const shop = user.role !== "customer";
+  const history = shop ? await listAuditEntries(getDb(), "job", job.id) : [];
+  const preset = job.spec.layout ? findLayoutPreset(job.spec.layout) : undefined;
+  const s = job.spec;
   return (
-    <article className="space-y-6">
-      <header className="flex flex-wrap items-baseline gap-4">
-        <h1 className="font-mono text-2xl font-semibold">{job.number}</h1>
-        <StatusBadge status={job.status} />
-        <p className="text-graphite-600">
-          {job.customerName} · {job.engine}
-        </p>
-      </header>
-      {job.notes ? (
+    <div className="space-y-6">
+      {shop ? <JobStateControl job={job} /> : null}
+      <div className="grid gap-4 lg:grid-cols-3">
         <section className="panel p-4">
-          <h2 className="mb-1 text-sm font-semibold text-graphite-600">Work asked for</h2>
-          <p className="whitespace-pre-line">{job.notes}</p>
+          <h2 className="mb-2 font-semibold">Engine</h2>
+          <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
+            <dt className="text-graphite-500">Layout</dt>
+            <dd>{preset?.label ?? "not set"}</dd>
+            <dt className="text-graphite-500">Cylinders</dt>
+            <dd>{s.cylinders ?? "—"}</dd>
+            <dt className="text-graphite-500">Bore × stroke</dt>
+            <dd className="font-mono">
+              {s.boreMm ?? "—"} × {s.strokeMm ?? "—"} mm
+            </dd>
+            <dt className="text-graphite-500">Rod length</dt>
+            <dd className="font-mono">{s.rodLengthMm ? `${s.rodLengthMm} mm` : "—"}</dd>
+            <dt className="text-graphite-500">Max rpm</dt>
+            <dd className="font-mono">{s.maxRpm ?? "—"}</dd>
+            <dt className="text-graphite-500">Promised</dt>
+            <dd>{s.promisedDate ?? "—"}</dd>
+          </dl>
         </section>
-      ) : null}
+        <section className="panel p-4">
+          <h2 className="mb-2 font-semibold">Brought in</h2>
+          {s.items.length === 0 ? (
+            <p className="text-sm text-graphite-500">Nothing listed.</p>
+          ) : (
+            <ul className="text-sm">
+              {s.items.map((i) => (
+                <li key={i.item}>
+                  {i.quantity} × {ITEM_LABEL[i.item] ?? i.item}
+                  {i.condition ? <span className="text-graphite-500"> — {i.condition}</span> : null}
+                </li>
+              ))}
+            </ul>
+          )}
+          {s.condition ? <p className="mt-2 text-sm">{s.condition}</p> : null}
+        </section>
+        <section className="panel p-4">
+          <h2 className="mb-2 font-semibold">Work asked for</h2>
+          <p className="text-sm whitespace-pre-line">{job.notes ?? "—"}</p>
+        </section>
+      </div>
+      {shop ? <JobSettingsForm job={job} role={user.role} /> : null}
+      <p className="rounded border border-brass-300 bg-brass-50 p-3 text-sm text-brass-700">
+        A rotating assembly that fails at speed can kill. Follow the engine maker&apos;s figures,
+        the balancing machine&apos;s instructions and local codes and licensed practice; wear eye
+        protection when machining.
+      </p>
       {history.length > 0 ? (
         <section className="panel p-4">
           <h2 className="mb-2 text-sm font-semibold text-graphite-600">History</h2>
           <ol className="space-y-1 text-sm">
-            {history.map((h) => (
+            {history.slice(0, 20).map((h) => (
               <li key={h.id}>
                 <span className="font-mono text-graphite-500">
                   {h.at.slice(0, 16).replace("T", " ")}
@@ -47,6 +88,6 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
           </ol>
         </section>
       ) : null}
-    </article>
+    </div>
   );
 }

@@ -1,0 +1,26 @@
+import { WeighGrid } from "@/components/workshop/weigh-grid";
+import { getDb } from "@/db/client";
+import { loadPageJob } from "@/lib/jobs/page-job";
+import { loadWorkshop } from "@/lib/workshop/load";
+
+export const metadata = { title: "Scale" };
+
+export default async function WeighPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const { job, user } = await loadPageJob(id, `/jobs/${id}/weigh`);
+  const workshop = await loadWorkshop(getDb(), job);
+  if (!job.spec.layout || !job.spec.cylinders) {
+    return (
+      <p className="text-graphite-600">
+        Set the engine layout and cylinders on the overview before weighing.
+      </p>
+    );
+  }
+  return (
+    <WeighGrid
+      jobId={job.id}
+      initial={workshop}
+      canEdit={user.role === "machinist" || user.role === "owner"}
+    />
+  );
+}

@@ -1,0 +1,44 @@
+"use client";
+
+import Link from "next/link";
+import { usePathname } from "next/navigation";
+import type { Role } from "@/db/schema";
+
+const SECTIONS: { path: string; label: string; roles?: Role[] }[] = [
+  { path: "", label: "Overview" },
+  { path: "/weigh", label: "Scale" },
+  { path: "/plan", label: "Metal to remove" },
+  { path: "/bobweights", label: "Bobweights" },
+  { path: "/rotating", label: "Crank & rotating" },
+  { path: "/billing", label: "Billing", roles: ["owner", "counter", "customer"] },
+];
+
+export function JobTabs({ jobId, role }: { jobId: number; role: Role }) {
+  const pathname = usePathname();
+  const base = `/jobs/${jobId}`;
+  return (
+    <nav
+      aria-label="Job sections"
+      className="mb-6 flex flex-wrap gap-1 border-b border-graphite-200"
+    >
+      {SECTIONS.filter((s) => !s.roles || s.roles.includes(role)).map((s) => {
+        const href = base + s.path;
+        const active = pathname === href;
+        return (
+          <Link
+            key={s.path}
+            href={href}
+            aria-current={active ? "page" : undefined}
+            className={`-mb-px border-b-2 px-3 py-2 text-sm font-semibold ${
+              active
+                ? "border-brass-500 text-graphite-900"
+                : "border-transparent text-graphite-500 hover:text-graphite-800"
+            }`}
+          >
+            {s.label}
+          </Link>
+        );
+      })}
+    </nav>
+  );
+}

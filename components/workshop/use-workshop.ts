@@ -1,0 +1,22 @@
+"use client";
+
+import { useQuery, useQueryClient } from "@tanstack/react-query";
+import { apiFetch } from "@/lib/api-client";
+import type { Workshop } from "@/lib/workshop/load";
+
+export const workshopKey = (jobId: number) => ["workshop", jobId] as const;
+
+/** The job's bench record, shared by every bench screen and kept fresh by TanStack Query. */
+export function useWorkshop(jobId: number, initialData?: Workshop) {
+  return useQuery({
+    queryKey: workshopKey(jobId),
+    queryFn: () => apiFetch<Workshop>(`/api/jobs/${jobId}/workshop`),
+    initialData,
+  });
+}
+
+export function useUpdateWorkshop(jobId: number) {
+  const client = useQueryClient();
+  return (update: (w: Workshop) => Workshop) =>
+    client.setQueryData<Workshop>(workshopKey(jobId), (old) => (old ? update(old) : old));
+}

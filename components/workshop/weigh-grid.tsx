@@ -1,0 +1,372 @@
+"use client";
+
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useMutation } from "@tanstack/react-query";
+import Decimal from "decimal.js";
+import { type KeyboardEvent, useMemo, useRef, useState } from "react";
+import { useForm } from "react-hook-form";
+import { z } from "zod";
+import type { PartKind, WeighPhase } from "@/db/schema";
+import type { PartWeight } from "@/db/weights";
+import { ApiError, apiFetch } from "@/lib/api-client";
+import { readingsTextSchema } from "@/lib/validation/workshop";
+import type { WorkshopPlan } from "@/lib/workshop/plan";
+import type { Workshop } from "@/lib/workshop/load";
+import { WEIGH_COLUMNS } from "./part-kinds";
+import { useUpdateWorkshop, useWorkshop } from "./use-workshop";
+
+type CellState = {
+  state: "saving" | "saved" | "error" | "conflict";
+  message?: string;
+  theirs?: string;
+};
+type Order = "by-kind" | "by-cylinder";
+
+const fieldName = (cylinder: number, kind: PartKind) => `c${cylinder}_${kind}`;
+
+function cellText(weights: PartWeight[], phase: WeighPhase, cylinder: number, kind: PartKind) {
+  return (
+    weights
+      .find((w) => w.phase === phase && w.cylinder === cylinder && w.kind === kind)
+      ?.readings.join(" ") ?? ""
+  );
+}
+
+function spreadOf(text: string): string | null {
+  const parsed = readingsTextSchema.safeParse(text);
+  if (!parsed.success || parsed.data.length < 2) return null;
+  const values = parsed.data.map((v) => new Decimal(v));
+  return Decimal.max(...values)
+    .minus(Decimal.min(...values))
+    .toString();
+}
+
+/**
+ * The weigh-in: one row per cylinder, one column per kind of part. Digits and Enter: each Enter
+ * saves the cell and moves on in bench order (down a column, or along a row).
+ */
+export function WeighGrid({
+  jobId,
+  initial,
+  canEdit,
+}: {
+  jobId: number;
+  initial: Workshop;
+  canEdit: boolean;
+}) {
+  const { data } = useWorkshop(jobId, initial);
+  const workshop = data ?? initial;
+  const update = useUpdateWorkshop(jobId);
+  const cylinders = Array.from({ length: workshop.job.spec.cylinders ?? 0 }, (_, i) => i + 1);
+  const [phase, setPhase] = useState<WeighPhase>("initial");
+  const [order, setOrder] = useState<Order>(workshop.job.spec.benchOrder);
+  const [cells, setCells] = useState<Record<string, CellState>>({});
+  const [announce, setAnnounce] = useState("");
+  const inputs = useRef<Record<string, HTMLInputElement | null>>({});
+  // What the server holds for each cell of this phase: read synchronously between Enter and blur.
+  const saved = useRef<Record<string, { text: string; version: number }>>({});
+  const unit = workshop.job.spec.massUnit;
+
+  const schema = useMemo(
+    () =>
+      z.object(
+        Object.fromEntries(
+          cylinders.flatMap((c) =>
+            WEIGH_COLUMNS.map((col) => [fieldName(c, col.kind), readingsTextSchema]),
+          ),
+        ),
+      ),
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [cylinders.length],
+  );
+  const defaults = (p: WeighPhase, weights = workshop.weights) => {
+    const values: Record<string, string> = {};
+    for (const c of cylinders) {
+      for (const col of WEIGH_COLUMNS) {
+        const name = fieldName(c, col.kind);
+        const found = weights.find((w) => w.phase === p && w.cylinder === c && w.kind === col.kind);
+        values[name] = found?.readings.join(" ") ?? "";
+        saved.current[name] = { text: values[name], version: found?.version ?? 0 };
+      }
+    }
+    return values;
+  };
+  const [firstValues] = useState(() => defaults("initial"));
+  const form = useForm<Record<string, string>>({
+    resolver: zodResolver(schema) as never,
+    defaultValues: firstValues,
+    mode: "onChange",
+  });
+
+  const sequence = useMemo(() => {
+    const kinds = WEIGH_COLUMNS.map((c) => c.kind);
+    return order === "by-kind"
+      ? kinds.flatMap((k) => cylinders.map((c) => fieldName(c, k)))
+      : cylinders.flatMap((c) => kinds.map((k) => fieldName(c, k)));
+  }, [order, cylinders]);
+
+  const save = useMutation({
+    mutationFn: (body: { cylinder: number; kind: PartKind; readings: string[]; version: number }) =>
+      apiFetch<{ weight: PartWeight | null; plan: WorkshopPlan }>(`/api/jobs/${jobId}/weights`, {
+        method: "PUT",
+        body: { ...body, phase },
+      }),
+  });
+
+  const versionOf = (cylinder: number, kind: PartKind) =>
+    saved.current[fieldName(cylinder, kind)]?.version ?? 0;
+
+  async function commit(cylinder: number, kind: PartKind, overrideVersion?: number) {
+    const name = fieldName(cylinder, kind);
+    const text = form.getValues(name) ?? "";
+    if (!(await form.trigger(name))) return false;
+    const readings = readingsTextSchema.parse(text);
+    if (overrideVersion === undefined && readings.join(" ") === saved.current[name]?.text)
+      return true;
+    setCells((s) => ({ ...s, [name]: { state: "saving" } }));
+    try {
+      const result = await save.mutateAsync({
+        cylinder,
+        kind,
+        readings,
+        version: overrideVersion ?? versionOf(cylinder, kind),
+      });
+      saved.current[name] = { text: readings.join(" "), version: result.weight?.version ?? 0 };
+      update((w) => ({
+        ...w,
+        plan: result.plan,
+        weights: [
+          ...w.weights.filter(
+            (x) => !(x.phase === phase && x.cylinder === cylinder && x.kind === kind),
+          ),
+          ...(result.weight ? [result.weight] : []),
+        ],
+      }));
+      setCells((s) => ({ ...s, [name]: { state: "saved" } }));
+      setAnnounce(`Cylinder ${cylinder} ${kind}: saved`);
+      return true;
+    } catch (error) {
+      if (error instanceof ApiError && error.status === 409) {
+        const fresh = await apiFetch<Workshop>(`/api/jobs/${jobId}/workshop`);
+        update(() => fresh);
+        const theirs = cellText(fresh.weights, phase, cylinder, kind);
+        const current = fresh.weights.find(
+          (w) => w.phase === phase && w.cylinder === cylinder && w.kind === kind,
+        );
+        saved.current[name] = { text: theirs, version: current?.version ?? 0 };
+        setCells((s) => ({
+          ...s,
+          [name]: {
+            state: "conflict",
+            theirs,
+            message: `Changed elsewhere to ${theirs || "empty"}. Yours (${text || "empty"}) is not saved.`,
+          },
+        }));
+        setAnnounce(`Cylinder ${cylinder} ${kind}: changed elsewhere, not saved`);
+        return false;
+      }
+      const message =
+        error instanceof ApiError
+          ? (Object.values(error.fields)[0] ?? error.message)
+          : "Not saved: the server could not be reached.";
+      setCells((s) => ({ ...s, [name]: { state: "error", message } }));
+      setAnnounce(`Cylinder ${cylinder} ${kind}: not saved`);
+      return false;
+    }
+  }
+
+  function onKeyDown(event: KeyboardEvent<HTMLInputElement>, cylinder: number, kind: PartKind) {
+    if (event.key !== "Enter") return;
+    event.preventDefault();
+    const here = sequence.indexOf(fieldName(cylinder, kind));
+    const next = sequence[here + (event.shiftKey ? -1 : 1)];
+    void commit(cylinder, kind).then((ok) => {
+      if (ok && next) inputs.current[next]?.focus();
+    });
+  }
+
+  function switchPhase(p: WeighPhase) {
+    setPhase(p);
+    setCells({});
+    form.reset(defaults(p));
+  }
+
+  function keepTheirs(cylinder: number, kind: PartKind) {
+    const name = fieldName(cylinder, kind);
+    form.setValue(name, cells[name]?.theirs ?? "");
+    setCells((s) => ({ ...s, [name]: { state: "saved" } }));
+  }
+
+  return (
+    <section aria-labelledby="weigh-title" className="space-y-4">
+      <div className="flex flex-wrap items-end justify-between gap-4">
+        <div>
+          <h2 id="weigh-title" className="text-xl font-semibold">
+            {phase === "initial" ? "First weigh" : "Re-weigh after machining"}
+          </h2>
+          <p className="text-sm text-graphite-600">
+            Type a weight and press Enter to save and move on (Shift+Enter goes back). Repeated
+            readings: separate them with spaces. Weights in {unit === "g" ? "grams" : "ounces"};
+            scale resolution {workshop.job.spec.scaleResolution} {unit}.
+          </p>
+        </div>
+        <div className="flex flex-wrap gap-4 text-sm">
+          <fieldset className="flex items-center gap-2">
+            <legend className="sr-only">Which weighing</legend>
+            {(["initial", "final"] as const).map((p) => (
+              <label key={p} className="flex items-center gap-1">
+                <input
+                  type="radio"
+                  name="phase"
+                  checked={phase === p}
+                  onChange={() => switchPhase(p)}
+                />
+                {p === "initial" ? "First weigh" : "After machining"}
+              </label>
+            ))}
+          </fieldset>
+          <fieldset className="flex items-center gap-2">
+            <legend className="sr-only">Enter moves</legend>
+            {(["by-kind", "by-cylinder"] as const).map((o) => (
+              <label key={o} className="flex items-center gap-1">
+                <input
+                  type="radio"
+                  name="order"
+                  checked={order === o}
+                  onChange={() => setOrder(o)}
+                />
+                {o === "by-kind"
+                  ? "Enter goes down (all pistons first)"
+                  : "Enter goes across (cylinder by cylinder)"}
+              </label>
+            ))}
+          </fieldset>
+        </div>
+      </div>
+
+      <div className="panel overflow-x-auto">
+        <table className="w-full border-collapse text-sm" data-testid="weigh-grid">
+          <thead className="bg-graphite-50 text-graphite-600">
+            <tr>
+              <th scope="col" className="px-2 py-2 text-left font-semibold">
+                Cyl.
+              </th>
+              {WEIGH_COLUMNS.map((col) => (
+                <th
+                  key={col.kind}
+                  scope="col"
+                  className="px-2 py-2 text-left font-semibold"
+                  title={col.label}
+                >
+                  {col.short}
+                  {col.optional ? (
+                    <span className="font-normal text-graphite-400"> (opt.)</span>
+                  ) : null}
+                </th>
+              ))}
+            </tr>
+          </thead>
+          <tbody>
+            {cylinders.map((c) => (
+              <tr key={c} className="border-t border-graphite-100">
+                <th scope="row" className="px-2 py-1 text-left font-mono text-base">
+                  {c}
+                </th>
+                {WEIGH_COLUMNS.map((col) => {
+                  const name = fieldName(c, col.kind);
+                  const cell = cells[name];
+                  const error = form.formState.errors[name]?.message;
+                  const value = form.watch(name) ?? "";
+                  const spread = spreadOf(value);
+                  const reg = form.register(name);
+                  return (
+                    <td key={col.kind} className="px-1 py-1 align-top">
+                      <input
+                        {...reg}
+                        ref={(el) => {
+                          reg.ref(el);
+                          inputs.current[name] = el;
+                        }}
+                        aria-label={`Cylinder ${c} ${col.label}, ${unit}`}
+                        aria-invalid={
+                          error || cell?.state === "error" || cell?.state === "conflict"
+                            ? true
+                            : undefined
+                        }
+                        inputMode="decimal"
+                        autoComplete="off"
+                        readOnly={!canEdit}
+                        onKeyDown={(e) => onKeyDown(e, c, col.kind)}
+                        onBlur={(e) => {
+                          void reg.onBlur(e);
+                          if (canEdit) void commit(c, col.kind);
+                        }}
+                        className={`w-24 rounded border px-2 py-1.5 font-mono text-base ${
+                          cell?.state === "conflict" || cell?.state === "error" || error
+                            ? "border-replace bg-red-50"
+                            : cell?.state === "saved"
+                              ? "border-within/60"
+                              : "border-graphite-300"
+                        }`}
+                      />
+                      <div className="min-h-4 text-xs" data-testid={`cell-note-${name}`}>
+                        {error ? <span className="text-replace">{String(error)}</span> : null}
+                        {cell?.state === "saving" ? (
+                          <span className="text-graphite-500">saving…</span>
+                        ) : null}
+                        {cell?.state === "saved" ? (
+                          <span className="text-within">saved</span>
+                        ) : null}
+                        {cell?.state === "error" ? (
+                          <span className="text-replace">{cell.message}</span>
+                        ) : null}
+                        {cell?.state === "conflict" ? (
+                          <span className="text-replace">
+                            {cell.message}{" "}
+                            <button
+                              type="button"
+                              className="underline"
+                              onClick={() => void commit(c, col.kind, versionOf(c, col.kind))}
+                            >
+                              Save mine
+                            </button>{" "}
+                            <button
+                              type="button"
+                              className="underline"
+                              onClick={() => keepTheirs(c, col.kind)}
+                            >
+                              Keep theirs
+                            </button>
+                          </span>
+                        ) : null}
+                        {spread && !error ? (
+                          <span className="ml-1 text-graphite-500">spread {spread}</span>
+                        ) : null}
+                      </div>
+                    </td>
+                  );
+                })}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      <p aria-live="polite" className="sr-only" data-testid="weigh-announce">
+        {announce}
+      </p>
+      <WeighProgress plan={workshop.plan} />
+    </section>
+  );
+}
+
+function WeighProgress({ plan }: { plan: WorkshopPlan }) {
+  if (plan.complete)
+    return <p className="text-sm text-within">Every part needed for the plan is weighed.</p>;
+  if (plan.error) return <p className="text-sm text-replace">{plan.error.message}</p>;
+  return (
+    <p className="text-sm text-graphite-600">
+      Still to weigh: {plan.missing.length} part{plan.missing.length === 1 ? "" : "s"} (optional
+      kinds count once one cylinder has them).
+    </p>
+  );
+}

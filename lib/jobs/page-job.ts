@@ -1,0 +1,23 @@
+import { notFound } from "next/navigation";
+import { cache } from "react";
+import { getDb } from "@/db/client";
+import type { Job } from "@/db/jobs";
+import type { User } from "@/db/users";
+import { ALL_ROLES, requirePageUser } from "@/lib/auth/guard";
+import { HttpError } from "@/lib/http/errors";
+import { findJobForUser } from "./access";
+
+/** The job a job page is about, for this user, or the not-found page. Cached per request. */
+export const loadPageJob = cache(
+  async (rawId: string, path: string): Promise<{ job: Job; user: User }> => {
+    const user = await requirePageUser(ALL_ROLES, path);
+    const id = Number(rawId);
+    if (!/^\d{1,12}$/.test(rawId) || !Number.isSafeInteger(id) || id < 1) notFound();
+    try {
+      return { job: await findJobForUser(getDb(), id, user), user };
+    } catch (error) {
+      if (error instanceof HttpError && error.status === 404) notFound();
+      throw error;
+    }
+  },
+);
