@@ -1,4 +1,4 @@
-import type { Kysely, Updateable } from "kysely";
+import { type Kysely, sql, type Updateable } from "kysely";
 import { createAuditEntry } from "./audit";
 import { containsText } from "./search";
 import { NotFoundError, StaleWriteError } from "./errors";
@@ -294,10 +294,15 @@ export async function updateJob(
   });
 }
 
+export const JOB_SORTS = ["newest", "oldest", "number", "customer", "promised", "updated"] as const;
+export type JobSort = (typeof JOB_SORTS)[number];
+
 export interface JobQuery {
   customerId?: number;
   status?: JobStatus;
+  statuses?: JobStatus[];
   search?: string;
+  sort?: JobSort;
   limit?: number;
   offset?: number;
 }
@@ -310,6 +315,7 @@ export async function listJobs(
   let base = db.selectFrom("jobs").innerJoin("customers", "customers.id", "jobs.customer_id");
   if (query.customerId !== undefined) base = base.where("jobs.customer_id", "=", query.customerId);
   if (query.status) base = base.where("jobs.status", "=", query.status);
+  if (query.statuses?.length) base = base.where("jobs.status", "in", query.statuses);
   const term = query.search?.trim();
   if (term) {
     base = base.where((eb) =>
@@ -320,7 +326,26 @@ export async function listJobs(
     base
       .selectAll("jobs")
       .select("customers.name as customer_name")
-      .orderBy("jobs.id", "desc")
+      .$call((qb) => {
+        switch (query.sort ?? "newest") {
+          case "oldest":
+            return qb.orderBy("jobs.id", "asc");
+          case "number":
+            return qb.orderBy("jobs.number", "asc");
+          case "customer":
+            return qb.orderBy("customers.name", "asc").orderBy("jobs.id", "desc");
+          case "promised":
+            // Jobs with a promised date first, soonest first.
+            return qb
+              .orderBy(sql`jobs.promised_date is null`)
+              .orderBy("jobs.promised_date", "asc")
+              .orderBy("jobs.id", "asc");
+          case "updated":
+            return qb.orderBy("jobs.updated_at", "desc").orderBy("jobs.id", "desc");
+          default:
+            return qb.orderBy("jobs.id", "desc");
+        }
+      })
       .limit(query.limit ?? 50)
       .offset(query.offset ?? 0)
       .execute(),

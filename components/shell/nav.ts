@@ -8,6 +8,7 @@ export interface NavItem {
 
 /** What each role may open; the pages check again on the server. */
 export const NAV_ITEMS: readonly NavItem[] = [
+  { href: "/board", label: "Bench board", roles: ["owner", "machinist", "counter"] },
   { href: "/jobs", label: "Jobs", roles: ["owner", "machinist", "counter", "customer"] },
   { href: "/customers", label: "Customers", roles: ["owner", "counter", "machinist"] },
   { href: "/users", label: "Staff & access", roles: ["owner"] },

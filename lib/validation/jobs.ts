@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { JOB_SORTS } from "@/db/jobs";
 import { JOB_STATUSES } from "@/db/schema";
 import { listQuerySchema } from "./customers";
 import { jobSpecSchema } from "./workshop";
@@ -8,6 +9,7 @@ export const jobStatusField = z.enum(JOB_STATUSES, { message: "Not a job state."
 export const jobListQuerySchema = listQuerySchema.extend({
   status: jobStatusField.optional(),
   customerId: z.coerce.number().int().positive().optional(),
+  sort: z.enum(JOB_SORTS).default("newest"),
 });
 
 /** Every write carries the version it was based on; a stale one is answered 409. */

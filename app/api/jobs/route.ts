@@ -13,6 +13,7 @@ export const GET = route(async (req) => {
     customerId: customerScope(user) ?? query.customerId,
     status: query.status,
     search: query.search,
+    sort: query.sort,
     limit: query.pageSize,
     offset: (query.page - 1) * query.pageSize,
   });
