@@ -3,7 +3,7 @@ import { type NextRequest, NextResponse } from "next/server";
 import { authSecret } from "@/lib/env";
 
 // Only redirects: every page, handler and action checks the role itself (lib/auth/guard.ts).
-const PUBLIC_PREFIXES = ["/sign-in", "/api/", "/verify", "/_next/", "/favicon"];
+const PUBLIC_PREFIXES = ["/sign-in", "/welcome", "/api/", "/verify", "/_next/", "/favicon"];
 
 export async function proxy(req: NextRequest) {
   const { pathname, search } = req.nextUrl;

@@ -39,3 +39,60 @@ export async function listAuditEntries(
     .orderBy("id", "desc")
     .execute();
 }
+
+export interface JobChange {
+  id: number;
+  at: string;
+  who: string | null;
+  action: string;
+  entity: string;
+  /** What was changed inside the job, e.g. "3:piston:initial" for a weight. */
+  subject: string | null;
+  before: unknown;
+  after: unknown;
+}
+
+const JOB_PART_ENTITIES = ["part_weight", "part_target", "rotating_record"];
+
+/** Every change to the job and its weights, targets and records, newest first, with who made it. */
+export async function listJobChanges(
+  db: Executor,
+  jobId: number,
+  limit = 200,
+): Promise<JobChange[]> {
+  const rows = await db
+    .selectFrom("audit_log")
+    .leftJoin("users", "users.id", "audit_log.user_id")
+    .select([
+      "audit_log.id",
+      "audit_log.at",
+      "audit_log.action",
+      "audit_log.entity",
+      "audit_log.entity_id",
+      "audit_log.before_json",
+      "audit_log.after_json",
+      "users.name as who",
+    ])
+    .where((eb) =>
+      eb.or([
+        eb.and([eb("audit_log.entity", "=", "job"), eb("audit_log.entity_id", "=", String(jobId))]),
+        eb.and([
+          eb("audit_log.entity", "in", JOB_PART_ENTITIES),
+          eb("audit_log.entity_id", "like", `${jobId}:%`),
+        ]),
+      ]),
+    )
+    .orderBy("audit_log.id", "desc")
+    .limit(limit)
+    .execute();
+  return rows.map((r) => ({
+    id: r.id,
+    at: r.at,
+    who: r.who,
+    action: r.action,
+    entity: r.entity,
+    subject: r.entity === "job" ? null : (r.entity_id?.slice(String(jobId).length + 1) ?? null),
+    before: r.before_json ? (JSON.parse(r.before_json) as unknown) : null,
+    after: r.after_json ? (JSON.parse(r.after_json) as unknown) : null,
+  }));
+}

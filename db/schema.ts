@@ -1,4 +1,7 @@
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
+import type { BillingTables } from "./billing-schema";
+import type { CardTables } from "./cards-schema";
+import type { UploadsAndMailTables } from "./uploads-schema";
 
 /** The roles of PRODUCT.md; the order is not a hierarchy. */
 export const ROLES = ["owner", "machinist", "counter", "customer"] as const;
@@ -143,7 +146,7 @@ export interface SignInFailureTable {
  * Every table. Feature areas keep their table interfaces in their own `db/*-schema.ts` file and
  * extend this interface with them.
  */
-export interface Database {
+export interface Database extends UploadsAndMailTables, BillingTables, CardTables {
   users: UserTable;
   customers: CustomerTable;
   jobs: JobTable;

@@ -1,10 +1,16 @@
 import type { Migration } from "kysely";
 import * as m0001 from "./20261201_0001_create_core_tables";
 import * as m0002 from "./20261201_0002_create_workshop_tables";
+import * as m0003 from "./20261201_0003_create_billing_tables";
+import * as m0004 from "./20261201_0004_create_uploads_and_mail_tables";
+import * as m0005 from "./20261201_0005_create_card_tables";
 
 // A static map of the same files, for tests and for code running inside Next (which cannot read
 // the folder at run time). `scripts/migrate.ts` reads the folder itself. Add each new file here.
 export const migrations: Record<string, Migration> = {
   "20261201_0001_create_core_tables": m0001,
   "20261201_0002_create_workshop_tables": m0002,
+  "20261201_0003_create_billing_tables": m0003,
+  "20261201_0004_create_uploads_and_mail_tables": m0004,
+  "20261201_0005_create_card_tables": m0005,
 };

@@ -3,6 +3,8 @@ import { spawn, spawnSync } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
+import { startFakePayments } from "./fake-payments";
+import { startFakeSmtp } from "./fake-smtp";
 
 const root = path.resolve(import.meta.dirname, "..");
 const port = process.env.PORT ?? "3000";
@@ -19,6 +21,10 @@ const env: NodeJS.ProcessEnv = {
   DATABASE_PATH: process.env.DATABASE_PATH ?? path.join(dataDir, "counterpoise.db"),
   NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? readFileSync(secretFile, "utf8").trim(),
   NEXTAUTH_URL: process.env.NEXTAUTH_URL ?? `http://localhost:${port}`,
+  // The demo's stand-ins for hosted services, on this machine only.
+  SMTP_URL: process.env.SMTP_URL ?? "smtp://127.0.0.1:2525",
+  MAIL_CAPTURE_DIR: process.env.MAIL_CAPTURE_DIR ?? path.join(dataDir, "mail"),
+  STRIPE_API_BASE: process.env.STRIPE_API_BASE ?? "http://127.0.0.1:4242",
 };
 
 function run(label: string, args: string[]) {
@@ -36,6 +42,20 @@ run("migrating the database", [tsx, "scripts/migrate.ts"]);
 run("seeding the demo shop (only if empty)", [tsx, "scripts/seed.ts"]);
 if (process.env.SKIP_BUILD !== "1") run("building the app", [next, "build"]);
 
+console.log(
+  "\n▸ starting the local mail capture (SMTP 127.0.0.1:2525) and payment service (127.0.0.1:4242)",
+);
+const smtp = await startFakeSmtp({
+  port: 2525,
+  host: "127.0.0.1",
+  captureDir: env.MAIL_CAPTURE_DIR!,
+});
+const payments = await startFakePayments({
+  port: 4242,
+  webhookUrl: `http://127.0.0.1:${port}/api/payments/webhook`,
+  webhookSecret: process.env.STRIPE_WEBHOOK_SECRET ?? "whsec_local",
+});
+
 console.log(`\n▸ serving on http://localhost:${port} (Ctrl-C stops)`);
 const server = spawn(process.execPath, [next, "start", "-p", port, "-H", "127.0.0.1"], {
   cwd: root,
@@ -43,4 +63,6 @@ const server = spawn(process.execPath, [next, "start", "-p", port, "-H", "127.0.
   stdio: "inherit",
 });
 for (const signal of ["SIGINT", "SIGTERM"] as const) process.on(signal, () => server.kill(signal));
-server.on("exit", (code) => process.exit(code ?? 0));
+server.on("exit", (code) => {
+  void Promise.allSettled([smtp.stop(), payments.stop()]).then(() => process.exit(code ?? 0));
+});

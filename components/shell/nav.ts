@@ -11,7 +11,11 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { href: "/board", label: "Bench board", roles: ["owner", "machinist", "counter"] },
   { href: "/jobs", label: "Jobs", roles: ["owner", "machinist", "counter", "customer"] },
   { href: "/customers", label: "Customers", roles: ["owner", "counter", "machinist"] },
+  { href: "/invoices", label: "Invoices", roles: ["owner", "counter", "customer"] },
+  { href: "/prices", label: "Prices", roles: ["owner"] },
+  { href: "/settings", label: "Shop settings", roles: ["owner"] },
   { href: "/users", label: "Staff & access", roles: ["owner"] },
+  { href: "/outbox", label: "Mail outbox", roles: ["owner"] },
 ];
 
 export function navFor(role: Role): NavItem[] {

@@ -65,6 +65,7 @@ export function WeighGrid({
   const inputs = useRef<Record<string, HTMLInputElement | null>>({});
   // What the server holds for each cell of this phase: read synchronously between Enter and blur.
   const saved = useRef<Record<string, { text: string; version: number }>>({});
+  const inflight = useRef<Record<string, string>>({});
   const unit = workshop.job.spec.massUnit;
 
   const schema = useMemo(
@@ -119,10 +120,20 @@ export function WeighGrid({
   async function commit(cylinder: number, kind: PartKind, overrideVersion?: number) {
     const name = fieldName(cylinder, kind);
     const text = form.getValues(name) ?? "";
-    if (!(await form.trigger(name))) return false;
-    const readings = readingsTextSchema.parse(text);
-    if (overrideVersion === undefined && readings.join(" ") === saved.current[name]?.text)
+    const parsed = readingsTextSchema.safeParse(text);
+    if (!parsed.success) {
+      await form.trigger(name);
+      return false;
+    }
+    const readings = parsed.data;
+    const joined = readings.join(" ");
+    // Enter moves on at once and the blur saves; a second call for the same text is not a new write.
+    if (
+      overrideVersion === undefined &&
+      (joined === saved.current[name]?.text || joined === inflight.current[name])
+    )
       return true;
+    inflight.current[name] = joined;
     setCells((s) => ({ ...s, [name]: { state: "saving" } }));
     try {
       const result = await save.mutateAsync({
@@ -131,7 +142,7 @@ export function WeighGrid({
         readings,
         version: overrideVersion ?? versionOf(cylinder, kind),
       });
-      saved.current[name] = { text: readings.join(" "), version: result.weight?.version ?? 0 };
+      saved.current[name] = { text: joined, version: result.weight?.version ?? 0 };
       update((w) => ({
         ...w,
         plan: result.plan,
@@ -172,17 +183,24 @@ export function WeighGrid({
       setCells((s) => ({ ...s, [name]: { state: "error", message } }));
       setAnnounce(`Cylinder ${cylinder} ${kind}: not saved`);
       return false;
+    } finally {
+      delete inflight.current[name];
     }
   }
 
   function onKeyDown(event: KeyboardEvent<HTMLInputElement>, cylinder: number, kind: PartKind) {
     if (event.key !== "Enter") return;
     event.preventDefault();
-    const here = sequence.indexOf(fieldName(cylinder, kind));
+    const name = fieldName(cylinder, kind);
+    if (!readingsTextSchema.safeParse(form.getValues(name) ?? "").success) {
+      void form.trigger(name);
+      return;
+    }
+    const here = sequence.indexOf(name);
     const next = sequence[here + (event.shiftKey ? -1 : 1)];
-    void commit(cylinder, kind).then((ok) => {
-      if (ok && next) inputs.current[next]?.focus();
-    });
+    // Moving on at once keeps up with fast typing; leaving the box saves it (onBlur).
+    if (next) inputs.current[next]?.focus();
+    else if (canEdit) void commit(cylinder, kind);
   }
 
   function switchPhase(p: WeighPhase) {

@@ -5,6 +5,7 @@ import type { JobStatus, PartKind, Role } from "@/db/schema";
 import { savePartWeight } from "@/db/weights";
 import { createUser } from "@/db/users";
 import { hashPassword } from "@/lib/auth/password";
+import { seedBillingDemo } from "@/lib/billing/demo";
 import { DEMO_V8_WEIGHTS } from "./v8-weights";
 
 /** Every demo account signs in with this password; the README lists the e-mails. */
@@ -166,5 +167,6 @@ export async function seedDemo(db: DB): Promise<boolean> {
     if (j.status !== "booked") await updateJob(db, job.id, job.version, { status: j.status }, null);
     if (index === 0) await weighDemoV8(db, job.id);
   }
+  await seedBillingDemo(db);
   return true;
 }

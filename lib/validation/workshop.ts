@@ -173,4 +173,7 @@ export const readingsTextSchema = z
   .string()
   .max(120, "Too many readings.")
   .transform((text) => text.split(/[\s/;]+/).filter(Boolean))
-  .pipe(z.array(decimalString).max(10, "At most 10 readings of one part."));
+  .refine((readings) => readings.every((r) => decimalString.safeParse(r).success), {
+    message: "Enter a number, like 512.4; separate repeated readings with spaces.",
+  })
+  .refine((readings) => readings.length <= 10, { message: "At most 10 readings of one part." });

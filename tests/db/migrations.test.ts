@@ -17,12 +17,28 @@ describe("migrations", () => {
     await migrateToLatest(db);
     expect(await tableNames(db)).toEqual([
       "audit_log",
+      "balance_cards",
       "customers",
+      "invites",
+      "invoice_lines",
+      "invoices",
       "jobs",
+      "mail_attachments",
+      "mail_log",
+      "number_sequences",
       "part_targets",
       "part_weights",
+      "payment_events",
+      "payment_sessions",
+      "payments",
+      "price_items",
+      "quote_lines",
+      "quotes",
       "rotating_records",
+      "shop_logo",
+      "shop_settings",
       "sign_in_failures",
+      "uploads",
       "users",
     ]);
     expect(await findMigrationLevel(db)).toBe(latestMigration);

@@ -1,4 +1,5 @@
 import { AddCustomerForm } from "@/components/customers/add-customer-form";
+import { InviteCustomerButton } from "@/components/mail/invite-customer-button";
 import { Pager } from "@/components/ui/pager";
 import { getDb } from "@/db/client";
 import { listCustomers } from "@/db/customers";
@@ -50,6 +51,7 @@ export default async function CustomersPage({
               <th className="px-4 py-2 font-semibold">Company</th>
               <th className="px-4 py-2 font-semibold">E-mail</th>
               <th className="px-4 py-2 font-semibold">Phone</th>
+              {canAdd ? <th className="px-4 py-2 font-semibold">Online access</th> : null}
             </tr>
           </thead>
           <tbody>
@@ -59,11 +61,16 @@ export default async function CustomersPage({
                 <td className="px-4 py-2">{c.company}</td>
                 <td className="px-4 py-2">{c.email}</td>
                 <td className="px-4 py-2">{c.phone}</td>
+                {canAdd ? (
+                  <td className="px-4 py-2">
+                    <InviteCustomerButton customerId={c.id} email={c.email} />
+                  </td>
+                ) : null}
               </tr>
             ))}
             {customers.length === 0 ? (
               <tr>
-                <td colSpan={4} className="px-4 py-8 text-center text-graphite-500">
+                <td colSpan={canAdd ? 5 : 4} className="px-4 py-8 text-center text-graphite-500">
                   No customers match.
                 </td>
               </tr>

@@ -1,5 +1,8 @@
+import { JobChanges } from "@/components/jobs/job-changes";
 import { JobSettingsForm, JobStateControl } from "@/components/jobs/job-settings-form";
-import { listAuditEntries } from "@/db/audit";
+import { JobUploads } from "@/components/uploads/job-uploads";
+import { JobCards } from "@/components/cards/job-cards";
+import { listJobChanges } from "@/db/audit";
 import { getDb } from "@/db/client";
 import { findLayoutPreset } from "@/lib/balance";
 import { loadPageJob } from "@/lib/jobs/page-job";
@@ -20,7 +23,7 @@ export default async function JobOverviewPage({ params }: { params: Promise<{ id
   const { id } = await params;
   const { job, user } = await loadPageJob(id, `/jobs/${id}`);
   const shop = user.role !== "customer";
-  const history = shop ? await listAuditEntries(getDb(), "job", job.id) : [];
+  const changes = shop ? await listJobChanges(getDb(), job.id) : [];
   const preset = job.spec.layout ? findLayoutPreset(job.spec.layout) : undefined;
   const s = job.spec;
   return (
@@ -67,27 +70,15 @@ export default async function JobOverviewPage({ params }: { params: Promise<{ id
           <p className="text-sm whitespace-pre-line">{job.notes ?? "—"}</p>
         </section>
       </div>
+      <JobCards jobId={job.id} user={user} />
+      <JobUploads jobId={job.id} user={user} />
       {shop ? <JobSettingsForm job={job} role={user.role} /> : null}
       <p className="rounded border border-brass-300 bg-brass-50 p-3 text-sm text-brass-700">
         A rotating assembly that fails at speed can kill. Follow the engine maker&apos;s figures,
         the balancing machine&apos;s instructions and local codes and licensed practice; wear eye
         protection when machining.
       </p>
-      {history.length > 0 ? (
-        <section className="panel p-4">
-          <h2 className="mb-2 text-sm font-semibold text-graphite-600">History</h2>
-          <ol className="space-y-1 text-sm">
-            {history.slice(0, 20).map((h) => (
-              <li key={h.id}>
-                <span className="font-mono text-graphite-500">
-                  {h.at.slice(0, 16).replace("T", " ")}
-                </span>{" "}
-                {h.action}
-              </li>
-            ))}
-          </ol>
-        </section>
-      ) : null}
+      <JobChanges changes={changes} />
     </div>
   );
 }

@@ -1,0 +1,29 @@
+import Link from "next/link";
+import { SettingsForm } from "@/components/billing/settings-form";
+import { getDb } from "@/db/client";
+import { findShopSettings } from "@/db/settings";
+import { requirePageUser } from "@/lib/auth/guard";
+
+export const metadata = { title: "Shop settings" };
+
+export default async function SettingsPage() {
+  await requirePageUser(["owner"], "/settings");
+  const settings = await findShopSettings(getDb());
+  return (
+    <section className="max-w-3xl space-y-4">
+      <h1 className="text-2xl font-semibold">Shop settings</h1>
+      <p className="text-sm text-graphite-600">
+        Printed on quotes and invoices. A new tax rate applies to invoices issued from now on;
+        invoices already issued keep the rate they were issued with.
+      </p>
+      <SettingsForm settings={settings} />
+      <p className="text-sm">
+        The shop&apos;s logo on balance cards:{" "}
+        <Link href="/settings/logo" className="underline">
+          upload or change the logo
+        </Link>
+        .
+      </p>
+    </section>
+  );
+}

@@ -1,0 +1,28 @@
+import { getDb } from "@/db/client";
+import { deleteDraftInvoice, replaceInvoiceLines } from "@/db/invoices";
+import { requireApiUser } from "@/lib/auth/guard";
+import { findInvoiceForUser } from "@/lib/billing/access";
+import { json, parseId, parseJson, route } from "@/lib/http/route";
+import { documentLinesSchema } from "@/lib/validation/billing";
+
+type Params = { id: string };
+
+export const GET = route<Params>(async (_req, { params }) => {
+  const user = await requireApiUser(["owner", "counter", "customer"]);
+  return json({ invoice: await findInvoiceForUser(getDb(), parseId((await params).id), user) });
+});
+
+/** Replaces a draft invoice's lines: `{ version, lines }` as for quotes. */
+export const PUT = route<Params>(async (req, { params }) => {
+  const actor = await requireApiUser(["owner", "counter"]);
+  const id = parseId((await params).id);
+  const { version, lines } = await parseJson(req, documentLinesSchema);
+  return json({ invoice: await replaceInvoiceLines(getDb(), id, version, lines, actor.id) });
+});
+
+/** Only a draft can be thrown away; an issued invoice is voided instead. */
+export const DELETE = route<Params>(async (_req, { params }) => {
+  const actor = await requireApiUser(["owner", "counter"]);
+  await deleteDraftInvoice(getDb(), parseId((await params).id), actor.id);
+  return new Response(null, { status: 204 });
+});

@@ -1,0 +1,9 @@
+import { getDb } from "@/db/client";
+import { voidInvoice } from "@/db/invoices";
+import { requireApiUser } from "@/lib/auth/guard";
+import { json, parseId, route } from "@/lib/http/route";
+
+export const POST = route<{ id: string }>(async (_req, { params }) => {
+  const actor = await requireApiUser(["owner", "counter"]);
+  return json({ invoice: await voidInvoice(getDb(), parseId((await params).id), actor.id) });
+});

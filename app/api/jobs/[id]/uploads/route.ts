@@ -1,0 +1,27 @@
+import { getDb } from "@/db/client";
+import { ALL_ROLES, requireApiUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { json, parseId, route } from "@/lib/http/route";
+import { findJobForUser } from "@/lib/jobs/access";
+import { uploadLimitBytes } from "@/lib/uploads/limits";
+import { readUploadForm } from "@/lib/uploads/read-form";
+import { listJobUploads, saveJobUpload } from "@/lib/uploads/save";
+import { uploadFormSchema } from "@/lib/validation/uploads";
+
+type Params = { id: string };
+
+export const GET = route<Params>(async (_req, { params }) => {
+  const user = await requireApiUser(ALL_ROLES);
+  const jobId = parseId((await params).id);
+  return json({ uploads: await listJobUploads(getDb(), jobId, user) });
+});
+
+/** multipart/form-data: `file`, `category` (arrival-photo | balancer-printout | other), `caption`. */
+export const POST = route<Params>(async (req, { params }) => {
+  const actor = await requireApiUser(SHOP_ROLES);
+  const jobId = parseId((await params).id);
+  await findJobForUser(getDb(), jobId, actor);
+  const maxBytes = uploadLimitBytes();
+  const form = await readUploadForm(req, maxBytes);
+  const input = uploadFormSchema.parse(Object.fromEntries(form));
+  return json({ upload: await saveJobUpload(getDb(), jobId, input, actor, { maxBytes }) }, 201);
+});

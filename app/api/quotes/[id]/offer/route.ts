@@ -1,0 +1,10 @@
+import { getDb } from "@/db/client";
+import { moveQuote } from "@/db/quotes";
+import { requireApiUser } from "@/lib/auth/guard";
+import { json, parseId, route } from "@/lib/http/route";
+
+export const POST = route<{ id: string }>(async (_req, { params }) => {
+  const actor = await requireApiUser(["owner", "counter"]);
+  const id = parseId((await params).id);
+  return json({ quote: await moveQuote(getDb(), id, "offer", actor.id) });
+});

@@ -1,0 +1,21 @@
+import { getDb } from "@/db/client";
+import { replaceQuoteLines } from "@/db/quotes";
+import { requireApiUser } from "@/lib/auth/guard";
+import { findQuoteForUser } from "@/lib/billing/access";
+import { json, parseId, parseJson, route } from "@/lib/http/route";
+import { documentLinesSchema } from "@/lib/validation/billing";
+
+type Params = { id: string };
+
+export const GET = route<Params>(async (_req, { params }) => {
+  const user = await requireApiUser(["owner", "counter", "customer"]);
+  return json({ quote: await findQuoteForUser(getDb(), parseId((await params).id), user) });
+});
+
+/** Replaces a draft quote's lines: `{ version, lines: [{ priceItemId | lineId, quantity, description? }] }`. */
+export const PUT = route<Params>(async (req, { params }) => {
+  const actor = await requireApiUser(["owner", "counter"]);
+  const id = parseId((await params).id);
+  const { version, lines } = await parseJson(req, documentLinesSchema);
+  return json({ quote: await replaceQuoteLines(getDb(), id, version, lines, actor.id) });
+});

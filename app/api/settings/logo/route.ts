@@ -1,0 +1,32 @@
+import { getDb } from "@/db/client";
+import { deleteShopLogo, findShopLogo } from "@/db/cards";
+import { requireApiUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { imageResponse } from "@/lib/cards/http";
+import { describeLogo, LOGO_MAX_BYTES, saveLogoUpload } from "@/lib/cards/logo";
+import { HttpError } from "@/lib/http/errors";
+import { json, route } from "@/lib/http/route";
+import { readUploadForm } from "@/lib/uploads/read-form";
+import { logoFormSchema } from "@/lib/validation/cards";
+
+/** The logo printed on balance cards, as an image. */
+export const GET = route(async () => {
+  await requireApiUser(SHOP_ROLES);
+  const logo = await findShopLogo(getDb());
+  if (!logo) throw new HttpError(404, "not_found", "The shop has no logo yet.");
+  return imageResponse(logo.content, logo.contentType, logo.sha256);
+});
+
+/** The owner uploads a new logo (multipart field `file`: PNG or JPEG, at most 2 MB). */
+export const PUT = route(async (req) => {
+  const user = await requireApiUser(["owner"]);
+  const form = await readUploadForm(req, LOGO_MAX_BYTES);
+  const { file } = logoFormSchema.parse({ file: form.get("file") });
+  return json({ logo: describeLogo(await saveLogoUpload(getDb(), file, user)) });
+});
+
+/** The owner removes the logo; cards issued from now on carry the shop's name only. */
+export const DELETE = route(async () => {
+  const user = await requireApiUser(["owner"]);
+  await deleteShopLogo(getDb(), user.id);
+  return json({ logo: describeLogo(undefined) });
+});

@@ -1,0 +1,74 @@
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { BillingStatus } from "@/components/billing/billing-status";
+import { RefreshWhileWaiting } from "@/components/billing/refresh-while-waiting";
+import { getDb } from "@/db/client";
+import { requirePageUser } from "@/lib/auth/guard";
+import { findInvoiceForUser } from "@/lib/billing/access";
+import { formatMoney } from "@/lib/billing/format";
+import { subtractMoney } from "@/lib/billing/money";
+import { HttpError } from "@/lib/http/errors";
+
+export const metadata = { title: "Payment" };
+
+/**
+ * Shows what our database says about the invoice. The redirect back from the payment page proves
+ * nothing; only the provider's signed notification marks an invoice paid.
+ */
+export default async function PayReturnPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | undefined>>;
+}) {
+  const { invoice: raw, result } = await searchParams;
+  const returnTo = `/pay/return?invoice=${encodeURIComponent(raw ?? "")}`;
+  const user = await requirePageUser(["owner", "counter", "customer"], returnTo);
+  const id = Number(raw);
+  if (!raw || !/^\d{1,12}$/.test(raw) || !Number.isSafeInteger(id) || id < 1) notFound();
+  const invoice = await findInvoiceForUser(getDb(), id, user).catch((e: unknown) => {
+    if (e instanceof HttpError && e.status === 404) notFound();
+    throw e;
+  });
+  const paid = invoice.status === "paid";
+  const owed = subtractMoney(invoice.total, invoice.amountPaid);
+  return (
+    <section className="panel space-y-4 p-6" data-testid="pay-return">
+      <div className="flex flex-wrap items-center gap-3">
+        <h1 className="text-2xl font-semibold">
+          Invoice <span className="font-mono">{invoice.number}</span>
+        </h1>
+        <BillingStatus kind="invoice" status={invoice.status} />
+      </div>
+      <div aria-live="polite" data-testid="pay-return-state">
+        {paid ? (
+          <p className="text-lg text-within">
+            Paid in full: {formatMoney(invoice.total, invoice.currency)}. Thank you.
+          </p>
+        ) : result === "cancelled" ? (
+          <p className="text-lg">
+            The payment was not completed and nothing was taken. Still owed:{" "}
+            <strong className="font-mono">{formatMoney(owed, invoice.currency)}</strong>.
+          </p>
+        ) : invoice.status === "issued" ? (
+          <>
+            <p className="text-lg">
+              Not paid yet: {formatMoney(owed, invoice.currency)} still owed.
+            </p>
+            {result === "success" ? (
+              <p className="text-sm text-graphite-600">
+                If you have just paid, the confirmation from the payment service can take a few
+                moments; this page checks again by itself.
+              </p>
+            ) : null}
+            {result === "success" ? <RefreshWhileWaiting /> : null}
+          </>
+        ) : (
+          <p className="text-lg">This invoice is {invoice.status}: there is nothing to pay.</p>
+        )}
+      </div>
+      <Link href={`/jobs/${invoice.jobId}/billing`} className="btn-secondary">
+        Back to job {invoice.jobNumber}
+      </Link>
+    </section>
+  );
+}

@@ -1,0 +1,32 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { CardCautions, VerifiedCardView } from "@/components/cards/verified-card-view";
+import { getDb } from "@/db/client";
+import { HttpError } from "@/lib/http/errors";
+import { verifyCardCode } from "@/lib/cards/verify";
+
+export const metadata: Metadata = { title: "Balance card check", robots: { index: false } };
+
+export default async function VerifiedCardPage({ params }: { params: Promise<{ code: string }> }) {
+  const { code } = await params;
+  const card = await verifyCardCode(getDb(), decodeURIComponent(code)).catch((error: unknown) => {
+    if (error instanceof HttpError && error.status === 404) notFound();
+    throw error;
+  });
+  return (
+    <>
+      <h1 className="text-2xl font-semibold">Balance card {card.verificationCode}</h1>
+      <VerifiedCardView card={card} />
+      <p className="text-sm text-graphite-600">
+        These are the figures as the shop issued them. To check that a PDF you were given is this
+        very card, unchanged,{" "}
+        <Link href="/verify" className="underline">
+          upload it here
+        </Link>
+        .
+      </p>
+      <CardCautions />
+    </>
+  );
+}

@@ -1,0 +1,158 @@
+"use client";
+
+import { startTransition, useActionState } from "react";
+import { createPriceAction, updatePriceAction } from "@/app/(shop)/prices/actions";
+import { ActionMessage, Field } from "@/components/ui/field";
+import { PRICE_KINDS, type PriceKind } from "@/db/billing-schema";
+import type { PriceItem } from "@/db/prices";
+import { PRICE_KIND_LABEL } from "./labels";
+
+/** Submits through the action inside a transition, so a refused form keeps what was typed. */
+function submitWith(action: (data: FormData) => void) {
+  return (e: React.FormEvent<HTMLFormElement>) => {
+    e.preventDefault();
+    const data = new FormData(e.currentTarget);
+    startTransition(() => action(data));
+  };
+}
+
+function KindSelect({ id, defaultValue }: { id: string; defaultValue: PriceKind }) {
+  return (
+    <select id={id} name="kind" defaultValue={defaultValue} className="field-input py-1">
+      {PRICE_KINDS.map((k) => (
+        <option key={k} value={k}>
+          {PRICE_KIND_LABEL[k]}
+        </option>
+      ))}
+    </select>
+  );
+}
+
+export function PriceRow({ price }: { price: PriceItem }) {
+  const [result, action, pending] = useActionState(updatePriceAction, null);
+  const formId = `price-${price.id}`;
+  const fields = result && !result.ok ? result.fields : undefined;
+  return (
+    <tr
+      className="border-b border-graphite-100 align-top last:border-0"
+      data-testid={`price-${price.code}`}
+    >
+      <td className="px-3 py-2">
+        <form id={formId} onSubmit={submitWith(action)}>
+          <input type="hidden" name="id" value={price.id} />
+          <input type="hidden" name="version" value={price.version} />
+        </form>
+        <label className="sr-only" htmlFor={`${formId}-code`}>
+          Code
+        </label>
+        <input
+          id={`${formId}-code`}
+          form={formId}
+          name="code"
+          defaultValue={price.code}
+          className="field-input w-28 py-1 font-mono uppercase"
+        />
+      </td>
+      <td className="px-3 py-2">
+        <label className="sr-only" htmlFor={`${formId}-description`}>
+          Work
+        </label>
+        <input
+          id={`${formId}-description`}
+          form={formId}
+          name="description"
+          defaultValue={price.description}
+          className="field-input min-w-64 py-1"
+        />
+      </td>
+      <td className="px-3 py-2">
+        <label className="sr-only" htmlFor={`${formId}-kind`}>
+          Kind
+        </label>
+        <select
+          id={`${formId}-kind`}
+          form={formId}
+          name="kind"
+          defaultValue={price.kind}
+          className="field-input py-1"
+        >
+          {PRICE_KINDS.map((k) => (
+            <option key={k} value={k}>
+              {PRICE_KIND_LABEL[k]}
+            </option>
+          ))}
+        </select>
+      </td>
+      <td className="px-3 py-2">
+        <label className="sr-only" htmlFor={`${formId}-unitPrice`}>
+          Price each
+        </label>
+        <input
+          id={`${formId}-unitPrice`}
+          form={formId}
+          name="unitPrice"
+          inputMode="decimal"
+          defaultValue={price.unitPrice}
+          className="field-input w-28 py-1 text-right font-mono"
+        />
+      </td>
+      <td className="px-3 py-2">
+        <label className="flex items-center gap-2">
+          <input form={formId} type="checkbox" name="active" defaultChecked={price.active} />
+          <span className="sr-only">In use</span>
+        </label>
+      </td>
+      <td className="px-3 py-2">
+        <button form={formId} className="btn-secondary py-1" type="submit" disabled={pending}>
+          Save
+        </button>
+        <div aria-live="polite" className="mt-1 max-w-56 text-xs">
+          {result && !result.ok ? (
+            <p className="text-replace">
+              {fields ? Object.values(fields).join(" ") : result.message}
+            </p>
+          ) : null}
+        </div>
+      </td>
+    </tr>
+  );
+}
+
+export function AddPriceForm() {
+  const [result, action, pending] = useActionState(createPriceAction, null);
+  const fields = result && !result.ok ? result.fields : undefined;
+  return (
+    <form
+      onSubmit={submitWith(action)}
+      className="panel grid gap-3 p-4 sm:grid-cols-4"
+      key={result?.ok ? result.data.id : "new"}
+    >
+      <h2 className="font-semibold sm:col-span-4">Add a price</h2>
+      <Field label="Code" name="code" required placeholder="BAL-V8" error={fields?.code} />
+      <div className="sm:col-span-2">
+        <Field label="Work" name="description" required error={fields?.description} />
+      </div>
+      <Field
+        label="Price each"
+        name="unitPrice"
+        inputMode="decimal"
+        required
+        placeholder="0.00"
+        error={fields?.unitPrice}
+      />
+      <div>
+        <label htmlFor="new-price-kind" className="mb-1 block text-sm font-semibold">
+          Kind
+        </label>
+        <KindSelect id="new-price-kind" defaultValue="balancing-by-layout" />
+        {fields?.kind ? <p className="mt-1 text-sm text-replace">{fields.kind}</p> : null}
+      </div>
+      <div className="flex items-end gap-4 sm:col-span-3">
+        <button className="btn-primary" type="submit" disabled={pending}>
+          Add
+        </button>
+        <ActionMessage result={result} />
+      </div>
+    </form>
+  );
+}

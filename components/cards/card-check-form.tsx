@@ -1,0 +1,90 @@
+"use client";
+
+import { type FormEvent, useState } from "react";
+import type { CardCheck } from "@/lib/cards/verify";
+import { VerifiedCardView } from "./verified-card-view";
+
+type State =
+  | { kind: "idle" }
+  | { kind: "checking" }
+  | { kind: "checked"; check: CardCheck }
+  | { kind: "failed"; message: string };
+
+/** Uploads a PDF to /api/verify/check and says whether it is a card the shop issued, unchanged. */
+export function CardCheckForm() {
+  const [state, setState] = useState<State>({ kind: "idle" });
+
+  async function check(event: FormEvent<HTMLFormElement>) {
+    event.preventDefault();
+    const form = new FormData(event.currentTarget);
+    setState({ kind: "checking" });
+    try {
+      const res = await fetch("/api/verify/check", { method: "POST", body: form });
+      const body: unknown = await res.json().catch(() => null);
+      if (!res.ok) {
+        const message =
+          (body as { error?: { message?: string } } | null)?.error?.message ??
+          `The check failed (${res.status}).`;
+        setState({ kind: "failed", message });
+        return;
+      }
+      setState({ kind: "checked", check: body as CardCheck });
+    } catch {
+      setState({ kind: "failed", message: "The server could not be reached. Try again." });
+    }
+  }
+
+  return (
+    <div className="panel space-y-4 p-4">
+      <form onSubmit={check} className="flex flex-wrap items-end gap-3">
+        <div className="grow">
+          <label htmlFor="verify-file" className="mb-1 block text-sm font-semibold">
+            Balance card PDF
+          </label>
+          <input
+            id="verify-file"
+            name="file"
+            type="file"
+            accept="application/pdf,.pdf"
+            required
+            className="field-input"
+          />
+        </div>
+        <button type="submit" className="btn-secondary" disabled={state.kind === "checking"}>
+          {state.kind === "checking" ? "Checking…" : "Check the file"}
+        </button>
+      </form>
+      <div aria-live="polite" data-testid="card-check-result">
+        {state.kind === "failed" ? <p className="text-replace">{state.message}</p> : null}
+        {state.kind === "checked" ? <CheckOutcome check={state.check} /> : null}
+      </div>
+    </div>
+  );
+}
+
+function CheckOutcome({ check }: { check: CardCheck }) {
+  if (check.result === "unknown") {
+    return (
+      <p className="font-semibold text-graphite-700">
+        Not one of our cards: this file matches no balance card on record and names none.
+      </p>
+    );
+  }
+  return (
+    <div className="space-y-3">
+      {check.result === "genuine" ? (
+        <p className="font-semibold text-within">
+          Genuine: this file is exactly the card the shop issued (code {check.card.verificationCode}
+          , revision {check.card.revision}).
+        </p>
+      ) : (
+        <p className="font-semibold text-replace">
+          Altered: this file names card {check.card.verificationCode}, revision{" "}
+          {check.card.revision}, but it is not the file the shop issued. Do not rely on its figures;
+          the card on record is below.
+        </p>
+      )}
+      <VerifiedCardView card={check.card} />
+    </div>
+  );
+}

@@ -1,0 +1,112 @@
+"use client";
+
+import { useId, useState } from "react";
+
+type Outcome = { ok: boolean; message: string } | null;
+
+interface InviteResponse {
+  invite?: { email: string; expiresAt: string };
+  mail?: { status: "queued" | "sent" | "failed"; lastError: string | null };
+  error?: { message: string; fields?: Record<string, string> };
+}
+
+/**
+ * For a customer record: e-mails the customer a one-time link to set a password, after which
+ * they can sign in and follow their own jobs. The counter and the owner may send it.
+ */
+export function InviteCustomerButton({
+  customerId,
+  email,
+}: {
+  customerId: number;
+  email: string | null;
+}) {
+  const id = useId();
+  const [open, setOpen] = useState(false);
+  const [address, setAddress] = useState(email ?? "");
+  const [pending, setPending] = useState(false);
+  const [outcome, setOutcome] = useState<Outcome>(null);
+  const [fieldError, setFieldError] = useState<string>();
+
+  async function send() {
+    setPending(true);
+    setOutcome(null);
+    setFieldError(undefined);
+    const res = await fetch("/api/invites", {
+      method: "POST",
+      headers: { "content-type": "application/json" },
+      body: JSON.stringify({ customerId, email: address.trim() || undefined }),
+    }).catch(() => null);
+    setPending(false);
+    const body = (await res?.json().catch(() => null)) as InviteResponse | null;
+    if (!res || !res.ok || !body?.invite) {
+      setFieldError(body?.error?.fields?.email);
+      setOutcome({ ok: false, message: body?.error?.message ?? "The invite could not be made." });
+      return;
+    }
+    const until = `${body.invite.expiresAt.slice(0, 16).replace("T", " ")} UTC`;
+    setOutcome(
+      body.mail?.status === "sent"
+        ? {
+            ok: true,
+            message: `Invite e-mailed to ${body.invite.email}. The link works until ${until}.`,
+          }
+        : {
+            ok: false,
+            message: `The invite was made but the e-mail did not go (${body.mail?.lastError ?? "no reason given"}). The owner can send it again from the Mail outbox.`,
+          },
+    );
+    if (body.mail?.status === "sent") setOpen(false);
+  }
+
+  return (
+    <div className="space-y-2" data-testid="invite-customer">
+      {open ? (
+        <form
+          className="flex flex-wrap items-end gap-2"
+          onSubmit={(e) => {
+            e.preventDefault();
+            void send();
+          }}
+          noValidate
+        >
+          <div className="min-w-64 flex-1">
+            <label htmlFor={`${id}-email`} className="mb-1 block text-sm font-semibold">
+              Send the invite to
+            </label>
+            <input
+              id={`${id}-email`}
+              type="email"
+              className="field-input"
+              value={address}
+              onChange={(e) => setAddress(e.target.value)}
+              aria-invalid={fieldError ? true : undefined}
+              aria-describedby={fieldError ? `${id}-email-error` : undefined}
+              required
+            />
+            {fieldError ? (
+              <p id={`${id}-email-error`} className="mt-1 text-sm text-replace">
+                {fieldError}
+              </p>
+            ) : null}
+          </div>
+          <button type="submit" className="btn-primary" disabled={pending}>
+            {pending ? "Sending…" : "Send invite"}
+          </button>
+          <button type="button" className="btn-secondary" onClick={() => setOpen(false)}>
+            Cancel
+          </button>
+        </form>
+      ) : (
+        <button type="button" className="btn-secondary" onClick={() => setOpen(true)}>
+          Invite to sign in
+        </button>
+      )}
+      <div aria-live="polite" className="min-h-5 text-sm">
+        {outcome ? (
+          <p className={outcome.ok ? "text-within" : "text-replace"}>{outcome.message}</p>
+        ) : null}
+      </div>
+    </div>
+  );
+}

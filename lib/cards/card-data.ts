@@ -1,0 +1,314 @@
+import type { CardPageSize } from "@/db/cards-schema";
+import type { Customer } from "@/db/customers";
+import { ROTATING_PARTS, type PartKind, type RotatingPart } from "@/db/schema";
+import type { ShopSettings } from "@/db/settings";
+import type { User } from "@/db/users";
+import {
+  findLayoutPreset,
+  type BalanceWarning,
+  type MatchedKind,
+  type PartStatus,
+} from "@/lib/balance";
+import type { RotatingRecordInput } from "@/lib/validation/workshop";
+import type { Workshop } from "@/lib/workshop/load";
+
+/** Bumped whenever the shape below changes, so old snapshots can still be read. */
+export const CARD_DATA_FORMAT = 1;
+
+/** The parts printed per cylinder, in bench order. */
+export const CARD_PART_KINDS = [
+  "piston",
+  "wristPin",
+  "retainers",
+  "rings",
+  "smallEnd",
+  "bigEnd",
+  "bearing",
+] as const satisfies readonly PartKind[];
+export type CardPartKind = (typeof CARD_PART_KINDS)[number];
+
+export interface CardPartFigure {
+  /** As first weighed (the mean of repeated readings). */
+  before: string;
+  /** As finished: the weight after machining where re-weighed, else the planned weight. */
+  after: string;
+  /** True when `after` was weighed, false when it is the planned figure. */
+  reweighed: boolean;
+  /** Against the target after machining. */
+  status: PartStatus;
+}
+
+export interface CardCylinder {
+  number: number;
+  crankpin: number;
+  parts: Partial<Record<CardPartKind, CardPartFigure>>;
+  reciprocating: string;
+  rotating: string;
+}
+
+export interface CardBobweight {
+  crankpin: number;
+  cylinders: number[];
+  rotating: string;
+  reciprocating: string;
+  mass: string;
+}
+
+export interface CardPlane {
+  plane: string;
+  /** Permissible residual unbalance, g·mm. */
+  allowed: string;
+  /** The same as a mass at the balancer radius, g. */
+  allowedMass: string | null;
+  /** Residual before correction, g·mm, and the balancer reading, g. */
+  before: { residual: string; mass: string } | null;
+  /** Final residual, g·mm, the balancer reading, g, and whether it is within the allowance. */
+  after: { residual: string; mass: string; pass: boolean } | null;
+}
+
+export interface CardRotatingRecord {
+  part: RotatingPart;
+  recorded: boolean;
+  grade: string | null;
+  rpm: number | null;
+  massKg: string | null;
+  radiusMm: string | null;
+  planes: CardPlane[];
+  /** Pass/fail of the final readings against the grade; null when not read yet. */
+  pass: boolean | null;
+  corrections: { plane: string; method: string; where: string; mass: string }[];
+  notes: string | null;
+  /** What is missing to work the allowance out. */
+  missing: string[];
+}
+
+/** Everything a balance card shows, stored with the card exactly as it was printed. */
+export interface CardData {
+  format: typeof CARD_DATA_FORMAT;
+  code: string;
+  verifyUrl: string;
+  revision: number;
+  /** The revision this one replaces, if any. */
+  supersedes: number | null;
+  pageSize: CardPageSize;
+  issuedAt: string;
+  issuedBy: { id: number; name: string };
+  shop: {
+    name: string;
+    address: string | null;
+    phone: string | null;
+    email: string | null;
+    logoSha256: string | null;
+  };
+  customer: { name: string; company: string | null };
+  job: {
+    id: number;
+    number: string;
+    engine: string;
+    layout: string | null;
+    layoutLabel: string | null;
+    cylinders: number;
+    boreMm: string | null;
+    strokeMm: string | null;
+    rodLengthMm: string | null;
+    maxRpm: number | null;
+    balanceType: "internal" | "external" | null;
+  };
+  unit: "g" | "oz";
+  resolution: string;
+  tolerance: string;
+  scaleName: string | null;
+  balancerName: string | null;
+  /** The kinds of part weighed on this job, in bench order. */
+  kinds: CardPartKind[];
+  targets: Partial<Record<MatchedKind, string>>;
+  cylinders: CardCylinder[];
+  bobweightNeeded: boolean;
+  balanceFactor: string | null;
+  oilAllowance: string;
+  bobweights: CardBobweight[];
+  rotating: CardRotatingRecord[];
+  /** What the balance engine flagged (light parts, spread readings, …). */
+  notices: string[];
+}
+
+export interface CardDataInput {
+  workshop: Workshop;
+  customer: Pick<Customer, "name" | "company">;
+  settings: Pick<ShopSettings, "shopName" | "address" | "phone" | "email">;
+  logoSha256: string | null;
+  issuer: Pick<User, "id" | "name">;
+  revision: number;
+  code: string;
+  verifyUrl: string;
+  pageSize: CardPageSize;
+  issuedAt: string;
+}
+
+/**
+ * The card's content from a job whose weigh-in is complete. Figures stay exact decimal strings;
+ * the PDF rounds them to the scale resolution when it prints them.
+ *
+ * @throws Error when the plan is not complete (callers check `plan.complete` first).
+ */
+export function buildCardData(input: CardDataInput): CardData {
+  const { workshop } = input;
+  const { job, plan } = workshop;
+  const { removal, finished } = plan;
+  if (!plan.complete || !removal || !finished) throw new Error("the weigh-in is not complete");
+
+  const reweighed = new Set(
+    workshop.weights
+      .filter((w) => w.phase === "final" && w.readings.length > 0)
+      .map((w) => `${w.cylinder}:${w.kind}`),
+  );
+  const before = new Map(removal.parts.map((p) => [`${p.cylinder}:${p.kind}`, p]));
+  const kinds = CARD_PART_KINDS.filter((k) => finished.parts.some((p) => p.kind === k));
+
+  const cylinders = finished.cylinders.map((c): CardCylinder => {
+    const parts: CardCylinder["parts"] = {};
+    for (const p of finished.parts) {
+      if (p.cylinder !== c.number || !isCardKind(p.kind)) continue;
+      const key = `${p.cylinder}:${p.kind}`;
+      parts[p.kind] = {
+        before: before.get(key)?.measured ?? p.measured,
+        after: p.measured,
+        reweighed: reweighed.has(key),
+        status: p.status,
+      };
+    }
+    return {
+      number: c.number,
+      crankpin: c.crankpin,
+      parts,
+      reciprocating: c.reciprocating,
+      rotating: c.rotating,
+    };
+  });
+
+  const preset = job.spec.layout ? findLayoutPreset(job.spec.layout) : undefined;
+  return {
+    format: CARD_DATA_FORMAT,
+    code: input.code,
+    verifyUrl: input.verifyUrl,
+    revision: input.revision,
+    supersedes: input.revision > 1 ? input.revision - 1 : null,
+    pageSize: input.pageSize,
+    issuedAt: input.issuedAt,
+    issuedBy: { id: input.issuer.id, name: input.issuer.name },
+    shop: {
+      name: input.settings.shopName,
+      address: input.settings.address,
+      phone: input.settings.phone,
+      email: input.settings.email,
+      logoSha256: input.logoSha256,
+    },
+    customer: { name: input.customer.name, company: input.customer.company },
+    job: {
+      id: job.id,
+      number: job.number,
+      engine: job.engine,
+      layout: job.spec.layout,
+      layoutLabel: preset?.label ?? null,
+      cylinders: finished.cylinders.length,
+      boreMm: job.spec.boreMm,
+      strokeMm: job.spec.strokeMm,
+      rodLengthMm: job.spec.rodLengthMm,
+      maxRpm: job.spec.maxRpm,
+      balanceType: job.spec.balanceType,
+    },
+    unit: finished.unit,
+    resolution: finished.resolution,
+    tolerance: finished.tolerance,
+    scaleName: job.spec.scaleName,
+    balancerName: job.spec.balancerName,
+    kinds,
+    targets: finished.targets,
+    cylinders,
+    bobweightNeeded: finished.bobweightNeeded,
+    balanceFactor: finished.balanceFactor,
+    oilAllowance: finished.oilAllowance,
+    bobweights: finished.bobweights.map((b) => ({
+      crankpin: b.crankpin,
+      cylinders: b.cylinders,
+      rotating: b.rotating,
+      reciprocating: b.reciprocating,
+      mass: b.mass,
+    })),
+    rotating: ROTATING_PARTS.map((part) => rotatingRecord(workshop, part)),
+    notices: notices(removal.warnings, finished.warnings),
+  };
+}
+
+function isCardKind(kind: string): kind is CardPartKind {
+  return (CARD_PART_KINDS as readonly string[]).includes(kind);
+}
+
+/**
+ * Light parts as finished (a replaced part no longer counts), everything else as first weighed:
+ * the finished set mixes planned and weighed figures, so its rod-total checks would mislead.
+ */
+function notices(removal: BalanceWarning[], finished: BalanceWarning[]): string[] {
+  const kept = [
+    ...removal.filter((w) => w.code !== "part-light"),
+    ...finished.filter((w) => w.code === "part-light"),
+  ];
+  return [...new Set(kept.map((w) => w.message))];
+}
+
+function rotatingRecord(workshop: Workshop, part: RotatingPart): CardRotatingRecord {
+  const record = workshop.rotating.find((r) => r.part === part);
+  if (!record) {
+    return {
+      part,
+      recorded: false,
+      grade: null,
+      rpm: null,
+      massKg: null,
+      radiusMm: null,
+      planes: [],
+      pass: null,
+      corrections: [],
+      notes: null,
+      missing: [],
+    };
+  }
+  const data = record.data as RotatingRecordInput;
+  const { permissible, before, after, missing } = record.check;
+  const planes: CardPlane[] = (permissible?.planes ?? []).map((p) => {
+    const b = before?.planes.find((x) => x.plane === p.plane);
+    const a = after?.planes.find((x) => x.plane === p.plane);
+    const reading = (side: RotatingRecordInput["before"]) =>
+      side?.[p.plane as "A" | "B"]?.mass ?? "0";
+    return {
+      plane: p.plane,
+      allowed: p.uPer,
+      allowedMass: p.massAtRadius ?? null,
+      before: b ? { residual: b.residual, mass: reading(data.before) } : null,
+      after: a ? { residual: a.residual, mass: reading(data.after), pass: a.pass } : null,
+    };
+  });
+  return {
+    part,
+    recorded: true,
+    grade: permissible?.grade ?? data.grade ?? null,
+    rpm: data.rpm ?? null,
+    massKg: data.massKg ?? null,
+    radiusMm: data.radiusMm ?? null,
+    planes,
+    pass: after ? after.pass : null,
+    corrections: (data.corrections ?? []).map((c) => ({
+      plane: c.plane,
+      method: c.method,
+      where: c.where,
+      mass: c.mass,
+    })),
+    notes: data.notes ?? null,
+    missing,
+  };
+}
+
+/** Reads a stored snapshot back. */
+export function parseCardData(json: string): CardData {
+  return JSON.parse(json) as CardData;
+}

@@ -1,0 +1,54 @@
+import { HttpError } from "@/lib/http/errors";
+import { contentDisposition } from "@/lib/uploads/file-names";
+import type { CardFile } from "./list";
+
+/** A JSON body that may be left out entirely (an empty POST); anything present must be JSON. */
+export async function readOptionalJson(req: Request): Promise<unknown> {
+  const text = await req.text();
+  if (text.trim() === "") return {};
+  try {
+    return JSON.parse(text) as unknown;
+  } catch {
+    throw new HttpError(400, "bad_json", "The request body is not valid JSON.");
+  }
+}
+
+/** The issue options: the JSON body, with `?pageSize=` used when the body does not name one. */
+export async function readIssueRequest(req: Request): Promise<unknown> {
+  const body = await readOptionalJson(req);
+  const pageSize = new URL(req.url).searchParams.get("pageSize");
+  if (pageSize === null || typeof body !== "object" || body === null || Array.isArray(body))
+    return body;
+  return "pageSize" in body ? body : { ...body, pageSize };
+}
+
+/** The card's bytes as issued, offered as a download under a safe name. */
+export function cardPdfResponse(file: CardFile): Response {
+  return new Response(new Uint8Array(file.bytes), {
+    status: 200,
+    headers: {
+      "Content-Type": "application/pdf",
+      "Content-Disposition": contentDisposition("attachment", file.fileName),
+      "Content-Length": String(file.bytes.byteLength),
+      "X-Content-Type-Options": "nosniff",
+      "Cache-Control": "private, no-cache",
+      ETag: `"${file.sha256}"`,
+      "Cross-Origin-Resource-Policy": "same-origin",
+    },
+  });
+}
+
+/** The logo's bytes for the owner's settings page. */
+export function imageResponse(content: Buffer, contentType: string, sha256: string): Response {
+  return new Response(new Uint8Array(content), {
+    status: 200,
+    headers: {
+      "Content-Type": contentType,
+      "Content-Length": String(content.byteLength),
+      "X-Content-Type-Options": "nosniff",
+      "Cache-Control": "private, no-cache",
+      ETag: `"${sha256}"`,
+      "Content-Security-Policy": "default-src 'none'; sandbox",
+    },
+  });
+}

@@ -1,0 +1,129 @@
+import { createHash } from "node:crypto";
+import { fileTypeFromBuffer } from "file-type";
+import type { DB } from "@/db/client";
+import { findCardByAnyCode, findCardByCode, findCardByHash, type StoredCard } from "@/db/cards";
+import { HttpError } from "@/lib/http/errors";
+import { parseCardData } from "./card-data";
+import { formatCode, normaliseCode } from "./code";
+import { showMass } from "./format";
+
+/** What anyone holding a card may confirm about it: its key figures, nothing about the customer. */
+export interface VerifiedCard {
+  verificationCode: string;
+  revision: number;
+  status: "current" | "superseded";
+  supersededByRevision: number | null;
+  supersededAt: string | null;
+  issuedAt: string;
+  shopName: string;
+  jobNumber: string;
+  engine: string;
+  /** SHA-256 of the PDF as issued, hex. */
+  sha256: string;
+  bobweights: {
+    needed: boolean;
+    unit: "g" | "oz";
+    /** Exact figures and as printed on the card (rounded to the scale resolution). */
+    perPin: { crankpin: number; cylinders: number[]; mass: string; printed: string }[];
+  };
+  /** The crankshaft's grade and whether its final readings are within it; null if not recorded. */
+  crank: { grade: string | null; pass: boolean | null } | null;
+}
+
+const NOT_FOUND_MESSAGE =
+  "No balance card has this verification code. Check the code printed on the card.";
+
+export function toVerifiedCard(card: StoredCard): VerifiedCard {
+  const data = parseCardData(card.dataJson);
+  const crank = data.rotating.find((r) => r.part === "crankshaft");
+  return {
+    verificationCode: formatCode(card.verificationCode),
+    revision: card.revision,
+    status: card.supersededAt === null ? "current" : "superseded",
+    supersededByRevision: card.supersededByRevision,
+    supersededAt: card.supersededAt,
+    issuedAt: card.issuedAt,
+    shopName: data.shop.name,
+    jobNumber: data.job.number,
+    engine: data.job.engine,
+    sha256: card.sha256,
+    bobweights: {
+      needed: data.bobweightNeeded && data.bobweights.length > 0,
+      unit: data.unit,
+      perPin: data.bobweights.map((b) => ({
+        crankpin: b.crankpin,
+        cylinders: b.cylinders,
+        mass: b.mass,
+        printed: showMass(b.mass, data.resolution),
+      })),
+    },
+    crank: crank?.recorded ? { grade: crank.grade, pass: crank.pass } : null,
+  };
+}
+
+/**
+ * The card a typed code belongs to. A code that is malformed and one that is simply unknown get
+ * the same 404, so the answer says nothing about which codes exist.
+ */
+export async function verifyCardCode(db: DB, typed: string): Promise<VerifiedCard> {
+  const code = normaliseCode(typed);
+  const card = code ? await findCardByCode(db, code) : undefined;
+  if (!card) throw new HttpError(404, "not_found", NOT_FOUND_MESSAGE);
+  return toVerifiedCard(card);
+}
+
+export type CardCheck =
+  | { result: "genuine"; sha256: string; card: VerifiedCard }
+  /** The file names one of our cards but is not the file that was issued. */
+  | { result: "altered"; sha256: string; card: VerifiedCard }
+  | { result: "unknown"; sha256: string };
+
+// Our cards carry their code in the document information (Keywords and Subject).
+const CODE_MARKS = [
+  /counterpoise-card\s+([0-9A-Z]{10})/g,
+  /verification code\s+([0-9A-Z]{5})-?([0-9A-Z]{5})/gi,
+];
+
+/**
+ * Every verification code a PDF's bytes carry in its document information, read straight from
+ * the file so that a damaged or edited file is still read. Also reads the strings that other
+ * programs write as UTF-16 or in hexadecimal when they save a copy.
+ */
+export function findCodesInPdf(bytes: Uint8Array): string[] {
+  const raw = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString("latin1");
+  const texts = [raw, raw.replace(/\0/g, "")];
+  for (const hex of raw.matchAll(/<((?:[0-9A-Fa-f]{2}\s*){20,400})>/g)) {
+    const decoded = Buffer.from((hex[1] ?? "").replace(/\s+/g, ""), "hex");
+    texts.push(decoded.toString("latin1").replace(/\0/g, ""));
+  }
+  const codes = new Set<string>();
+  for (const text of texts) {
+    for (const mark of CODE_MARKS) {
+      for (const match of text.matchAll(mark)) {
+        const code = normaliseCode(`${match[1] ?? ""}${match[2] ?? ""}`);
+        if (code) codes.add(code);
+      }
+    }
+  }
+  return [...codes];
+}
+
+/**
+ * Checks an uploaded file against the cards issued: the very file we issued ("genuine"), a PDF
+ * that names one of our cards but differs from it by even one byte ("altered"), or neither.
+ *
+ * @throws HttpError 422 when the file is not a PDF
+ */
+export async function checkCardPdf(db: DB, bytes: Uint8Array): Promise<CardCheck> {
+  const type = await fileTypeFromBuffer(bytes);
+  if (type?.mime !== "application/pdf") {
+    const message = "Only PDF files can be checked: choose the balance card PDF.";
+    throw new HttpError(422, "unsupported_type", message, { file: message });
+  }
+  const sha256 = createHash("sha256").update(bytes).digest("hex");
+  const exact = await findCardByHash(db, sha256);
+  if (exact) return { result: "genuine", sha256, card: toVerifiedCard(exact) };
+  const named = await findCardByAnyCode(db, findCodesInPdf(bytes));
+  if (named) return { result: "altered", sha256, card: toVerifiedCard(named) };
+  return { result: "unknown", sha256 };
+}

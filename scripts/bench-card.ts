@@ -1,0 +1,94 @@
+// Benchmark for the balance card: renders the demo V8's card (fully weighed) against a 1000 ms
+// budget. Run: npx tsx scripts/bench-card.ts. It prints figures; it never fails a build.
+import { pathToFileURL } from "node:url";
+import { openDatabase } from "@/db/client";
+import { findCustomerById } from "@/db/customers";
+import { findJobById } from "@/db/jobs";
+import { migrateToLatest } from "@/db/migrate";
+import { findShopSettings } from "@/db/settings";
+import { findUserByEmail } from "@/db/users";
+import { buildCardData } from "@/lib/cards/card-data";
+import { newVerificationCode } from "@/lib/cards/code";
+import { DEMO_USERS, seedDemo } from "@/lib/demo/seed";
+import { renderBalanceCard } from "@/lib/pdf/balance-card";
+import { loadWorkshop } from "@/lib/workshop/load";
+
+/** Budget for rendering one card, ms. */
+const BUDGET_MS = 1000;
+const WARM_UP_RUNS = 3;
+const MEASURED_RUNS = 10;
+
+export interface CardBenchFigures {
+  name: string;
+  pages: number;
+  bytes: number;
+  medianMs: number;
+  budgetMs: number;
+  ratio: number;
+}
+
+/** Renders the demo V8 card WARM_UP_RUNS times, then MEASURED_RUNS times; the median of those. */
+export async function runCardBench(): Promise<CardBenchFigures[]> {
+  const db = openDatabase(":memory:");
+  try {
+    await migrateToLatest(db);
+    await seedDemo(db);
+    const job = await findJobById(db, 1);
+    if (!job) throw new Error("the demo V8 job is missing");
+    const [workshop, customer, settings, machinist] = await Promise.all([
+      loadWorkshop(db, job),
+      findCustomerById(db, job.customerId),
+      findShopSettings(db),
+      findUserByEmail(db, DEMO_USERS.find((u) => u.role === "machinist")!.email),
+    ]);
+    if (!customer || !machinist) throw new Error("the demo shop is incomplete");
+    const render = async () => {
+      const code = newVerificationCode();
+      const data = buildCardData({
+        workshop,
+        customer: { name: customer.name, company: customer.company },
+        settings,
+        logoSha256: null,
+        issuer: machinist,
+        revision: 1,
+        code,
+        verifyUrl: `http://localhost:3000/verify/${code}`,
+        pageSize: "A4",
+        issuedAt: new Date().toISOString(),
+      });
+      return renderBalanceCard(data, null);
+    };
+    let last: Buffer = Buffer.alloc(0);
+    for (let i = 0; i < WARM_UP_RUNS; i += 1) last = await render();
+    const times: number[] = [];
+    for (let i = 0; i < MEASURED_RUNS; i += 1) {
+      const start = performance.now();
+      last = await render();
+      times.push(performance.now() - start);
+    }
+    times.sort((a, b) => a - b);
+    const mid = Math.floor(times.length / 2);
+    const medianMs = times.length % 2 ? times[mid]! : (times[mid - 1]! + times[mid]!) / 2;
+    const pages = (last.toString("latin1").match(/\/Type \/Page\b/g) ?? []).length;
+    return [
+      {
+        name: "balance card, demo V8",
+        pages,
+        bytes: last.byteLength,
+        medianMs,
+        budgetMs: BUDGET_MS,
+        ratio: medianMs / BUDGET_MS,
+      },
+    ];
+  } finally {
+    await db.destroy();
+  }
+}
+
+if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  for (const f of await runCardBench()) {
+    console.log(
+      `${f.name}: median ${f.medianMs.toFixed(1)} ms over ${MEASURED_RUNS} renders, ${f.pages} page(s), ${(f.bytes / 1024).toFixed(0)} KiB (budget ${f.budgetMs} ms, ratio ${f.ratio.toFixed(2)})`,
+    );
+  }
+}

@@ -1,0 +1,121 @@
+import { expect, type Page, test } from "@playwright/test";
+import { computeBalance, formatMass } from "@/lib/balance";
+import { signInAs, signOut } from "./helpers";
+
+// An invented V8 set (g), typed at the bench: pistons, pins, retainers, rings, small ends, big ends, bearings.
+const SET: Record<string, string[]> = {
+  Piston: ["501.2", "500.4", "502.0", "500.9", "500.1", "501.6", "501.1", "500.5"],
+  "Wrist pin": ["140.2", "140.1", "140.4", "140.2", "140.3", "140.0", "140.2", "140.1"],
+  "Pin retainers (pair)": ["2.0", "2.0", "2.1", "2.0", "2.0", "2.1", "2.0", "2.0"],
+  "Ring set": ["46.1", "46.3", "46.0", "46.2", "46.1", "46.4", "46.1", "46.2"],
+  "Rod small end": ["180.4", "179.8", "181.0", "180.1", "180.6", "179.9", "180.2", "181.1"],
+  "Rod big end": ["450.2", "451.0", "449.8", "452.1", "450.6", "450.0", "451.3", "450.4"],
+  "Rod bearing shells": ["52.1", "52.3", "52.0", "52.2", "52.1", "52.4", "52.2", "52.1"],
+};
+const KINDS = [
+  "piston",
+  "wristPin",
+  "retainers",
+  "rings",
+  "smallEnd",
+  "bigEnd",
+  "bearing",
+] as const;
+
+const STATE: Record<string, string> = {
+  "On the scale": "weighing",
+  "At the machine": "machining",
+  "On the balancer": "balancing",
+  "Final check": "checking",
+  "Ready to collect": "ready",
+};
+
+async function moveTo(page: Page, label: string) {
+  await page.getByRole("button", { name: `Move to “${label}”` }).click();
+  await expect(page.getByRole("combobox", { name: "Job state" })).toHaveValue(STATE[label]!);
+}
+
+test("a V8 from booking in to ready to collect, weighed by keyboard only", async ({ page }) => {
+  test.setTimeout(180_000);
+  const customerName = `Sigrun Vale ${Date.now().toString(36)}`;
+
+  // The counter books the job in for a new customer.
+  await signInAs(page, "counter");
+  await page.getByRole("link", { name: "Book a job in" }).click();
+  await page.getByRole("button", { name: "New customer" }).click();
+  await page.getByLabel("Name").fill(customerName);
+  await page.getByLabel("Description").fill("Cross-plane V8 for a hill-climb car");
+  await page.getByLabel("Layout").selectOption("v8-cross-plane");
+  await page.getByRole("radio", { name: "inches" }).check();
+  await page.getByLabel("Bore").fill("4.030");
+  await page.getByLabel("Stroke").fill("3.480");
+  await page.getByLabel("Pistons", { exact: true }).check();
+  await page.getByLabel("Con-rods", { exact: true }).check();
+  await page.getByRole("button", { name: "Book the job in" }).click();
+  await expect(page).toHaveURL(/\/jobs\/\d+$/);
+  const jobUrl = new URL(page.url()).pathname;
+  const jobNumber = (await page.getByRole("heading", { level: 1 }).textContent())!.trim();
+  // 4.030 in × 25.4 = 102.362 mm (NIST: 1 in = 25.4 mm exactly).
+  await expect(page.getByText("102.362 × 88.392 mm")).toBeVisible();
+  await moveTo(page, "On the scale");
+  await signOut(page);
+
+  // The machinist weighs the set: digits and Enter only, all pistons first.
+  await signInAs(page, "machinist");
+  await page.goto(`${jobUrl}/weigh`);
+  await page.getByLabel("Cylinder 1 Piston, g").focus();
+  for (const values of Object.values(SET)) {
+    for (const value of values) await page.keyboard.type(`${value}\n`, { delay: 5 });
+  }
+  await expect(page.getByText("Every part needed for the plan is weighed.")).toBeVisible();
+  await expect(page.getByTestId("cell-note-c8_bearing")).toContainText("saved");
+
+  // The removal plan: piston 3 is 1.9 g over the lightest (502.0 − 500.1), outside 0.5 g.
+  await page.getByRole("link", { name: "Metal to remove" }).click();
+  const pistons = page.getByRole("region", { name: "Piston" });
+  await expect(pistons.getByRole("row").filter({ hasText: /^3/ })).toContainText("1.9");
+
+  // Bobweights, checked against the engine itself run on the same weights (DOMAIN.md §3 formula).
+  const expected = computeBalance({
+    layout: { preset: "v8-cross-plane" },
+    cylinders: Array.from({ length: 8 }, (_, i) => ({
+      number: i + 1,
+      ...Object.fromEntries(KINDS.map((k, j) => [k, Object.values(SET)[j]![i]!])),
+    })) as never,
+  });
+  await page.getByRole("link", { name: "Bobweights" }).click();
+  const cards = page.getByTestId("bobweights").getByRole("listitem");
+  await expect(cards).toHaveCount(4);
+  for (const [i, b] of expected.bobweights.entries()) {
+    await expect(cards.nth(i)).toContainText(formatMass(b.mass, "0.1"));
+  }
+
+  // The crank on the balancer: before and after, against G 6.3.
+  await page.getByRole("link", { name: "Crank & rotating" }).click();
+  await page.getByLabel("Mass (kg)").fill("24.5");
+  await page.getByLabel("Balancer reading radius (mm)").fill("50");
+  await page.getByLabel("before plane A grams").fill("11.5");
+  await page.getByLabel("before plane B grams").fill("8.2");
+  await page.getByLabel("after plane A grams").fill("0.6");
+  await page.getByLabel("after plane B grams").fill("0.4");
+  await page.getByRole("button", { name: "Save record" }).click();
+  await expect(page.getByTestId("rotating-verdict")).toContainText("After: within the grade");
+  await expect(page.getByTestId("rotating-verdict")).toContainText("Before: over the grade");
+
+  // The job moves along to collection.
+  await page.getByRole("link", { name: "Overview" }).click();
+  for (const label of ["At the machine", "On the balancer", "Final check", "Ready to collect"])
+    await moveTo(page, label);
+  await expect(page.getByTestId("job-changes")).toContainText(
+    "Cylinder 8 rod bearing shells (first weigh): empty → 52.1",
+  );
+  await signOut(page);
+
+  // The demo customer is someone else: the job is not theirs to see, by page or by API.
+  await signInAs(page, "customer");
+  await expect(page.getByTestId("jobs-table")).not.toContainText(jobNumber);
+  await page.goto(jobUrl);
+  await expect(page.getByRole("heading", { name: "Not here" })).toBeVisible();
+  const api = await page.request.get(`/api${jobUrl}`);
+  expect(api.status()).toBe(404);
+});

@@ -1,0 +1,64 @@
+import { renderToStaticMarkup } from "react-dom/server";
+import { beforeEach, describe, expect, it } from "vitest";
+import { JobCards } from "@/components/cards/job-cards";
+import type { DB } from "@/db/client";
+import { createJob } from "@/db/jobs";
+import type { Role } from "@/db/schema";
+import type { User } from "@/db/users";
+import { issueCard } from "@/lib/cards/issue";
+import { addOneOfEachRole, freshDb } from "../../helpers/db";
+import { createFourCylinderJob } from "../../api/cards/fixtures";
+
+let db: DB;
+let users: Record<Role, User>;
+
+beforeEach(async () => {
+  db = await freshDb();
+  users = await addOneOfEachRole(db);
+});
+
+const html = async (jobId: number, user: User) =>
+  renderToStaticMarkup(await JobCards({ jobId, user }));
+
+describe("the job page's balance card panel", () => {
+  it("lists every revision, current and replaced, with downloads, for the machinist to issue the next", async () => {
+    const job = await createFourCylinderJob(db, users.customer.customerId!);
+    await issueCard(db, job.id, users.machinist);
+    await issueCard(db, job.id, users.machinist);
+    const page = await html(job.id, users.machinist);
+    expect(page).toContain("Revision 2");
+    expect(page).toContain("Current");
+    expect(page).toContain("Replaced by revision 2");
+    expect(page).toContain(`href="/api/jobs/${job.id}/cards/1/pdf"`);
+    expect(page).toContain("Issue balance card (revision 3)");
+    expect(page).toContain("E-mail to customer");
+  });
+
+  it("gives the counter e-mailing but no issuing, and the customer downloads only", async () => {
+    const job = await createFourCylinderJob(db, users.customer.customerId!);
+    await issueCard(db, job.id, users.owner);
+    const counter = await html(job.id, users.counter);
+    expect(counter).toContain("E-mail to customer");
+    expect(counter).not.toContain("Issue balance card");
+    const customer = await html(job.id, users.customer);
+    expect(customer).toContain("Download PDF");
+    expect(customer).not.toContain("E-mail to customer");
+    expect(customer).not.toContain("Issue balance card");
+  });
+
+  it("says why a card cannot be issued while the weigh-in is incomplete", async () => {
+    const job = await createJob(
+      db,
+      {
+        customerId: users.customer.customerId!,
+        engine: "x",
+        spec: { layout: "single", cylinders: 1 },
+      },
+      null,
+    );
+    const page = await html(job.id, users.machinist);
+    expect(page).toContain("No balance card has been issued for this job yet.");
+    expect(page).toContain("The weigh-in is not complete: 4 parts have no weight yet");
+    expect(page).toMatch(/<button[^>]*disabled=""[^>]*>Issue balance card<\/button>/);
+  });
+});

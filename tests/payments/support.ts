@@ -1,0 +1,88 @@
+import { createServer, type Server } from "node:http";
+import type { AddressInfo } from "node:net";
+import Stripe from "stripe";
+import { POST as webhookRoute } from "@/app/api/payments/webhook/route";
+import { noParams } from "../helpers/http";
+
+export const TEST_WEBHOOK_SECRET = "whsec_local";
+
+/** A checkout.session.completed event as the provider sends it, paid, for an invoice. */
+export function completedEvent(
+  invoiceId: number,
+  amountCents: number,
+  overrides: {
+    eventId?: string;
+    sessionId?: string;
+    paymentStatus?: "paid" | "unpaid";
+    currency?: string;
+  } = {},
+) {
+  return {
+    id: overrides.eventId ?? `evt_test_${Math.random().toString(36).slice(2)}`,
+    object: "event",
+    type: "checkout.session.completed",
+    created: Math.floor(Date.now() / 1000),
+    livemode: false,
+    data: {
+      object: {
+        id: overrides.sessionId ?? "cs_test_one",
+        object: "checkout.session",
+        amount_total: amountCents,
+        currency: overrides.currency ?? "usd",
+        payment_status: overrides.paymentStatus ?? "paid",
+        status: "complete",
+        payment_intent: "pi_test_one",
+        client_reference_id: String(invoiceId),
+        metadata: { invoiceId: String(invoiceId) },
+      },
+    },
+  };
+}
+
+/** The raw request the provider would make: body and, unless left off, its signature header. */
+export function webhookRequest(
+  payload: string,
+  signature: { secret: string } | { header: string } | null = { secret: TEST_WEBHOOK_SECRET },
+): Request {
+  const headers: Record<string, string> = { "content-type": "application/json" };
+  if (signature) {
+    headers["stripe-signature"] =
+      "header" in signature
+        ? signature.header
+        : Stripe.webhooks.generateTestHeaderString({ payload, secret: signature.secret });
+  }
+  return new Request("http://localhost/api/payments/webhook", {
+    method: "POST",
+    headers,
+    body: payload,
+  });
+}
+
+export async function deliver(payload: string, signature?: Parameters<typeof webhookRequest>[1]) {
+  const res = await webhookRoute(webhookRequest(payload, signature), noParams);
+  return { status: res.status, body: await res.json() };
+}
+
+/** A tiny node:http server that hands each request to the webhook route handler, as Next would. */
+export async function startWebhookAdapter(): Promise<{ url: string; server: Server }> {
+  const server = createServer((req, res) => {
+    const chunks: Buffer[] = [];
+    req.on("data", (c: Buffer) => chunks.push(c));
+    req.on("end", async () => {
+      const headers = new Headers();
+      for (const [k, v] of Object.entries(req.headers))
+        if (typeof v === "string") headers.set(k, v);
+      const request = new Request(`http://127.0.0.1${req.url}`, {
+        method: req.method,
+        headers,
+        body: Buffer.concat(chunks).toString("utf8"),
+      });
+      const response = await webhookRoute(request, noParams);
+      res.writeHead(response.status, { "content-type": "application/json" });
+      res.end(await response.text());
+    });
+  });
+  await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
+  const { port } = server.address() as AddressInfo;
+  return { url: `http://127.0.0.1:${port}/api/payments/webhook`, server };
+}
