@@ -28,7 +28,7 @@ const config: Config = {
           700: "#7a5b1d",
         },
         within: "#2f7d4f",
-        machine: "#b8660b",
+        machine: "#8a4b05",
         replace: "#b3261e",
       },
       fontFamily: {

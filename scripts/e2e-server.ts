@@ -9,6 +9,7 @@ import {
   startNext,
   startNode,
   stopProcess,
+  TSX_CLI,
   waitForOk,
   waitForPort,
 } from "../tests/e2e/support/app-server";
@@ -30,8 +31,17 @@ interface LocalService {
   readyPort?: number;
 }
 
-const env = appEnvironment(PORT, "e2e", {});
-const SERVICES: LocalService[] = [];
+const env = appEnvironment(PORT, "e2e", {
+  SMTP_URL: "smtp://127.0.0.1:2625",
+  FAKE_SMTP_PORT: "2625",
+  STRIPE_API_BASE: "http://127.0.0.1:4342",
+  FAKE_PAYMENTS_PORT: "4342",
+  FAKE_PAYMENTS_WEBHOOK_URL: `http://127.0.0.1:${PORT}/api/payments/webhook`,
+});
+const SERVICES: LocalService[] = [
+  { name: "mail capture", args: [TSX_CLI, "scripts/fake-smtp.ts"], readyPort: 2625 },
+  { name: "payments", args: [TSX_CLI, "scripts/fake-payments.ts"], readyPort: 4342 },
+];
 
 const running: { name: string; child: ChildProcess }[] = [];
 let stopping = false;

@@ -3,7 +3,7 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useMutation } from "@tanstack/react-query";
 import Decimal from "decimal.js";
-import { type KeyboardEvent, useMemo, useRef, useState } from "react";
+import { type KeyboardEvent, useEffect, useMemo, useRef, useState } from "react";
 import { useForm } from "react-hook-form";
 import { z } from "zod";
 import type { PartKind, WeighPhase } from "@/db/schema";
@@ -62,6 +62,9 @@ export function WeighGrid({
   const [order, setOrder] = useState<Order>(workshop.job.spec.benchOrder);
   const [cells, setCells] = useState<Record<string, CellState>>({});
   const [announce, setAnnounce] = useState("");
+  // Set once the grid is live in the browser: typing before that would be lost to hydration.
+  const [ready, setReady] = useState(false);
+  useEffect(() => setReady(true), []);
   const inputs = useRef<Record<string, HTMLInputElement | null>>({});
   // What the server holds for each cell of this phase: read synchronously between Enter and blur.
   const saved = useRef<Record<string, { text: string; version: number }>>({});
@@ -263,7 +266,11 @@ export function WeighGrid({
       </div>
 
       <div className="panel overflow-x-auto">
-        <table className="w-full border-collapse text-sm" data-testid="weigh-grid">
+        <table
+          className="w-full border-collapse text-sm"
+          data-testid="weigh-grid"
+          data-ready={ready ? "true" : "false"}
+        >
           <thead className="bg-graphite-50 text-graphite-600">
             <tr>
               <th scope="col" className="px-2 py-2 text-left font-semibold">

@@ -56,8 +56,13 @@ const grade = z
   .transform((g) => g.replace(/^G\s*/i, ""))
   .pipe(z.enum(BALANCE_GRADES, { message: "Choose an ISO 21940-11 grade, G 0.4 to G 4000." }));
 
+// The angle is checked here so its message names the plane sent ("readings.A.angle").
 const plane = z
-  .object({ mass: decimalString, radius: positiveDecimal, angle: decimalString.optional() })
+  .object({
+    mass: decimalString,
+    radius: positiveDecimal,
+    angle: decimalString.refine((v) => Number(v) <= 360, "An angle from 0 to 360°.").optional(),
+  })
   .strict();
 
 /** POST /api/balance/crank: permissible residual per plane, and optionally a check of readings. */

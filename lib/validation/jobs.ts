@@ -6,8 +6,10 @@ import { jobSpecSchema } from "./workshop";
 
 export const jobStatusField = z.enum(JOB_STATUSES, { message: "Not a job state." });
 
+const blankAsAbsent = (v: unknown) => (v === "" ? undefined : v);
+
 export const jobListQuerySchema = listQuerySchema.extend({
-  status: jobStatusField.optional(),
+  status: z.preprocess(blankAsAbsent, jobStatusField.optional()),
   customerId: z.coerce.number().int().positive().optional(),
   sort: z.enum(JOB_SORTS).default("newest"),
 });

@@ -49,6 +49,7 @@ test("a V8 from booking in to ready to collect, weighed by keyboard only", async
   await page.getByRole("radio", { name: "inches" }).check();
   await page.getByLabel("Bore").fill("4.030");
   await page.getByLabel("Stroke").fill("3.480");
+  await page.getByLabel("Max service rpm").fill("7200");
   await page.getByLabel("Pistons", { exact: true }).check();
   await page.getByLabel("Con-rods", { exact: true }).check();
   await page.getByRole("button", { name: "Book the job in" }).click();
@@ -63,6 +64,7 @@ test("a V8 from booking in to ready to collect, weighed by keyboard only", async
   // The machinist weighs the set: digits and Enter only, all pistons first.
   await signInAs(page, "machinist");
   await page.goto(`${jobUrl}/weigh`);
+  await expect(page.getByTestId("weigh-grid")).toHaveAttribute("data-ready", "true");
   await page.getByLabel("Cylinder 1 Piston, g").focus();
   for (const values of Object.values(SET)) {
     for (const value of values) await page.keyboard.type(`${value}\n`, { delay: 5 });
@@ -92,6 +94,8 @@ test("a V8 from booking in to ready to collect, weighed by keyboard only", async
 
   // The crank on the balancer: before and after, against G 6.3.
   await page.getByRole("link", { name: "Crank & rotating" }).click();
+  // The service speed comes from the booking.
+  await expect(page.getByLabel("Max service speed (rpm)")).toHaveValue("7200");
   await page.getByLabel("Mass (kg)").fill("24.5");
   await page.getByLabel("Balancer reading radius (mm)").fill("50");
   await page.getByLabel("before plane A grams").fill("11.5");

@@ -6,15 +6,9 @@ import { getDb } from "@/db/client";
 import type { User } from "@/db/users";
 import { checkAccess } from "@/lib/auth/guard";
 import { type ActionResult, toActionFailure } from "@/lib/http/action-result";
+import { formValues } from "@/lib/http/form-values";
 import { addUser, changeUser } from "@/lib/users/manage";
 import { newUserSchema, userChangesSchema } from "@/lib/validation/users";
-
-function formValues(form: FormData): Record<string, string> {
-  const values: Record<string, string> = {};
-  for (const [k, v] of form)
-    if (typeof v === "string" && v !== "" && !k.startsWith("$")) values[k] = v;
-  return values;
-}
 
 export async function createUserAction(
   _prev: ActionResult<User> | null,
