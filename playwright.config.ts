@@ -1,6 +1,7 @@
 import { defineConfig, devices } from "@playwright/test";
 
-export const E2E_PORT = 3100;
+// E2E_PORT moves the whole browser-test setup (app, fakes, data folder) so two runs can share a machine.
+export const E2E_PORT = Number(process.env.E2E_PORT ?? 3100);
 const baseURL = `http://127.0.0.1:${E2E_PORT}`;
 
 // Debian's Chromium, never a downloaded browser (`npx playwright install` is not used here).

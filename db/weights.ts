@@ -1,4 +1,4 @@
-import type { Kysely } from "kysely";
+import type { Kysely, Transaction } from "kysely";
 import { createAuditEntry } from "./audit";
 import { ConflictError, NotFoundError, StaleWriteError } from "./errors";
 import type { Database, PartKind, RotatingPart, WeighPhase } from "./schema";
@@ -53,71 +53,92 @@ export async function savePartWeight(
   actorId: number | null,
   now = new Date(),
 ): Promise<PartWeight | null> {
-  return db.transaction().execute(async (trx) => {
-    const job = await trx
-      .selectFrom("jobs")
-      .select("id")
-      .where("id", "=", write.jobId)
-      .executeTakeFirst();
-    if (!job) throw new NotFoundError("job");
-    const key = {
-      job_id: write.jobId,
-      cylinder: write.cylinder,
-      kind: write.kind,
-      phase: write.phase,
-    };
-    const before = await trx
-      .selectFrom("part_weights")
-      .selectAll()
-      .where("job_id", "=", key.job_id)
-      .where("cylinder", "=", key.cylinder)
-      .where("kind", "=", key.kind)
-      .where("phase", "=", key.phase)
-      .executeTakeFirst();
-    const currentVersion = before?.version ?? 0;
-    if (currentVersion !== write.baseVersion) throw new StaleWriteError("weight", currentVersion);
+  return db.transaction().execute((trx) => writePartWeight(trx, write, actorId, now));
+}
 
-    const at = now.toISOString();
-    const entityId = `${write.jobId}:${write.cylinder}:${write.kind}:${write.phase}`;
-    const beforeReadings = before ? (JSON.parse(before.readings_json) as string[]) : [];
-    let saved: PartWeight | null = null;
-    if (write.readings.length === 0) {
-      if (before) await trx.deleteFrom("part_weights").where("id", "=", before.id).execute();
-    } else {
-      const readings_json = JSON.stringify(write.readings);
-      const version = currentVersion + 1;
-      if (before) {
-        await trx
-          .updateTable("part_weights")
-          .set({ readings_json, version, updated_by: actorId, updated_at: at })
-          .where("id", "=", before.id)
-          .execute();
-      } else {
-        await trx
-          .insertInto("part_weights")
-          .values({ ...key, readings_json, version, updated_by: actorId, updated_at: at })
-          .execute();
-      }
-      saved = {
-        cylinder: key.cylinder,
-        kind: key.kind,
-        phase: key.phase,
-        readings: write.readings,
-        version,
-        updatedAt: at,
-      };
-    }
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: saved ? "weigh" : "clear",
-      entity: "part_weight",
-      entityId,
-      before: beforeReadings,
-      after: saved?.readings ?? [],
-    });
-    await trx.updateTable("jobs").set({ updated_at: at }).where("id", "=", write.jobId).execute();
+/** Several parts at once (a CSV import): all of them, or none if any is stale. */
+export async function savePartWeights(
+  db: Kysely<Database>,
+  writes: PartWeightWrite[],
+  actorId: number | null,
+  now = new Date(),
+): Promise<(PartWeight | null)[]> {
+  return db.transaction().execute(async (trx) => {
+    const saved = [];
+    for (const write of writes) saved.push(await writePartWeight(trx, write, actorId, now));
     return saved;
   });
+}
+
+async function writePartWeight(
+  trx: Transaction<Database>,
+  write: PartWeightWrite,
+  actorId: number | null,
+  now: Date,
+): Promise<PartWeight | null> {
+  const job = await trx
+    .selectFrom("jobs")
+    .select("id")
+    .where("id", "=", write.jobId)
+    .executeTakeFirst();
+  if (!job) throw new NotFoundError("job");
+  const key = {
+    job_id: write.jobId,
+    cylinder: write.cylinder,
+    kind: write.kind,
+    phase: write.phase,
+  };
+  const before = await trx
+    .selectFrom("part_weights")
+    .selectAll()
+    .where("job_id", "=", key.job_id)
+    .where("cylinder", "=", key.cylinder)
+    .where("kind", "=", key.kind)
+    .where("phase", "=", key.phase)
+    .executeTakeFirst();
+  const currentVersion = before?.version ?? 0;
+  if (currentVersion !== write.baseVersion) throw new StaleWriteError("weight", currentVersion);
+
+  const at = now.toISOString();
+  const entityId = `${write.jobId}:${write.cylinder}:${write.kind}:${write.phase}`;
+  const beforeReadings = before ? (JSON.parse(before.readings_json) as string[]) : [];
+  let saved: PartWeight | null = null;
+  if (write.readings.length === 0) {
+    if (before) await trx.deleteFrom("part_weights").where("id", "=", before.id).execute();
+  } else {
+    const readings_json = JSON.stringify(write.readings);
+    const version = currentVersion + 1;
+    if (before) {
+      await trx
+        .updateTable("part_weights")
+        .set({ readings_json, version, updated_by: actorId, updated_at: at })
+        .where("id", "=", before.id)
+        .execute();
+    } else {
+      await trx
+        .insertInto("part_weights")
+        .values({ ...key, readings_json, version, updated_by: actorId, updated_at: at })
+        .execute();
+    }
+    saved = {
+      cylinder: key.cylinder,
+      kind: key.kind,
+      phase: key.phase,
+      readings: write.readings,
+      version,
+      updatedAt: at,
+    };
+  }
+  await createAuditEntry(trx, {
+    userId: actorId,
+    action: saved ? "weigh" : "clear",
+    entity: "part_weight",
+    entityId,
+    before: beforeReadings,
+    after: saved?.readings ?? [],
+  });
+  await trx.updateTable("jobs").set({ updated_at: at }).where("id", "=", write.jobId).execute();
+  return saved;
 }
 
 export interface PartTarget {

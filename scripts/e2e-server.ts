@@ -1,6 +1,6 @@
 // The app as the browser tests see it (Playwright's webServer starts this): a fresh demo shop in
 // data/e2e/, a production build (E2E_SKIP_BUILD=1 reuses the last one), local fake services, and
-// `next start` on http://127.0.0.1:3100. SIGTERM or SIGINT stops everything it started.
+// `next start` on http://127.0.0.1:3100 (or E2E_PORT; the fakes sit at fixed offsets from it). SIGTERM or SIGINT stops everything it started.
 import type { ChildProcess } from "node:child_process";
 import {
   appEnvironment,
@@ -14,7 +14,9 @@ import {
   waitForPort,
 } from "../tests/e2e/support/app-server";
 
-const PORT = 3100;
+const PORT = Number(process.env.E2E_PORT ?? 3100);
+const SMTP_PORT = PORT - 475;
+const PAYMENTS_PORT = PORT + 1242;
 
 /**
  * Local stand-ins for hosted services, started before the app and stopped after it. To add one,
@@ -31,16 +33,16 @@ interface LocalService {
   readyPort?: number;
 }
 
-const env = appEnvironment(PORT, "e2e", {
-  SMTP_URL: "smtp://127.0.0.1:2625",
-  FAKE_SMTP_PORT: "2625",
-  STRIPE_API_BASE: "http://127.0.0.1:4342",
-  FAKE_PAYMENTS_PORT: "4342",
+const env = appEnvironment(PORT, PORT === 3100 ? "e2e" : `e2e-${PORT}`, {
+  SMTP_URL: `smtp://127.0.0.1:${SMTP_PORT}`,
+  FAKE_SMTP_PORT: String(SMTP_PORT),
+  STRIPE_API_BASE: `http://127.0.0.1:${PAYMENTS_PORT}`,
+  FAKE_PAYMENTS_PORT: String(PAYMENTS_PORT),
   FAKE_PAYMENTS_WEBHOOK_URL: `http://127.0.0.1:${PORT}/api/payments/webhook`,
 });
 const SERVICES: LocalService[] = [
-  { name: "mail capture", args: [TSX_CLI, "scripts/fake-smtp.ts"], readyPort: 2625 },
-  { name: "payments", args: [TSX_CLI, "scripts/fake-payments.ts"], readyPort: 4342 },
+  { name: "mail capture", args: [TSX_CLI, "scripts/fake-smtp.ts"], readyPort: SMTP_PORT },
+  { name: "payments", args: [TSX_CLI, "scripts/fake-payments.ts"], readyPort: PAYMENTS_PORT },
 ];
 
 const running: { name: string; child: ChildProcess }[] = [];

@@ -13,11 +13,25 @@ import { customerSchema, listQuerySchema } from "@/lib/validation/customers";
 import { jobChangesSchema, jobListQuerySchema } from "@/lib/validation/jobs";
 import { newUserSchema, userChangesSchema } from "@/lib/validation/users";
 import {
+  documentLinesSchema,
+  invoiceListQuerySchema,
+  jobIdQuerySchema,
+  manualPaymentSchema,
+  newInvoiceSchema,
+  newQuoteSchema,
+  priceItemChangesSchema,
+  priceItemSchema,
+  settingsSchema,
+} from "@/lib/validation/billing";
+import { issueCardSchema, sendCardSchema } from "@/lib/validation/cards";
+import { acceptInviteSchema, newInviteSchema } from "@/lib/validation/invites";
+import {
   bookingSchema,
   pairingApplySchema,
   rotatingWriteSchema,
   targetWriteSchema,
   weightWriteSchema,
+  weightsImportSchema,
 } from "@/lib/validation/workshop";
 
 const errorBody = z
@@ -71,6 +85,29 @@ function op(
 }
 
 const none = z.object({});
+const multipart = (summary: string, path: z.ZodObject = none): ZodOpenApiOperationObject => ({
+  ...op(summary, undefined, undefined, path),
+  requestBody: {
+    content: {
+      "multipart/form-data": { schema: z.object({ file: z.string().meta({ format: "binary" }) }) },
+    },
+  },
+});
+const file = (
+  summary: string,
+  type: string,
+  path: z.ZodObject = idParam,
+): ZodOpenApiOperationObject => ({
+  ...op(summary, undefined, undefined, path),
+  responses: {
+    "200": {
+      description: summary,
+      content: { [type]: { schema: z.string().meta({ format: "binary" }) } },
+    },
+    ...errors,
+  },
+});
+const cardParams = z.object({ id: z.string(), revision: z.string() });
 
 /** Every JSON route the pages use, described from the same zod schemas the handlers parse with. */
 export const API_PATHS: ZodOpenApiPathsObject = {
@@ -150,6 +187,106 @@ export const API_PATHS: ZodOpenApiPathsObject = {
   },
   "/api/jobs/{id}/pairing": {
     post: op("Move piston assemblies onto other rods", pairingApplySchema),
+  },
+  "/api/jobs/{id}/weights/import": {
+    post: op(
+      "Preview a CSV of weights, or write its clean rows when confirmed",
+      weightsImportSchema,
+    ),
+  },
+  "/api/jobs/{id}/weights/csv": { get: file("The weigh-in as CSV", "text/csv") },
+  "/api/jobs/{id}/plan/csv": { get: file("The removal plan as CSV", "text/csv") },
+  "/api/jobs/{id}/uploads": {
+    get: op("Photos and printouts of a job"),
+    post: multipart("Attach a photo or printout (images, PDF)", idParam),
+  },
+  "/api/uploads/{id}": {
+    get: file("An uploaded file", "application/octet-stream"),
+    delete: op("Remove an upload"),
+  },
+  "/api/uploads/{id}/thumbnail": { get: file("An image's thumbnail", "image/webp") },
+  "/api/jobs/{id}/cards": {
+    get: op("The job's balance cards, every revision"),
+    post: op("Issue a balance card (a new revision)", issueCardSchema),
+  },
+  "/api/jobs/{id}/cards/{revision}/pdf": {
+    get: file("A balance card as issued", "application/pdf", cardParams),
+  },
+  "/api/jobs/{id}/cards/{revision}/send": {
+    post: op("E-mail a balance card to the customer", sendCardSchema, undefined, cardParams),
+  },
+  "/api/verify/{code}": {
+    get: op(
+      "Check a card by its verification code (public)",
+      undefined,
+      undefined,
+      z.object({ code: z.string() }),
+    ),
+  },
+  "/api/verify/check": { post: multipart("Check a PDF against the stored cards (public)") },
+  "/api/settings": {
+    get: op("Shop settings", undefined, undefined, none),
+    put: op("Change shop settings (owner)", settingsSchema, undefined, none),
+  },
+  "/api/settings/logo": {
+    get: file("The shop's logo", "image/png", none),
+    put: multipart("Upload the shop's logo (owner)"),
+    delete: op("Remove the logo (owner)", undefined, undefined, none),
+  },
+  "/api/prices": {
+    get: op("The price list", undefined, undefined, none),
+    post: op("Add a price (owner)", priceItemSchema, undefined, none),
+  },
+  "/api/prices/{id}": {
+    get: op("One price"),
+    patch: op("Change a price (owner)", priceItemChangesSchema),
+  },
+  "/api/quotes": {
+    get: op("Quotes of a job", undefined, jobIdQuerySchema, none),
+    post: op("Make a quote from the price list", newQuoteSchema, undefined, none),
+  },
+  "/api/quotes/{id}": {
+    get: op("One quote"),
+    put: op("Change a draft quote's lines", documentLinesSchema),
+  },
+  "/api/quotes/{id}/offer": { post: op("Offer the quote to the customer") },
+  "/api/quotes/{id}/withdraw": { post: op("Withdraw a quote") },
+  "/api/quotes/{id}/accept": { post: op("Accept a quote (the customer, or the counter for them)") },
+  "/api/invoices": {
+    get: op("Invoices (a customer sees only theirs)", undefined, invoiceListQuerySchema, none),
+    post: op("Make a draft invoice", newInvoiceSchema, undefined, none),
+  },
+  "/api/invoices/{id}": {
+    get: op("One invoice"),
+    put: op("Change a draft invoice's lines", documentLinesSchema),
+    delete: op("Throw away a draft invoice"),
+  },
+  "/api/invoices/{id}/issue": { post: op("Issue an invoice (numbered now)") },
+  "/api/invoices/{id}/void": { post: op("Void an unpaid invoice") },
+  "/api/invoices/{id}/payments": {
+    get: op("Payments on an invoice"),
+    post: op("Record a payment by hand", manualPaymentSchema),
+  },
+  "/api/invoices/{id}/pdf": { get: file("The invoice as PDF", "application/pdf") },
+  "/api/invoices/{id}/checkout": {
+    post: op("Start paying online: answers the hosted payment page's address"),
+  },
+  "/api/payments/webhook": {
+    post: {
+      summary: "Signed notification from the payment service",
+      responses: { "200": { description: "received" }, "400": { description: "bad signature" } },
+    },
+  },
+  "/api/mail/outbox": {
+    get: op("Captured mail and the mail log (owner)", undefined, undefined, none),
+  },
+  "/api/mail/{id}/retry": { post: op("Send a failed message again (owner)") },
+  "/api/invites": { post: op("Invite a customer to sign in", newInviteSchema, undefined, none) },
+  "/api/invites/accept": {
+    post: op("Set a password from an invite link (public)", acceptInviteSchema, undefined, none),
+  },
+  "/api/openapi.json": {
+    get: { summary: "This description", responses: { "200": { description: "OpenAPI 3.1" } } },
   },
   "/api/jobs/{id}/rotating/{part}": {
     put: op(

@@ -177,3 +177,17 @@ export const readingsTextSchema = z
     message: "Enter a number, like 512.4; separate repeated readings with spaces.",
   })
   .refine((readings) => readings.length <= 10, { message: "At most 10 readings of one part." });
+
+/** A CSV of weights: previewed first, written only when the same file is sent back confirmed. */
+export const weightsImportSchema = z
+  .object({
+    csv: z
+      .string()
+      .min(1, "Choose a CSV file.")
+      .max(200_000, "The file is too large (200 000 characters at most)."),
+    phase: z.enum(["initial", "final"]).default("initial"),
+    confirm: z.boolean().default(false),
+    /** "cylinder:kind:phase" → the version the preview showed; a part that moved since is a 409. */
+    basedOn: z.record(z.string().max(40), z.number().int().min(0)).optional(),
+  })
+  .strict();

@@ -15,3 +15,31 @@ describe("GET /api/openapi.json", () => {
     expect(JSON.stringify(booking)).toContain("v8-cross-plane");
   });
 });
+
+describe("the API description covers the code", () => {
+  it("has an operation for every method of every route handler (found from the files)", async () => {
+    const { readdirSync } = await import("node:fs");
+    const path = await import("node:path");
+    const root = path.join(process.cwd(), "app", "api");
+    const files = (readdirSync(root, { recursive: true }) as string[]).filter(
+      (f) => f.endsWith("route.ts") && !f.startsWith("auth"),
+    );
+    const doc = await (await GET()).json();
+    const missing: string[] = [];
+    for (const file of files) {
+      const url =
+        "/api/" +
+        path
+          .dirname(file)
+          .replace(/\[([^\]]+)\]/g, "{$1}")
+          .split(path.sep)
+          .join("/");
+      const mod = (await import(path.join(root, file))) as Record<string, unknown>;
+      for (const method of ["GET", "POST", "PUT", "PATCH", "DELETE"]) {
+        if (typeof mod[method] === "function" && !doc.paths[url]?.[method.toLowerCase()])
+          missing.push(`${method} ${url}`);
+      }
+    }
+    expect(missing).toEqual([]);
+  });
+});

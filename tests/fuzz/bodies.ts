@@ -164,6 +164,28 @@ function numberFor(s: JsonSchema, integer: boolean): fc.Arbitrary<number> {
   return fc.oneof({ arbitrary: small, weight: 3 }, fc.integer({ min: lo, max: hi }));
 }
 
+const csvCell = fc.oneof(
+  fc.constantFrom("1", "2", "8", "16", "17", "0", "-1", "512.4", "0.0", "999999999.999999999"),
+  fc.constantFrom("piston", "wristPin", "Wrist pin", "big end", "rodTotal", "initial", "final"),
+  fc.constantFrom('"', '""', "a,b", "=1+1", "\u0000", "🛠️", " ", "", "x".repeat(500)),
+  fc.string({ maxLength: 8 }),
+);
+
+/** A weigh-in CSV, in the long layout or the one-column-per-part layout, with odd cells. */
+const weighInCsv = fc
+  .tuple(
+    fc.constantFrom(
+      ["cylinder", "part", "phase", "weight"],
+      ["cylinder", "piston", "wristPin", "smallEnd", "bigEnd"],
+      ["Cylinder", "Part", "Weight"],
+      ["cylinder"],
+      ["piston", "piston"],
+    ),
+    fc.array(fc.array(csvCell, { maxLength: 6 }), { maxLength: 12 }),
+    fc.constantFrom("\n", "\r\n", "\r"),
+  )
+  .map(([head, rows, eol]) => [head, ...rows].map((r) => r.join(",")).join(eol));
+
 /**
  * Fields whose schema says only "a string" to JSON Schema (an e-mail checked after trimming, a
  * grade matched after its "G" is taken off, a layout named by its preset id, a password that must match its confirmation): values
@@ -174,6 +196,7 @@ const FIELD_HINTS: Record<string, fc.Arbitrary<string>> = {
   to: fc.emailAddress(),
   preset: fc.constantFrom(...LAYOUT_PRESETS.map((p) => p.id)),
   grade: fc.constantFrom(...BALANCE_GRADES.map((g) => `G ${g}`), ...BALANCE_GRADES),
+  csv: weighInCsv,
   password: fc.constant("a long enough password"),
   confirm: fc.constant("a long enough password"),
 };

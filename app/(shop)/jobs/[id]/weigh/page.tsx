@@ -1,4 +1,4 @@
-import { WeighGrid } from "@/components/workshop/weigh-grid";
+import { WeighBench } from "@/components/workshop/weigh-bench";
 import { getDb } from "@/db/client";
 import { loadPageJob } from "@/lib/jobs/page-job";
 import { loadWorkshop } from "@/lib/workshop/load";
@@ -8,7 +8,6 @@ export const metadata = { title: "Scale" };
 export default async function WeighPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const { job, user } = await loadPageJob(id, `/jobs/${id}/weigh`);
-  const workshop = await loadWorkshop(getDb(), job);
   if (!job.spec.layout || !job.spec.cylinders) {
     return (
       <p className="text-graphite-600">
@@ -16,8 +15,9 @@ export default async function WeighPage({ params }: { params: Promise<{ id: stri
       </p>
     );
   }
+  const workshop = await loadWorkshop(getDb(), job);
   return (
-    <WeighGrid
+    <WeighBench
       jobId={job.id}
       initial={workshop}
       canEdit={user.role === "machinist" || user.role === "owner"}

@@ -1,0 +1,15 @@
+import { getDb } from "@/db/client";
+import { ALL_ROLES, requireApiUser } from "@/lib/auth/guard";
+import { csvResponse } from "@/lib/http/csv-response";
+import { parseId, route } from "@/lib/http/route";
+import { findJobForUser } from "@/lib/jobs/access";
+import { planToCsv } from "@/lib/workshop/csv";
+import { loadWorkshop } from "@/lib/workshop/load";
+
+/** The removal plan as CSV, one row per part. */
+export const GET = route<{ id: string }>(async (_req, { params }) => {
+  const user = await requireApiUser(ALL_ROLES);
+  const job = await findJobForUser(getDb(), parseId((await params).id), user);
+  const { plan } = await loadWorkshop(getDb(), job);
+  return csvResponse(planToCsv(plan, job), `removal-plan-${job.number}.csv`);
+});

@@ -1,0 +1,17 @@
+import { getDb } from "@/db/client";
+import { listPartWeights } from "@/db/weights";
+import { ALL_ROLES, requireApiUser } from "@/lib/auth/guard";
+import { csvResponse } from "@/lib/http/csv-response";
+import { parseId, route } from "@/lib/http/route";
+import { findJobForUser } from "@/lib/jobs/access";
+import { weightsToCsv } from "@/lib/workshop/csv";
+
+/** The weigh-in as CSV, one row per reading. */
+export const GET = route<{ id: string }>(async (_req, { params }) => {
+  const user = await requireApiUser(ALL_ROLES);
+  const job = await findJobForUser(getDb(), parseId((await params).id), user);
+  return csvResponse(
+    weightsToCsv(await listPartWeights(getDb(), job.id)),
+    `weigh-in-${job.number}.csv`,
+  );
+});

@@ -1,0 +1,90 @@
+import Papa from "papaparse";
+import { describe, expect, it } from "vitest";
+import { DEFAULT_SPEC, type Job } from "@/db/jobs";
+import type { PartWeight } from "@/db/weights";
+import { previewWeightsCsv, weightsToCsv } from "@/lib/workshop/csv";
+
+const job = { id: 1, spec: { ...DEFAULT_SPEC, layout: "inline-4", cylinders: 4 } } as Job;
+const saved: PartWeight[] = [
+  { cylinder: 1, kind: "piston", phase: "initial", readings: ["400.0"], version: 3, updatedAt: "" },
+];
+
+describe("reading weights from a CSV", () => {
+  it("takes one row per reading, repeated rows as repeated readings, and names each bad row", () => {
+    const csv = [
+      "Cylinder,Part,Weight",
+      "1,piston,400.0",
+      "2,Piston,401.2",
+      "2,piston,401.4",
+      "3,wrist pin,100.1",
+      "4,piston,4O1.0", // a letter O typed for a zero
+      "5,piston,400.0",
+      "1,crank,9000",
+    ].join("\n");
+    const p = previewWeightsCsv(csv, job, saved, "initial");
+    expect(p.format).toBe("one row per reading");
+    expect(p.unchanged).toBe(1);
+    expect(p.changes).toEqual([
+      {
+        cylinder: 2,
+        kind: "piston",
+        phase: "initial",
+        current: [],
+        next: ["401.2", "401.4"],
+        version: 0,
+      },
+      { cylinder: 3, kind: "wristPin", phase: "initial", current: [], next: ["100.1"], version: 0 },
+    ]);
+    expect(p.errors).toEqual([
+      { line: 6, message: '"4O1.0" is not a weight: use digits and one point, like 498.6.' },
+      { line: 7, message: 'Cylinder "5" is not one of 1 to 4.' },
+      { line: 8, message: '"crank" is not a part we weigh.' },
+    ]);
+  });
+
+  it("takes one row per cylinder with a column per part, and the phase per row", () => {
+    const csv = "cyl;piston;small end;big end;phase\n1;399.5;150.0;400.1;final\n2;401.0;;400.3;\n";
+    const p = previewWeightsCsv(csv, job, saved, "initial");
+    expect(p.format).toBe("one row per cylinder");
+    expect(p.errors).toEqual([]);
+    expect(
+      p.changes.map((c) => `${c.cylinder}:${c.kind}:${c.phase}=${c.next.join(" ")}`).sort(),
+    ).toEqual([
+      "1:bigEnd:final=400.1",
+      "1:piston:final=399.5",
+      "1:smallEnd:final=150.0",
+      "2:bigEnd:initial=400.3",
+      "2:piston:initial=401.0",
+    ]);
+  });
+
+  it("refuses a file without a cylinder column", () => {
+    expect(previewWeightsCsv("part,weight\npiston,1\n", job, [], "initial").errors[0]).toEqual({
+      line: 1,
+      message: 'The heading row needs a "cylinder" column.',
+    });
+  });
+
+  it("writes the weigh-in back in a form it reads again (round trip through papaparse)", () => {
+    const weights: PartWeight[] = [
+      {
+        cylinder: 2,
+        kind: "smallEnd",
+        phase: "final",
+        readings: ["150.2", "150.3"],
+        version: 1,
+        updatedAt: "",
+      },
+    ];
+    const csv = weightsToCsv(weights);
+    expect(Papa.parse(csv, { header: true }).data).toEqual([
+      { cylinder: "2", part: "small end", phase: "final", weight: "150.2" },
+      { cylinder: "2", part: "small end", phase: "final", weight: "150.3" },
+    ]);
+    expect(previewWeightsCsv(csv, job, weights, "initial")).toMatchObject({
+      changes: [],
+      unchanged: 1,
+      errors: [],
+    });
+  });
+});
