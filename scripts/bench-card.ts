@@ -1,6 +1,8 @@
 // Benchmark for the balance card: renders the demo V8's card (fully weighed) against a 1000 ms
 // budget. Run: npx tsx scripts/bench-card.ts. It prints figures; it never fails a build.
 import { pathToFileURL } from "node:url";
+import { Document, Page, renderToBuffer, Text } from "@react-pdf/renderer";
+import { createElement as h } from "react";
 import { openDatabase } from "@/db/client";
 import { findCustomerById } from "@/db/customers";
 import { findJobById } from "@/db/jobs";
@@ -11,6 +13,7 @@ import { buildCardData } from "@/lib/cards/card-data";
 import { newVerificationCode } from "@/lib/cards/code";
 import { DEMO_USERS, seedDemo } from "@/lib/demo/seed";
 import { renderBalanceCard } from "@/lib/pdf/balance-card";
+import { PDF_FONTS, registerPdfFonts } from "@/lib/pdf/fonts";
 import { loadWorkshop } from "@/lib/workshop/load";
 
 /** Budget for rendering one card, ms. */
@@ -25,6 +28,34 @@ export interface CardBenchFigures {
   medianMs: number;
   budgetMs: number;
   ratio: number;
+  /** Median time to render a one-line PDF with the same fonts, in the same process. */
+  oneLineMs: number;
+  /** medianMs ÷ oneLineMs. */
+  ratioToOneLine: number;
+}
+
+async function median(runs: number, fn: () => Promise<unknown>): Promise<number> {
+  const times: number[] = [];
+  for (let i = 0; i < runs; i += 1) {
+    const start = performance.now();
+    await fn();
+    times.push(performance.now() - start);
+  }
+  times.sort((a, b) => a - b);
+  const mid = Math.floor(times.length / 2);
+  return times.length % 2 ? times[mid]! : (times[mid - 1]! + times[mid]!) / 2;
+}
+
+/** The smallest PDF worth comparing against: one line of text in the card's font. */
+function renderOneLine() {
+  registerPdfFonts();
+  return renderToBuffer(
+    h(
+      Document,
+      null,
+      h(Page, { size: "A4" }, h(Text, { style: { fontFamily: PDF_FONTS.sans } }, "One line.")),
+    ),
+  );
 }
 
 /** Renders the demo V8 card WARM_UP_RUNS times, then MEASURED_RUNS times; the median of those. */
@@ -69,6 +100,8 @@ export async function runCardBench(): Promise<CardBenchFigures[]> {
     times.sort((a, b) => a - b);
     const mid = Math.floor(times.length / 2);
     const medianMs = times.length % 2 ? times[mid]! : (times[mid - 1]! + times[mid]!) / 2;
+    for (let i = 0; i < WARM_UP_RUNS; i += 1) await renderOneLine();
+    const oneLineMs = await median(MEASURED_RUNS, renderOneLine);
     const pages = (last.toString("latin1").match(/\/Type \/Page\b/g) ?? []).length;
     return [
       {
@@ -78,6 +111,8 @@ export async function runCardBench(): Promise<CardBenchFigures[]> {
         medianMs,
         budgetMs: BUDGET_MS,
         ratio: medianMs / BUDGET_MS,
+        oneLineMs,
+        ratioToOneLine: medianMs / oneLineMs,
       },
     ];
   } finally {
@@ -88,7 +123,7 @@ export async function runCardBench(): Promise<CardBenchFigures[]> {
 if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) {
   for (const f of await runCardBench()) {
     console.log(
-      `${f.name}: median ${f.medianMs.toFixed(1)} ms over ${MEASURED_RUNS} renders, ${f.pages} page(s), ${(f.bytes / 1024).toFixed(0)} KiB (budget ${f.budgetMs} ms, ratio ${f.ratio.toFixed(2)})`,
+      `${f.name}: median ${f.medianMs.toFixed(1)} ms over ${MEASURED_RUNS} renders, ${f.pages} page(s), ${(f.bytes / 1024).toFixed(0)} KiB (budget ${f.budgetMs} ms, ratio ${f.ratio.toFixed(2)}); one-line PDF ${f.oneLineMs.toFixed(1)} ms, ratio ${f.ratioToOneLine.toFixed(1)}`,
     );
   }
 }

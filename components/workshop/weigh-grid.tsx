@@ -9,7 +9,7 @@ import { z } from "zod";
 import type { PartKind, WeighPhase } from "@/db/schema";
 import type { PartWeight } from "@/db/weights";
 import { ApiError, apiFetch } from "@/lib/api-client";
-import { readingsTextSchema } from "@/lib/validation/workshop";
+import { readingsTextSchema } from "@/lib/validation/readings";
 import type { WorkshopPlan } from "@/lib/workshop/plan";
 import type { Workshop } from "@/lib/workshop/load";
 import { WEIGH_COLUMNS } from "./part-kinds";

@@ -4,6 +4,8 @@ import { JOB_STATUSES, PART_KINDS, ROTATING_PARTS } from "@/db/schema";
 import { LAYOUT_PRESETS } from "@/lib/balance";
 import { decimalString, percentString, positiveDecimal } from "./decimal";
 
+export { readingsTextSchema } from "./readings";
+
 const layoutIds = LAYOUT_PRESETS.map((p) => p.id) as [string, ...string[]];
 
 /** The engine and balancing settings of a job, as the booking and settings forms send them. */
@@ -164,19 +166,6 @@ export const pairingApplySchema = z
       .optional(),
   })
   .strict();
-
-/**
- * One weigh-in cell as typed: one reading, or repeated readings separated by spaces, "/" or ";".
- * Each reading is the same `decimalString` the API checks.
- */
-export const readingsTextSchema = z
-  .string()
-  .max(120, "Too many readings.")
-  .transform((text) => text.split(/[\s/;]+/).filter(Boolean))
-  .refine((readings) => readings.every((r) => decimalString.safeParse(r).success), {
-    message: "Enter a number, like 512.4; separate repeated readings with spaces.",
-  })
-  .refine((readings) => readings.length <= 10, { message: "At most 10 readings of one part." });
 
 /** A CSV of weights: previewed first, written only when the same file is sent back confirmed. */
 export const weightsImportSchema = z

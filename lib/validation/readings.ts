@@ -1,0 +1,16 @@
+import { z } from "zod";
+import { decimalString } from "./decimal";
+
+// Its own small module: the weigh-in grid loads it in the browser, without the rest of the schemas.
+/**
+ * One weigh-in cell as typed: one reading, or repeated readings separated by spaces, "/" or ";".
+ * Each reading is the same `decimalString` the API checks.
+ */
+export const readingsTextSchema = z
+  .string()
+  .max(120, "Too many readings.")
+  .transform((text) => text.split(/[\s/;]+/).filter(Boolean))
+  .refine((readings) => readings.every((r) => decimalString.safeParse(r).success), {
+    message: "Enter a number, like 512.4; separate repeated readings with spaces.",
+  })
+  .refine((readings) => readings.length <= 10, { message: "At most 10 readings of one part." });
