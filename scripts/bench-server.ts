@@ -117,7 +117,15 @@ const V8_BODY = JSON.stringify({
 /** Compressed size of every script a first visit to the page loads (the weigh-in's budget is 250 kB). */
 async function firstLoadJs(pagePath: string, cookie: string) {
   const html = await (await fetch(BASE + pagePath, { headers: { cookie } })).text();
-  const sources = [...new Set([...html.matchAll(/<script[^>]+src="([^"]+)"/g)].map((m) => m[1]!))];
+  // Scripts marked nomodule (Next's polyfills) are skipped by every browser that runs modules.
+  const tags = [...html.matchAll(/<script[^>]*>/g)]
+    .map((m) => m[0])
+    .filter((t) => !/nomodule/i.test(t));
+  const sources = [
+    ...new Set(
+      tags.map((t) => /src="([^"]+)"/.exec(t)?.[1]).filter((s): s is string => Boolean(s)),
+    ),
+  ];
   let gzipped = 0;
   let raw = 0;
   for (const src of sources) {
