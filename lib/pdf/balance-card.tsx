@@ -443,8 +443,8 @@ function Notices({ notices }: { notices: string[] }) {
   return (
     <View style={s.section} wrap={false}>
       <SectionHead title="Flagged while weighing" />
-      {notices.map((n) => (
-        <Text key={n} style={{ fontSize: 7.3, marginBottom: 1 }}>
+      {notices.map((n, i) => (
+        <Text key={i} style={{ fontSize: 7.3, marginBottom: 1 }}>
           • {n}
         </Text>
       ))}
@@ -494,8 +494,8 @@ export function BalanceCardDocument({ data, assets }: { data: CardData; assets: 
             {assets.logo ? <Image style={s.logo} src={assets.logo} /> : null}
             <View>
               <Text style={s.shopName}>{data.shop.name}</Text>
-              {shopLines.map((l) => (
-                <Text key={l} style={s.shopLine}>
+              {shopLines.map((l, i) => (
+                <Text key={i} style={s.shopLine}>
                   {l}
                 </Text>
               ))}

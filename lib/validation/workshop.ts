@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { BROUGHT_ITEMS } from "@/db/jobs";
 import { JOB_STATUSES, PART_KINDS, ROTATING_PARTS } from "@/db/schema";
-import { LAYOUT_PRESETS } from "@/lib/balance";
+import { findLayoutPreset, LAYOUT_PRESETS } from "@/lib/balance";
 import { decimalString, percentString, positiveDecimal } from "./decimal";
 
 export { readingsTextSchema } from "./readings";
@@ -180,3 +180,19 @@ export const weightsImportSchema = z
     basedOn: z.record(z.string().max(40), z.number().int().min(0)).optional(),
   })
   .strict();
+
+/**
+ * Settings that are each valid but do not fit together: a preset layout has a fixed number of
+ * cylinders. Answers field messages keyed as the request sent them, or null when they fit.
+ */
+export function specMismatch(spec: {
+  layout?: string | null;
+  cylinders?: number | null;
+}): Record<string, string> | null {
+  const preset = spec.layout ? findLayoutPreset(spec.layout) : undefined;
+  if (!preset?.cylinders || spec.cylinders === undefined || spec.cylinders === null) return null;
+  if (spec.cylinders === preset.cylinders) return null;
+  return {
+    "spec.cylinders": `${preset.label} has ${preset.cylinders} cylinders; choose the custom layout for anything else.`,
+  };
+}

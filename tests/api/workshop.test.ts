@@ -299,3 +299,25 @@ describe("job settings and rotating parts", () => {
     ).toBe(404);
   });
 });
+
+describe("settings that do not fit together", () => {
+  it("refuses a cylinder count a preset layout does not have, at booking and later (422 on spec.cylinders)", async () => {
+    signInAs(users.counter);
+    const res = await postJob(
+      jsonRequest("POST", "/api/jobs", {
+        customerId: users.customer.customerId,
+        engine: "x",
+        spec: { layout: "v8-cross-plane", cylinders: 6 },
+      }),
+      noParams,
+    );
+    expect(res.status).toBe(422);
+    expect((await res.json()).error.fields).toHaveProperty("spec.cylinders");
+    signInAs(users.machinist);
+    const patch = await patchJob(
+      jsonRequest("PATCH", "/x", { version: job.version, spec: { cylinders: 6 } }),
+      params({ id: String(job.id) }),
+    );
+    expect(patch.status).toBe(422);
+  });
+});

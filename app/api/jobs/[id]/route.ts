@@ -4,6 +4,7 @@ import { ALL_ROLES, requireApiUser } from "@/lib/auth/guard";
 import { findJobForUser } from "@/lib/jobs/access";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { COUNTER_SPEC_FIELDS, jobChangesSchema } from "@/lib/validation/jobs";
+import { specMismatch } from "@/lib/validation/workshop";
 import { HttpError } from "@/lib/http/errors";
 
 type Params = { id: string };
@@ -16,7 +17,7 @@ export const GET = route<Params>(async (_req, { params }) => {
 export const PATCH = route<Params>(async (req, { params }) => {
   const actor = await requireApiUser(["owner", "counter", "machinist"]);
   const id = parseId((await params).id);
-  await findJobForUser(getDb(), id, actor);
+  const job = await findJobForUser(getDb(), id, actor);
   const { version, ...changes } = await parseJson(req, jobChangesSchema);
   const machinistOnly = Object.keys(changes.spec ?? {}).filter(
     (k) => !(COUNTER_SPEC_FIELDS as readonly string[]).includes(k),
@@ -29,5 +30,7 @@ export const PATCH = route<Params>(async (req, { params }) => {
       Object.fromEntries(machinistOnly.map((k) => [`spec.${k}`, "The machinist sets this."])),
     );
   }
+  const mismatch = specMismatch({ ...job.spec, ...changes.spec });
+  if (mismatch) throw new HttpError(422, "invalid_input", Object.values(mismatch)[0]!, mismatch);
   return json({ job: await updateJob(getDb(), id, version, changes, actor.id) });
 });

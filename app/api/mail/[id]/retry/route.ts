@@ -7,5 +7,7 @@ type Params = { id: string };
 
 export const POST = route<Params>(async (_req, { params }) => {
   await requireApiUser(["owner"]);
-  return json({ mail: await retryMail(getDb(), parseId((await params).id)) });
+  const mail = await retryMail(getDb(), parseId((await params).id));
+  // Not accepted by the mail server: the same answer the card's send route gives.
+  return json({ mail }, mail.status === "sent" ? 200 : 502);
 });
