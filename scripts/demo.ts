@@ -25,6 +25,9 @@ const env: NodeJS.ProcessEnv = {
   SMTP_URL: process.env.SMTP_URL ?? "smtp://127.0.0.1:2525",
   MAIL_CAPTURE_DIR: process.env.MAIL_CAPTURE_DIR ?? path.join(dataDir, "mail"),
   STRIPE_API_BASE: process.env.STRIPE_API_BASE ?? "http://127.0.0.1:4242",
+  // Test keys of the local payment fake; `next start` runs in production mode, which requires them set.
+  STRIPE_SECRET_KEY: process.env.STRIPE_SECRET_KEY ?? "sk_test_local",
+  STRIPE_WEBHOOK_SECRET: process.env.STRIPE_WEBHOOK_SECRET ?? "whsec_local",
 };
 
 function run(label: string, args: string[]) {
@@ -53,7 +56,7 @@ const smtp = await startFakeSmtp({
 const payments = await startFakePayments({
   port: 4242,
   webhookUrl: `http://127.0.0.1:${port}/api/payments/webhook`,
-  webhookSecret: process.env.STRIPE_WEBHOOK_SECRET ?? "whsec_local",
+  webhookSecret: env.STRIPE_WEBHOOK_SECRET!,
 });
 
 console.log(`\n▸ serving on http://localhost:${port} (Ctrl-C stops)`);

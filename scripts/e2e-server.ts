@@ -38,6 +38,8 @@ const env = appEnvironment(PORT, PORT === 3100 ? "e2e" : `e2e-${PORT}`, {
   FAKE_SMTP_PORT: String(SMTP_PORT),
   STRIPE_API_BASE: `http://127.0.0.1:${PAYMENTS_PORT}`,
   FAKE_PAYMENTS_PORT: String(PAYMENTS_PORT),
+  STRIPE_SECRET_KEY: "sk_test_local",
+  STRIPE_WEBHOOK_SECRET: "whsec_local",
   FAKE_PAYMENTS_WEBHOOK_URL: `http://127.0.0.1:${PORT}/api/payments/webhook`,
 });
 const SERVICES: LocalService[] = [
