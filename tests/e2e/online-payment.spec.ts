@@ -32,7 +32,9 @@ test("quote accepted, invoiced, declined then paid online; cash recorded by hand
   await page.waitForURL(/\/pay\/cs_/);
   await page.getByRole("button", { name: "Decline" }).click();
   await page.waitForURL(/\/pay\/return/);
-  await expect(page.getByTestId("pay-return-state")).toContainText("The payment was not completed and nothing was taken.");
+  await expect(page.getByTestId("pay-return-state")).toContainText(
+    "The payment was not completed and nothing was taken.",
+  );
 
   // Then pays: the signed notification marks it paid, and the return page says so.
   await page.goto(billing);
