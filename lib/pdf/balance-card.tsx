@@ -141,27 +141,10 @@ const s = StyleSheet.create({
   },
 });
 
-/**
- * Figures in the monospaced face. The shipped Plex Mono file cannot lay out its space glyph in
- * the PDF renderer (the glyph sits at the very end of the font's glyph table), so any space in
- * a figure is set in the text face.
- */
+/** Figures in the monospaced face (lib/pdf/fonts.ts makes its space glyphs readable). */
 function Fig({ children, style }: { children: string; style?: object | object[] }) {
-  const pieces = children.split(/([ \u00a0]+)/);
   const extra = style === undefined ? [] : Array.isArray(style) ? style : [style];
-  return (
-    <Text style={[s.mono, ...extra]}>
-      {pieces.map((piece, i) =>
-        i % 2 === 1 ? (
-          <Text key={i} style={{ fontFamily: PDF_FONTS.sans, fontWeight: 400 }}>
-            {" ".repeat(piece.length)}
-          </Text>
-        ) : (
-          piece
-        ),
-      )}
-    </Text>
-  );
+  return <Text style={[s.mono, ...extra]}>{children}</Text>;
 }
 
 function Fact({ label, children }: { label: string; children: ReactNode }) {
