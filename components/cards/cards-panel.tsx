@@ -172,9 +172,13 @@ function CardRow({
           {when(card.issuedAt)}
           {card.issuedBy.name ? ` · ${card.issuedBy.name}` : ""} · {PAPER[card.pageSize]}
         </span>
-        <span className="font-mono text-sm" title="Verification code">
+        <a
+          className="font-mono text-sm underline underline-offset-4"
+          href={card.verifyUrl}
+          title="Verification code"
+        >
           {card.verificationCode}
-        </span>
+        </a>
         <a className="btn-secondary px-3 py-1 text-sm" href={card.pdfUrl} download={card.fileName}>
           Download PDF
         </a>

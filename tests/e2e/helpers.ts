@@ -61,3 +61,72 @@ export async function findJobPath(baseURL: string, search: string): Promise<stri
 
 /** The rows of the jobs table (an empty result shows one "No jobs match." row). */
 export const jobRows = (page: Page) => page.getByTestId("jobs-table").locator("tbody tr");
+
+/** Adds a customer through the API as the counter (no account of their own) and answers the id. */
+export async function createCustomerOverHttp(
+  baseURL: string,
+  customer: { name: string; email?: string },
+): Promise<number> {
+  const { cookie } = await signInOverHttp(baseURL, DEMO_EMAIL.counter, DEMO_PASSWORD);
+  const res = await fetch(`${baseURL}/api/customers`, {
+    method: "POST",
+    headers: { cookie, "content-type": "application/json" },
+    body: JSON.stringify(customer),
+  });
+  if (res.status !== 201) throw new Error(`adding a customer: ${res.status} ${await res.text()}`);
+  return ((await res.json()) as { customer: { id: number } }).customer.id;
+}
+
+/** Books a job in through the API as the counter and answers its id, number and page. */
+export async function bookJobOverHttp(
+  baseURL: string,
+  booking: { customerId: number; engine: string; spec: Record<string, unknown> },
+): Promise<{ id: number; number: string; path: string }> {
+  const { cookie } = await signInOverHttp(baseURL, DEMO_EMAIL.counter, DEMO_PASSWORD);
+  const res = await fetch(`${baseURL}/api/jobs`, {
+    method: "POST",
+    headers: { cookie, "content-type": "application/json" },
+    body: JSON.stringify(booking),
+  });
+  if (res.status !== 201) throw new Error(`booking failed: ${res.status} ${await res.text()}`);
+  const { job } = (await res.json()) as { job: { id: number; number: string } };
+  return { id: job.id, number: job.number, path: `/jobs/${job.id}` };
+}
+
+/**
+ * A customer of the spec's own with a signed-in account: the counter adds the customer and sends
+ * the invitation, the link is read from the owner's outbox (the local mail capture), and the
+ * password is set through it. Answers what `signIn(page, email, password)` needs.
+ */
+export async function createCustomerAccount(
+  baseURL: string,
+  name: string,
+): Promise<{ customerId: number; name: string; email: string; password: string }> {
+  const email = uniqueEmail("customer");
+  const password = `Bench-${Math.random().toString(36).slice(2, 10)}-pass`;
+  const counter = await signInOverHttp(baseURL, DEMO_EMAIL.counter, DEMO_PASSWORD);
+  const post = async (path: string, body: unknown, cookie?: string) => {
+    const res = await fetch(`${baseURL}${path}`, {
+      method: "POST",
+      headers: { "content-type": "application/json", ...(cookie ? { cookie } : {}) },
+      body: JSON.stringify(body),
+    });
+    if (!res.ok) throw new Error(`POST ${path}: ${res.status} ${await res.text()}`);
+    return res.json() as Promise<Record<string, unknown>>;
+  };
+  const customerId = await createCustomerOverHttp(baseURL, { name, email });
+  await post("/api/invites", { customerId }, counter.cookie);
+
+  const owner = await signInOverHttp(baseURL, DEMO_EMAIL.owner, DEMO_PASSWORD);
+  let token: string | undefined;
+  for (let tries = 0; tries < 40 && !token; tries += 1) {
+    const res = await fetch(`${baseURL}/api/mail/outbox`, { headers: { cookie: owner.cookie } });
+    const { captured } = (await res.json()) as { captured: { to: string; text: string }[] };
+    const mail = captured.find((m) => m.to.includes(email));
+    token = mail ? /\/welcome\?token=([A-Za-z0-9_-]+)/.exec(mail.text)?.[1] : undefined;
+    if (!token) await new Promise((r) => setTimeout(r, 250));
+  }
+  if (!token) throw new Error(`no invitation reached ${email}`);
+  await post("/api/invites/accept", { token, password, confirm: password });
+  return { customerId, name, email, password };
+}
