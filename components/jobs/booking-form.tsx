@@ -12,18 +12,7 @@ import { convertLength, LAYOUT_PRESETS } from "@/lib/balance";
 import { ApiError, apiFetch } from "@/lib/api-client";
 import { customerSchema } from "@/lib/validation/customers";
 import { bookingSchema } from "@/lib/validation/workshop";
-
-const ITEM_LABEL: Record<(typeof BROUGHT_ITEMS)[number], string> = {
-  pistons: "Pistons",
-  wristPins: "Wrist pins",
-  rings: "Ring sets",
-  rods: "Con-rods",
-  bearings: "Rod bearings",
-  crankshaft: "Crankshaft",
-  flywheel: "Flywheel / flexplate",
-  clutch: "Clutch cover",
-  damper: "Damper",
-};
+import { BROUGHT_ITEM_LABEL } from "./brought-items";
 
 // The booking form's own shape: the engine as typed (inches allowed), the items as a checklist.
 const formSchema = z.object({
@@ -327,18 +316,18 @@ export function BookingForm() {
             <div key={item} className="flex items-center gap-2 text-sm">
               <label className="flex w-40 items-center gap-2">
                 <input type="checkbox" {...form.register(`items.${item}.brought`)} />
-                {ITEM_LABEL[item]}
+                {BROUGHT_ITEM_LABEL[item]}
               </label>
               <input
                 className="w-14 rounded border border-graphite-300 px-2 py-1"
-                aria-label={`${ITEM_LABEL[item]} quantity`}
+                aria-label={`${BROUGHT_ITEM_LABEL[item]} quantity`}
                 placeholder="qty"
                 inputMode="numeric"
                 {...form.register(`items.${item}.quantity`)}
               />
               <input
                 className="w-36 rounded border border-graphite-300 px-2 py-1"
-                aria-label={`${ITEM_LABEL[item]} condition`}
+                aria-label={`${BROUGHT_ITEM_LABEL[item]} condition`}
                 placeholder="condition"
                 {...form.register(`items.${item}.condition`)}
               />

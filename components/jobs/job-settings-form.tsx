@@ -11,6 +11,7 @@ import { JOB_STATUSES } from "@/db/schema";
 import { LAYOUT_PRESETS, MATERIAL_DENSITIES } from "@/lib/balance";
 import { ApiError, apiFetch } from "@/lib/api-client";
 import { jobSpecSchema } from "@/lib/validation/workshop";
+import { parseDrillMaterials } from "@/lib/workshop/plan";
 import { STATUS_LABEL } from "./status";
 
 const settingsSchema = jobSpecSchema
@@ -40,13 +41,7 @@ export function JobSettingsForm({ job, role }: { job: Job; role: string }) {
   const router = useRouter();
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
   const machinist = role === "machinist" || role === "owner";
-  const materials = (() => {
-    try {
-      return JSON.parse(job.spec.material ?? "{}") as { rod?: string; piston?: string };
-    } catch {
-      return {};
-    }
-  })();
+  const materials = parseDrillMaterials(job.spec.material);
   const form = useForm<Values, unknown, Parsed>({
     resolver: zodResolver(settingsSchema) as unknown as Resolver<Values, unknown, Parsed>,
     defaultValues: {
@@ -63,8 +58,8 @@ export function JobSettingsForm({ job, role }: { job: Job; role: string }) {
       balanceType: job.spec.balanceType,
       maxRpm: job.spec.maxRpm,
       promisedDate: job.spec.promisedDate ?? "",
-      rodMaterial: materials.rod ?? "steel",
-      pistonMaterial: materials.piston ?? "aluminium4032",
+      rodMaterial: materials.rod,
+      pistonMaterial: materials.piston,
     },
   });
   const save = useMutation({

@@ -1,3 +1,4 @@
+import { BROUGHT_ITEM_LABEL } from "@/components/jobs/brought-items";
 import { JobChanges } from "@/components/jobs/job-changes";
 import { JobSettingsForm, JobStateControl } from "@/components/jobs/job-settings-form";
 import { JobUploads } from "@/components/uploads/job-uploads";
@@ -6,18 +7,6 @@ import { listJobChanges } from "@/db/audit";
 import { getDb } from "@/db/client";
 import { findLayoutPreset } from "@/lib/balance";
 import { loadPageJob } from "@/lib/jobs/page-job";
-
-const ITEM_LABEL: Record<string, string> = {
-  pistons: "Pistons",
-  wristPins: "Wrist pins",
-  rings: "Ring sets",
-  rods: "Con-rods",
-  bearings: "Rod bearings",
-  crankshaft: "Crankshaft",
-  flywheel: "Flywheel / flexplate",
-  clutch: "Clutch cover",
-  damper: "Damper",
-};
 
 export default async function JobOverviewPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
@@ -57,7 +46,7 @@ export default async function JobOverviewPage({ params }: { params: Promise<{ id
             <ul className="text-sm">
               {s.items.map((i) => (
                 <li key={i.item}>
-                  {i.quantity} × {ITEM_LABEL[i.item] ?? i.item}
+                  {i.quantity} × {BROUGHT_ITEM_LABEL[i.item]}
                   {i.condition ? <span className="text-graphite-500"> — {i.condition}</span> : null}
                 </li>
               ))}
