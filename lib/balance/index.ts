@@ -22,7 +22,19 @@ export {
   type MassUnit,
   type LengthUnit,
 } from "./units";
-export { formatMass } from "./format-mass";
+export {
+  formatMass,
+  formatDerivedMass,
+  formatUnbalance,
+  formatLength,
+  formatLengthIn,
+  lengthResolutionOf,
+  massDecimals,
+  isScaleDivision,
+  DERIVED_MASS_EXTRA_DECIMALS,
+  UNBALANCE_SIGNIFICANT_FIGURES,
+  MAX_LENGTH_DECIMALS,
+} from "./display";
 export {
   LAYOUT_PRESETS,
   findLayoutPreset,
@@ -91,6 +103,14 @@ export {
   type DrillDepthInput,
   type DrillDepth,
 } from "./drill-depth";
+export {
+  parseDrillSize,
+  NUMBER_DRILL_INCHES,
+  LETTER_DRILL_INCHES,
+  MAX_DRILL_DIAMETER_MM,
+  type DrillSize,
+  type DrillSizeKind,
+} from "./drill-sizes";
 export { plugNetMass, type PlugNetMassInput, type PlugNetMass } from "./plug-net-mass";
 export { moveCorrection, type MoveCorrectionInput, type MovedCorrection } from "./move-correction";
 export {
