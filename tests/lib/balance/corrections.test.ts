@@ -119,6 +119,76 @@ describe("plugNetMass", () => {
     expect(Number(result.netMass)).toBeCloseTo(32.14426, 5);
   });
 
+  it("counts the empty cone a 118° point leaves under a flat-ended ½ in plug (worked by hand)", () => {
+    // ½ in = 12.7 mm (NIST SP 811), r = 6.35 mm, r² = 40.3225 mm².
+    // Point length h = r·cot 59° = 6.35 × 0.6008606 = 3.8154649 mm (DOMAIN §4: 0.3004·D).
+    // Cone V = π r² h / 3 = 126.67687 × 3.8154649 / 3 = 161.11038 mm³.
+    // Its steel (7.85 g/cm³): 161.11038 × 7.85 / 1000 = 1.2647165 g, nothing in its place.
+    // Net = 32.1442557 − 1.2647165 = 30.8795392 g: 1.26 g less, 3.9 % of the flat figure.
+    const flat = plugNetMass({
+      diameter: "12.7",
+      length: "25",
+      plugDensity: "18.0",
+      hostDensity: "7.85",
+    });
+    const pointed = plugNetMass({
+      diameter: "12.7",
+      length: "25",
+      plugDensity: "18.0",
+      hostDensity: "7.85",
+      pointAngle: "118",
+    });
+    expect(Number(pointed.pointVoidVolume)).toBeCloseTo(161.11038, 5);
+    expect(Number(pointed.pointVoidMass)).toBeCloseTo(1.2647165, 7);
+    expect(Number(pointed.netMass)).toBeCloseTo(30.8795392, 7);
+    expect(Number(pointed.removedMass)).toBeCloseTo(24.86034 + 1.2647165, 5);
+    expect(pointed.plugMass).toBe(flat.plugMass);
+    const loss = Number(flat.netMass) - Number(pointed.netMass);
+    expect(loss).toBeCloseTo(1.26, 2);
+    expect((loss / Number(flat.netMass)) * 100).toBeCloseTo(3.9, 1);
+  });
+
+  it("agrees with the drill-depth geometry: the void is the cone drillDepthForMass cuts", () => {
+    // Second derivation: the whole cone's mass, drilled to a tip depth equal to the point length h,
+    // is the mass drillDepthForMass removes at T = h (shallow case, full cone).
+    const pointed = plugNetMass({
+      diameter: "10",
+      length: "5",
+      plugDensity: "17.0",
+      hostDensity: "7.2",
+      pointAngle: "118",
+    });
+    const drilled = drillDepthForMass({
+      mass: pointed.pointVoidMass!,
+      diameter: "10",
+      density: "7.2",
+    });
+    expect(Number(drilled.tipDepth)).toBeCloseTo(Number(drilled.coneLength), 9);
+  });
+
+  it("keeps today's result when no point angle is given", () => {
+    expect(
+      plugNetMass({ diameter: "12.7", length: "25", plugDensity: "18.0", hostDensity: "7.85" }),
+    ).toEqual({
+      volume: expect.any(String),
+      plugMass: expect.any(String),
+      removedMass: expect.any(String),
+      netMass: expect.stringMatching(/^32\.1442557/),
+    });
+  });
+
+  it("refuses a point angle of 180° or more", () => {
+    expect(() =>
+      plugNetMass({
+        diameter: "10",
+        length: "10",
+        plugDensity: "18",
+        hostDensity: "7.85",
+        pointAngle: "180",
+      }),
+    ).toThrow(expect.objectContaining({ field: "pointAngle", code: "out-of-range" }));
+  });
+
   it("is negative for a plug lighter than the part", () => {
     expect(
       Number(
