@@ -49,6 +49,13 @@ export interface JobSpec {
   balanceType: "internal" | "external" | null;
   /** Cylinders whose pistons may be swapped among themselves (a bank each, say); null: any. */
   pairingGroups: number[][] | null;
+  /** The unit bore, stroke and rod length were typed in, and each as typed (null: not kept). */
+  lengthUnit: "mm" | "in";
+  boreEntered: string | null;
+  strokeEntered: string | null;
+  rodLengthEntered: string | null;
+  /** The drill size as the machinist wrote it ("3/8\"", "#21", "8.5 mm"); the mm figure is drillDiameterMm. */
+  drillSize: string | null;
 }
 
 /** What a job starts with when the counter leaves a setting alone (common practice defaults). */
@@ -76,6 +83,11 @@ export const DEFAULT_SPEC: JobSpec = {
   promisedDate: null,
   balanceType: null,
   pairingGroups: null,
+  lengthUnit: "mm",
+  boreEntered: null,
+  strokeEntered: null,
+  rodLengthEntered: null,
+  drillSize: null,
 };
 
 function toSpec(row: JobRow): JobSpec {
@@ -103,6 +115,11 @@ function toSpec(row: JobRow): JobSpec {
     promisedDate: row.promised_date,
     balanceType: row.balance_type,
     pairingGroups: row.pairing_json ? (JSON.parse(row.pairing_json) as number[][]) : null,
+    lengthUnit: row.length_unit ?? "mm",
+    boreEntered: row.bore_entered,
+    strokeEntered: row.stroke_entered,
+    rodLengthEntered: row.rod_length_entered,
+    drillSize: row.drill_size,
   };
 }
 
@@ -138,6 +155,11 @@ function specColumns(spec: Partial<JobSpec>): Updateable<JobTable> {
         : spec.pairingGroups === null
           ? null
           : JSON.stringify(spec.pairingGroups),
+    length_unit: spec.lengthUnit,
+    bore_entered: spec.boreEntered,
+    stroke_entered: spec.strokeEntered,
+    rod_length_entered: spec.rodLengthEntered,
+    drill_size: spec.drillSize,
   };
 }
 

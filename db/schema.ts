@@ -76,6 +76,13 @@ export interface JobTable {
   promised_date: string | null;
   balance_type: "internal" | "external" | null;
   pairing_json: string | null;
+  /** The unit bore, stroke and rod length were typed in; the *_entered columns hold them as typed. */
+  length_unit: ColumnType<"mm" | "in", "mm" | "in" | undefined, "mm" | "in">;
+  bore_entered: string | null;
+  stroke_entered: string | null;
+  rod_length_entered: string | null;
+  /** The drill size as the machinist wrote it ("3/8\"", "#21", "8.5 mm"). */
+  drill_size: string | null;
 }
 
 export interface AuditLogTable {

@@ -4,6 +4,7 @@ import * as m0002 from "./20261201_0002_create_workshop_tables";
 import * as m0003 from "./20261201_0003_create_billing_tables";
 import * as m0004 from "./20261201_0004_create_uploads_and_mail_tables";
 import * as m0005 from "./20261201_0005_create_card_tables";
+import * as m0110 from "./20261202_0110_add_job_entered_lengths";
 
 // A static map of the same files, for tests and for code running inside Next (which cannot read
 // the folder at run time). `scripts/migrate.ts` reads the folder itself. Add each new file here.
@@ -13,4 +14,5 @@ export const migrations: Record<string, Migration> = {
   "20261201_0003_create_billing_tables": m0003,
   "20261201_0004_create_uploads_and_mail_tables": m0004,
   "20261201_0005_create_card_tables": m0005,
+  "20261202_0110_add_job_entered_lengths": m0110,
 };
