@@ -35,6 +35,7 @@ export {
   UNBALANCE_SIGNIFICANT_FIGURES,
   MAX_LENGTH_DECIMALS,
 } from "./display";
+export { convertMassSetting, SETTING_SIGNIFICANT_FIGURES } from "./convert-mass-setting";
 export {
   LAYOUT_PRESETS,
   findLayoutPreset,
@@ -124,3 +125,10 @@ export {
   type ReciprocatingLoads,
 } from "./reciprocating-loads";
 export { MATERIAL_DENSITIES, type MaterialDensity, type MaterialId } from "./materials";
+export {
+  checkPlausibility,
+  DEFAULT_OUTLIER_PERCENT,
+  type Plausibility,
+  type PlausibilityInput,
+  type PlausibilityWeight,
+} from "./plausibility";
