@@ -7,6 +7,7 @@ import {
 } from "kysely";
 import { migrations } from "@/migrations";
 import type { DB } from "./client";
+import { tableExists } from "./dialect";
 
 const staticProvider: MigrationProvider = { getMigrations: async () => migrations };
 
@@ -27,10 +28,7 @@ export async function migrateToEmpty(db: DB, provider: MigrationProvider = stati
 
 /** The name of the last applied migration, or null for an empty database. */
 export async function findMigrationLevel(db: DB): Promise<string | null> {
-  const exists = await sql<{ n: number }>`
-    select count(*) as n from sqlite_master where type = 'table' and name = 'kysely_migration'
-  `.execute(db);
-  if (!exists.rows[0]?.n) return null;
+  if (!(await tableExists(db, "kysely_migration"))) return null;
   const row = await sql<{ name: string }>`
     select name from kysely_migration order by name desc limit 1
   `.execute(db);

@@ -1,11 +1,22 @@
 import { type Expression, type SqlBool, sql } from "kysely";
 
-/** True where any of the columns contains the term, case-insensitively and with no wildcards. */
+/** `like` pattern characters (and the escape itself) taken literally. */
+function escapeLike(term: string): string {
+  return term.replace(/[!%_]/g, (c) => `!${c}`);
+}
+
+/**
+ * True where any of the columns contains the term, case-insensitively and with no wildcards.
+ * Both sides are lower-cased, so `like` matches the same on SQLite (case-blind for ASCII) and on
+ * PostgreSQL (case-sensitive).
+ */
 export function containsText(
   columns: Expression<string | null>[],
   term: string,
 ): Expression<SqlBool> {
-  const needle = term.toLowerCase();
-  const tests = columns.map((c) => sql<SqlBool>`instr(lower(coalesce(${c}, '')), ${needle}) > 0`);
+  const pattern = `%${escapeLike(term.toLowerCase())}%`;
+  const tests = columns.map(
+    (c) => sql<SqlBool>`lower(coalesce(${c}, '')) like ${pattern} escape '!'`,
+  );
   return sql<SqlBool>`(${sql.join(tests, sql` or `)})`;
 }

@@ -1,24 +1,25 @@
 import { type Kysely, sql } from "kysely";
+import { idColumn, nowText } from "./support/dialect";
 
 export async function up(db: Kysely<any>): Promise<void> {
+  const ID = idColumn(db);
+  const NOW = nowText(db);
   await db.schema
     .createTable("customers")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     .addColumn("name", "text", (c) => c.notNull())
     .addColumn("company", "text")
     .addColumn("email", "text")
     .addColumn("phone", "text")
     .addColumn("address", "text")
     .addColumn("notes", "text")
-    .addColumn("created_at", "text", (c) =>
-      c.notNull().defaultTo(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`),
-    )
+    .addColumn("created_at", "text", (c) => c.notNull().defaultTo(NOW))
     .execute();
   await db.schema.createIndex("customers_name").on("customers").column("name").execute();
 
   await db.schema
     .createTable("users")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     .addColumn("email", "text", (c) => c.notNull().unique())
     .addColumn("name", "text", (c) => c.notNull())
     .addColumn("password_hash", "text", (c) => c.notNull())
@@ -32,15 +33,13 @@ export async function up(db: Kysely<any>): Promise<void> {
         .check(sql`disabled in (0,1)`),
     )
     .addColumn("customer_id", "integer", (c) => c.references("customers.id").onDelete("restrict"))
-    .addColumn("created_at", "text", (c) =>
-      c.notNull().defaultTo(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`),
-    )
+    .addColumn("created_at", "text", (c) => c.notNull().defaultTo(NOW))
     .addCheckConstraint("customer_link", sql`(role = 'customer') = (customer_id is not null)`)
     .execute();
 
   await db.schema
     .createTable("jobs")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     .addColumn("number", "text", (c) => c.notNull().unique())
     .addColumn("customer_id", "integer", (c) =>
       c.notNull().references("customers.id").onDelete("restrict"),
@@ -56,9 +55,7 @@ export async function up(db: Kysely<any>): Promise<void> {
     )
     .addColumn("notes", "text")
     .addColumn("version", "integer", (c) => c.notNull().defaultTo(1))
-    .addColumn("created_at", "text", (c) =>
-      c.notNull().defaultTo(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`),
-    )
+    .addColumn("created_at", "text", (c) => c.notNull().defaultTo(NOW))
     .addColumn("updated_at", "text", (c) => c.notNull())
     .execute();
   await db.schema.createIndex("jobs_customer").on("jobs").columns(["customer_id", "id"]).execute();
@@ -66,16 +63,14 @@ export async function up(db: Kysely<any>): Promise<void> {
 
   await db.schema
     .createTable("audit_log")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     .addColumn("user_id", "integer", (c) => c.references("users.id").onDelete("set null"))
     .addColumn("action", "text", (c) => c.notNull())
     .addColumn("entity", "text", (c) => c.notNull())
     .addColumn("entity_id", "text")
     .addColumn("before_json", "text")
     .addColumn("after_json", "text")
-    .addColumn("at", "text", (c) =>
-      c.notNull().defaultTo(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`),
-    )
+    .addColumn("at", "text", (c) => c.notNull().defaultTo(NOW))
     .execute();
   await db.schema
     .createIndex("audit_entity")

@@ -1,6 +1,5 @@
 import { type Kysely, sql } from "kysely";
-
-const NOW = sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`;
+import { idColumn, nowText } from "./support/dialect";
 
 // The engine, the shop's settings for this job, and what was brought in, on the job itself.
 const JOB_COLUMNS: [string, "text" | "integer"][] = [
@@ -30,13 +29,15 @@ const JOB_COLUMNS: [string, "text" | "integer"][] = [
 ];
 
 export async function up(db: Kysely<any>): Promise<void> {
+  const ID = idColumn(db);
+  const NOW = nowText(db);
   for (const [name, type] of JOB_COLUMNS) {
     await db.schema.alterTable("jobs").addColumn(name, type).execute();
   }
 
   await db.schema
     .createTable("part_weights")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     .addColumn("job_id", "integer", (c) => c.notNull().references("jobs.id").onDelete("cascade"))
     .addColumn("cylinder", "integer", (c) => c.notNull().check(sql`cylinder between 1 and 32`))
     .addColumn("kind", "text", (c) =>
@@ -66,7 +67,7 @@ export async function up(db: Kysely<any>): Promise<void> {
 
   await db.schema
     .createTable("rotating_records")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     .addColumn("job_id", "integer", (c) => c.notNull().references("jobs.id").onDelete("cascade"))
     .addColumn("part", "text", (c) =>
       c.notNull().check(sql`part in ('crankshaft','flywheel','clutch','damper')`),

@@ -1,10 +1,11 @@
 import { type Kysely, sql } from "kysely";
-
-const NOW = sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`;
+import { idColumn, nowText } from "./support/dialect";
 
 // Shop settings, the price list, quotes, invoices, payments and the payment provider's
 // notifications. Money and quantities are decimal strings (TEXT), never floats.
 export async function up(db: Kysely<any>): Promise<void> {
+  const ID = idColumn(db);
+  const NOW = nowText(db);
   await db.schema
     .createTable("shop_settings")
     .addColumn("id", "integer", (c) => c.primaryKey().check(sql`id = 1`))
@@ -22,7 +23,7 @@ export async function up(db: Kysely<any>): Promise<void> {
 
   await db.schema
     .createTable("price_items")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     .addColumn("code", "text", (c) => c.notNull().unique())
     .addColumn("description", "text", (c) => c.notNull())
     .addColumn("kind", "text", (c) =>
@@ -53,7 +54,7 @@ export async function up(db: Kysely<any>): Promise<void> {
 
   await db.schema
     .createTable("quotes")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     .addColumn("number", "text", (c) => c.notNull().unique())
     .addColumn("job_id", "integer", (c) => c.notNull().references("jobs.id").onDelete("restrict"))
     .addColumn("status", "text", (c) =>
@@ -80,7 +81,7 @@ export async function up(db: Kysely<any>): Promise<void> {
 
   await db.schema
     .createTable("quote_lines")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     .addColumn("quote_id", "integer", (c) =>
       c.notNull().references("quotes.id").onDelete("cascade"),
     )
@@ -102,7 +103,7 @@ export async function up(db: Kysely<any>): Promise<void> {
 
   await db.schema
     .createTable("invoices")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     // Given when the invoice is issued, so the issued sequence has no gaps.
     .addColumn("number", "text", (c) => c.unique())
     .addColumn("job_id", "integer", (c) => c.notNull().references("jobs.id").onDelete("restrict"))
@@ -136,7 +137,7 @@ export async function up(db: Kysely<any>): Promise<void> {
 
   await db.schema
     .createTable("invoice_lines")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     .addColumn("invoice_id", "integer", (c) =>
       c.notNull().references("invoices.id").onDelete("cascade"),
     )
@@ -182,7 +183,7 @@ export async function up(db: Kysely<any>): Promise<void> {
 
   await db.schema
     .createTable("payments")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     .addColumn("invoice_id", "integer", (c) =>
       c.notNull().references("invoices.id").onDelete("restrict"),
     )
@@ -202,7 +203,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   // Every notification that reached the webhook, signed or not, and what came of it.
   await db.schema
     .createTable("payment_events")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     .addColumn("event_id", "text", (c) => c.unique())
     .addColumn("type", "text")
     .addColumn("outcome", "text", (c) => c.notNull())

@@ -1,12 +1,14 @@
 import { type Kysely, sql } from "kysely";
-
-const NOW = sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`;
+import { bytesType, idColumn, nowText } from "./support/dialect";
 
 export async function up(db: Kysely<any>): Promise<void> {
+  const ID = idColumn(db);
+  const NOW = nowText(db);
+  const BYTES = bytesType(db);
   // Files attached to a job. The stored names are ours (random); the uploader's name is display only.
   await db.schema
     .createTable("uploads")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     .addColumn("job_id", "integer", (c) => c.notNull().references("jobs.id").onDelete("cascade"))
     .addColumn("category", "text", (c) =>
       c.notNull().check(sql`category in ('arrival-photo','balancer-printout','other')`),
@@ -32,7 +34,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   // Every message the app tries to send, with what the SMTP server said.
   await db.schema
     .createTable("mail_log")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     .addColumn("kind", "text", (c) => c.notNull())
     .addColumn("to_address", "text", (c) => c.notNull())
     .addColumn("subject", "text", (c) => c.notNull())
@@ -73,7 +75,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   // Attachments are kept with the message so a failed one can be sent again as it was.
   await db.schema
     .createTable("mail_attachments")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     .addColumn("mail_id", "integer", (c) =>
       c.notNull().references("mail_log.id").onDelete("cascade"),
     )
@@ -81,7 +83,7 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn("filename", "text", (c) => c.notNull())
     .addColumn("content_type", "text", (c) => c.notNull())
     .addColumn("size_bytes", "integer", (c) => c.notNull())
-    .addColumn("content", "blob", (c) => c.notNull())
+    .addColumn("content", BYTES, (c) => c.notNull())
     .addUniqueConstraint("mail_attachments_order", ["mail_id", "position"])
     .execute();
 
@@ -89,7 +91,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   // Only the SHA-256 of the token is kept.
   await db.schema
     .createTable("invites")
-    .addColumn("id", "integer", (c) => c.primaryKey().autoIncrement())
+    .addColumn("id", "integer", ID)
     .addColumn("customer_id", "integer", (c) =>
       c.notNull().references("customers.id").onDelete("cascade"),
     )
