@@ -22,8 +22,8 @@ export default tseslint.config(
     },
   },
   {
-    // The calculation core stays pure: no framework, database, file system or environment.
-    files: ["lib/balance/**/*.ts"],
+    // The calculation cores stay pure: no framework, database, file system or environment.
+    files: ["lib/balance/**/*.ts", "lib/assembly/**/*.ts"],
     rules: {
       "no-restricted-imports": [
         "error",
@@ -31,18 +31,22 @@ export default tseslint.config(
           patterns: [
             {
               group: ["next", "next/*", "react", "react-dom", "kysely", "better-sqlite3"],
-              message: "lib/balance is pure.",
+              message: "lib/balance and lib/assembly are pure.",
             },
             {
               group: ["fs", "node:*", "@/db/*", "@/db", "@/app/*", "@/components/*"],
-              message: "lib/balance is pure.",
+              message: "lib/balance and lib/assembly are pure.",
             },
           ],
         },
       ],
       "no-restricted-properties": [
         "error",
-        { object: "process", property: "env", message: "lib/balance reads no environment." },
+        {
+          object: "process",
+          property: "env",
+          message: "The calculation cores read no environment.",
+        },
       ],
       "no-restricted-globals": ["error", "process"],
     },
