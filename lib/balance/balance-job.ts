@@ -1,4 +1,5 @@
 import { Dec, ONE_HUNDRED, out, settle } from "./decimal";
+import { parseOilAllowance, type ParsedOilAllowance } from "./bobweight";
 import { BalanceInputError } from "./errors";
 import { CUSTOM_DEFAULT_BALANCE_FACTOR, findLayoutPreset } from "./layouts";
 import { DEFAULT_TOLERANCE_G } from "./match-set";
@@ -103,8 +104,16 @@ export interface BalanceInput {
   layout: LayoutInput;
   /** Percent, 0–100; default from the preset. Ignored (with a warning) where no bobweight is used. */
   balanceFactor?: string;
-  /** Oil allowance per crankpin; default "0". */
+  /**
+   * Oil allowance for the whole crankpin, added once to each bobweight; default "0". The older
+   * form of the setting, kept for existing callers: prefer `oilAllowancePerRod`, never both.
+   */
   oilAllowance?: string;
+  /**
+   * Oil allowance per rod (2–5 g per rod is common practice, DOMAIN §3): each bobweight adds it
+   * once for every rod on its crankpin, so a two-rod pin takes twice the figure.
+   */
+  oilAllowancePerRod?: string;
   /** Target per kind; otherwise the lightest part of the kind. */
   targets?: Partial<Record<MatchedKind, string>>;
   cylinders: readonly CylinderInput[];
@@ -322,7 +331,10 @@ export interface ParsedJob {
   unit: BalanceMassUnit;
   tolerance: Dec;
   resolution: Dec;
+  /** Per crankpin as given (the older form); zero when the allowance is given per rod. */
   oil: Dec;
+  /** Per rod; null when the allowance is given per crankpin. */
+  oilPerRod: Dec | null;
   layout: ResolvedLayout;
   /** Percent; null where the layout uses no bobweight. */
   factor: Dec | null;
@@ -347,7 +359,7 @@ export function parseBalanceJob(input: BalanceInput): ParsedJob {
     root.resolution ?? (unit === "g" ? DEFAULT_RESOLUTION_G : DEFAULT_RESOLUTION_OZ),
     "resolution",
   );
-  const oil = parseQuantity(root.oilAllowance ?? "0", "oilAllowance", "non-negative");
+  const oil: ParsedOilAllowance = parseOilAllowance(root);
   const layout = resolveLayout(root.layout);
   const warnings: BalanceWarning[] = [];
   const factor = parseFactor(root, layout, warnings);
@@ -365,7 +377,8 @@ export function parseBalanceJob(input: BalanceInput): ParsedJob {
     unit,
     tolerance,
     resolution,
-    oil,
+    oil: oil.perPin,
+    oilPerRod: oil.perRod,
     layout,
     factor,
     cylinders,

@@ -1,4 +1,5 @@
 import { bobweightDecimal } from "./bobweight";
+import { bobweightToBuild, type BobweightSet } from "./build-to";
 import {
   LABEL,
   MATCHED_KINDS,
@@ -53,19 +54,24 @@ export interface CylinderResult {
   crankpin: number;
   /** Piston + wrist pin + retainers + ring set + small end, final weights. */
   reciprocating: string;
-  /** Big end + bearing shells + this rod's share of the crankpin's oil allowance, final weights. */
+  /**
+   * Big end + bearing shells + the oil allowance per rod (or, given per crankpin, this rod's
+   * share of it), final weights.
+   */
   rotating: string;
 }
 
 export interface BobweightResult {
   crankpin: number;
   cylinders: number[];
-  /** Σ (big end + bearing) of the rods on the pin + the oil allowance. */
+  /** Σ (big end + bearing) of the rods on the pin + the pin's oil allowance. */
   rotating: string;
   /** Σ reciprocating mass of the cylinders on the pin. */
   reciprocating: string;
   /** rotating + balance factor × reciprocating. */
   mass: string;
+  /** The oil allowance in this bobweight: rods on the pin × per rod, or the per-crankpin figure. */
+  oil: string;
 }
 
 export interface BalanceResult {
@@ -76,7 +82,10 @@ export interface BalanceResult {
   layout: string;
   /** Percent used for the bobweights; null where no bobweight is used. */
   balanceFactor: string | null;
+  /** Oil allowance per crankpin as given (the older form); "0" when given per rod. */
   oilAllowance: string;
+  /** Oil allowance per rod; null when given per crankpin. Each bobweight's `oil` is its pin's total. */
+  oilAllowancePerRod: string | null;
   /** The target of each kind that was weighed. */
   targets: Partial<Record<MatchedKind, string>>;
   /** By kind (pistons first), then by cylinder number. */
@@ -86,6 +95,8 @@ export interface BalanceResult {
   bobweightNeeded: boolean;
   /** By crankpin; empty where no bobweight is needed. */
   bobweights: BobweightResult[];
+  /** The figure to build the bobweights to, per number of rods on a pin (see `bobweightToBuild`). */
+  buildTo: BobweightSet[];
   warnings: BalanceWarning[];
 }
 
@@ -100,10 +111,12 @@ export interface BalanceResult {
  * ends are matched separately (rods end to end). Bearing shells are weighed, not machined.
  *
  * Masses (DOMAIN §3): reciprocating = piston + wrist pin + retainers (the cylinder's pair) +
- * ring set + small end. The oil allowance is given per crankpin: each bobweight adds it once,
- * bobweight = Σ (big end + bearing) + oil allowance + factor × Σ reciprocating, and each
- * cylinder's `rotating` shows big end + bearing + oil allowance ÷ rods on its pin, so the
- * rotating figures of a pin add up to the bobweight's rotating part.
+ * ring set + small end. bobweight = Σ (big end + bearing) + the pin's oil + factor × Σ
+ * reciprocating. The oil allowance is given per rod (`oilAllowancePerRod`: the pin's oil is
+ * rods on the pin × the figure, and each cylinder's `rotating` carries one figure) or, the
+ * older form, per crankpin (`oilAllowance`: added once per pin, and each cylinder's `rotating`
+ * carries oil allowance ÷ rods on its pin). Either way the rotating figures of a pin add up to
+ * the bobweight's rotating part. `buildTo` gives the one figure to build the bobweights to.
  *
  * All quantities are decimal strings in `unit`; results are exact (non-terminating values,
  * such as a mean of three readings, carry 30 significant digits). Round for display with
@@ -115,7 +128,8 @@ export interface BalanceResult {
  *   (numbers are refused), NaN/Infinity; an empty set or empty readings; cylinders that do not
  *   fit the layout (count, numbers 1…n, duplicates, crankpin out of range, too many rods on a
  *   pin); an optional kind weighed for some cylinders only; a factor outside 0–100 %; a
- *   negative tolerance or oil allowance; a resolution or target ≤ 0; an unknown preset or unit
+ *   negative tolerance or oil allowance; an oil allowance given both per rod and per crankpin
+ *   (`oilAllowancePerRod`, code `conflict`); a resolution or target ≤ 0; an unknown preset or unit
  *
  * @example
  * // A single: piston 310.4, pin 72.6, retainers 1.2, rings 18.3, rod ends 95.8 / 240.5,
@@ -136,6 +150,7 @@ export function computeBalance(input: BalanceInput): BalanceResult {
   const matched = matchParts(job, warnings);
   warnings.push(...rodTotalWarnings(job));
   const { cylinders, bobweights } = masses(job, matched.finals);
+  const buildTo = bobweightToBuild({ bobweights, resolution: out(job.resolution) });
   return {
     unit: job.unit,
     tolerance: out(job.tolerance),
@@ -143,11 +158,13 @@ export function computeBalance(input: BalanceInput): BalanceResult {
     layout: job.layout.id,
     balanceFactor: job.factor === null ? null : out(job.factor),
     oilAllowance: out(job.oil),
+    oilAllowancePerRod: job.oilPerRod === null ? null : out(job.oilPerRod),
     targets: matched.targets,
     parts: matched.parts,
     cylinders,
     bobweightNeeded: job.layout.bobweight,
     bobweights,
+    buildTo,
     warnings,
   };
 }
@@ -216,7 +233,7 @@ function masses(job: ParsedJob, finals: Finals) {
 
   const cylinders = job.cylinders.map((c): CylinderResult => {
     const m = massesOf(c.number);
-    const oilShare = settle(job.oil.div(rodsOnPin.get(c.crankpin) as number));
+    const oilShare = job.oilPerRod ?? settle(job.oil.div(rodsOnPin.get(c.crankpin) as number));
     return {
       number: c.number,
       crankpin: c.crankpin,
@@ -233,12 +250,14 @@ function masses(job: ParsedJob, finals: Finals) {
       const pinMasses = onPin.map(massesOf);
       const rotating = pinMasses.map((m) => m.rotating);
       const reciprocating = pinMasses.map((m) => m.reciprocating);
+      const oil = job.oilPerRod === null ? job.oil : job.oilPerRod.times(onPin.length);
       bobweights.push({
         crankpin: pin,
         cylinders: onPin,
-        rotating: out(Dec.sum(0, ...rotating).plus(job.oil)),
+        rotating: out(Dec.sum(0, ...rotating).plus(oil)),
         reciprocating: out(Dec.sum(0, ...reciprocating)),
-        mass: out(bobweightDecimal(rotating, reciprocating, factor, job.oil)),
+        mass: out(bobweightDecimal(rotating, reciprocating, factor, oil)),
+        oil: out(oil),
       });
     }
   }

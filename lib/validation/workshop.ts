@@ -1,43 +1,130 @@
 import { z } from "zod";
 import { BROUGHT_ITEMS } from "@/db/jobs";
 import { JOB_STATUSES, PART_KINDS, ROTATING_PARTS } from "@/db/schema";
-import { findLayoutPreset, LAYOUT_PRESETS } from "@/lib/balance";
-import { decimalString, percentString, positiveDecimal } from "./decimal";
+import {
+  findLayoutPreset,
+  isBalanceInputError,
+  LAYOUT_PRESETS,
+  parseDrillSize,
+} from "@/lib/balance";
+import { decimalString, positiveDecimal } from "./decimal";
 
 export { readingsTextSchema } from "./readings";
 
 const layoutIds = LAYOUT_PRESETS.map((p) => p.id) as [string, ...string[]];
 
+// Every refusal of a job setting names the field as the form labels it, so a message read
+// anywhere (beside the box, in the save line, in an API answer) says which box to fix.
+
+const PLAIN_DECIMAL = /^\d{1,9}(\.\d{1,9})?$/;
+/** A form's empty box (or a missing value) is "not given". */
+const blankAsNull = (v: unknown) => (v === "" || v === undefined ? null : v);
+/** Numbers typed in a box arrive as text; "" is "not given", anything else is read as a number. */
+const textToNumber = (v: unknown) =>
+  v === "" || v === undefined || v === null
+    ? null
+    : typeof v === "string" && /^\s*-?\d+(\.\d+)?\s*$/.test(v)
+      ? Number(v)
+      : v;
+
+/** A quantity typed at the bench, refused with the field's own name. */
+function quantity(label: string, example: string, { zero = false } = {}) {
+  const words = `${label}: enter a number like ${example} (digits and one point).`;
+  return z
+    .string({ message: words })
+    .trim()
+    .regex(PLAIN_DECIMAL, words)
+    .refine((v) => zero || Number(v) > 0, `${label} must be more than zero.`);
+}
+
+function wholeNumber(label: string, min: number, max: number, example: string) {
+  const words = `${label}: a whole number from ${min} to ${max}, like ${example}.`;
+  return z.number({ message: words }).int(words).min(min, words).max(max, words);
+}
+
+/** A length typed in the job's length unit ("4.030" in or "102.36" mm); blank: not known. */
+const enteredLength = (label: string) =>
+  z.preprocess(blankAsNull, quantity(label, "92.00 or 3.622").nullable()).optional();
+
 /** The engine and balancing settings of a job, as the booking and settings forms send them. */
 export const jobSpecSchema = z
   .object({
-    layout: z.enum(layoutIds, { message: "Choose a layout." }),
-    rodsPerPin: z.coerce.number().int().min(1).max(4).nullable().optional(),
-    bobweightNeeded: z.boolean().nullable().optional(),
-    cylinders: z.coerce
-      .number()
-      .int("Whole cylinders only.")
-      .min(1, "At least one cylinder.")
-      .max(16, "At most 16 cylinders."),
-    boreMm: positiveDecimal.nullable().optional(),
-    strokeMm: positiveDecimal.nullable().optional(),
-    rodLengthMm: positiveDecimal.nullable().optional(),
-    maxRpm: z.coerce
-      .number()
-      .int()
-      .min(100, "At least 100 rpm.")
-      .max(30_000, "At most 30 000 rpm.")
+    layout: z.enum(layoutIds, { message: "Layout: choose one from the list." }),
+    rodsPerPin: z
+      .preprocess(textToNumber, wholeNumber("Rods per crankpin", 1, 4, "2").nullable())
+      .optional(),
+    bobweightNeeded: z.boolean({ message: "Bobweight needed: yes or no." }).nullable().optional(),
+    cylinders: z.preprocess(
+      (v) => (v === null || v === undefined ? v : textToNumber(v)),
+      wholeNumber("Cylinders", 1, 16, "8"),
+    ),
+    /** Lengths in mm, as the engine takes them (older callers send these directly). */
+    boreMm: z.preprocess(blankAsNull, quantity("Bore (mm)", "92.00").nullable()).optional(),
+    strokeMm: z.preprocess(blankAsNull, quantity("Stroke (mm)", "86.00").nullable()).optional(),
+    rodLengthMm: z
+      .preprocess(blankAsNull, quantity("Rod length (mm)", "143.00").nullable())
+      .optional(),
+    /** The unit bore, stroke and rod length are typed in; the server keeps them as typed. */
+    lengthUnit: z.enum(["mm", "in"], { message: "Lengths in: mm or inches." }).optional(),
+    bore: enteredLength("Bore"),
+    stroke: enteredLength("Stroke"),
+    rodLength: enteredLength("Rod length"),
+    maxRpm: z
+      .preprocess(textToNumber, wholeNumber("Max service speed", 100, 30_000, "7000").nullable())
+      .optional(),
+    massUnit: z.enum(["g", "oz"], { message: "Weights in: grams or ounces." }).optional(),
+    scaleResolution: quantity("Scale resolution", "0.1").optional(),
+    scaleName: z
+      .string()
+      .trim()
+      .max(80, "Scale used: at most 80 characters.")
       .nullable()
       .optional(),
-    massUnit: z.enum(["g", "oz"]).optional(),
-    scaleResolution: positiveDecimal.optional(),
-    scaleName: z.string().trim().max(80).nullable().optional(),
-    balancerName: z.string().trim().max(80).nullable().optional(),
-    tolerance: positiveDecimal.optional(),
-    balanceFactor: percentString.nullable().optional(),
-    oilAllowance: decimalString.optional(),
+    balancerName: z
+      .string()
+      .trim()
+      .max(80, "Balancer used: at most 80 characters.")
+      .nullable()
+      .optional(),
+    tolerance: quantity("Tolerance", "0.5").optional(),
+    /** Blank: the layout's own factor (or none, for a layout balanced without bobweights). */
+    balanceFactor: z
+      .preprocess(
+        blankAsNull,
+        quantity("Balance factor", "50", { zero: true })
+          .refine((v) => Number(v) <= 100, "Balance factor: from 0 to 100 %.")
+          .nullable(),
+      )
+      .optional(),
+    oilAllowance: quantity("Oil allowance", "4", { zero: true }).optional(),
     benchOrder: z.enum(["by-kind", "by-cylinder"]).optional(),
-    drillDiameterMm: positiveDecimal.nullable().optional(),
+    /** The drill's diameter in mm (older callers); the settings form sends `drillSize`. */
+    drillDiameterMm: z
+      .preprocess(blankAsNull, quantity("Drill diameter (mm)", "9.5").nullable())
+      .optional(),
+    /** A drill size as written: "8.5", "8.5 mm", "3/8", "0.375 in", "#21", "F". Blank: none. */
+    drillSize: z
+      .preprocess(
+        blankAsNull,
+        z
+          .string({ message: "Drill size: write it like 8.5 mm, 3/8, #21 or F." })
+          .trim()
+          .max(40, "Drill size: at most 40 characters.")
+          .superRefine((text, ctx) => {
+            try {
+              parseDrillSize(text, "drillSize");
+            } catch (error) {
+              ctx.addIssue({
+                code: "custom",
+                message: isBalanceInputError(error)
+                  ? error.message
+                  : "Drill size: write it like 8.5 mm, 3/8, #21 or F.",
+              });
+            }
+          })
+          .nullable(),
+      )
+      .optional(),
     material: z.string().max(200).nullable().optional(),
     items: z
       .array(
@@ -50,8 +137,19 @@ export const jobSpecSchema = z
       .max(BROUGHT_ITEMS.length)
       .optional(),
     condition: z.string().trim().max(2000).nullable().optional(),
-    promisedDate: z.iso.date({ message: "Use a date like 2026-12-24." }).nullable().optional(),
-    balanceType: z.enum(["internal", "external"]).nullable().optional(),
+    /** Blank: no date promised. */
+    promisedDate: z
+      .preprocess(
+        blankAsNull,
+        z.iso.date({ message: "Promised for: a date like 2026-12-24." }).nullable(),
+      )
+      .optional(),
+    balanceType: z
+      .preprocess(
+        blankAsNull,
+        z.enum(["internal", "external"], { message: "Balance: internal or external." }).nullable(),
+      )
+      .optional(),
     pairingGroups: z
       .array(z.array(z.number().int().min(1).max(16)).min(1).max(16))
       .max(8)

@@ -1,11 +1,11 @@
 import { getDb } from "@/db/client";
-import { createJob, listJobs } from "@/db/jobs";
+import { listJobs } from "@/db/jobs";
 import { ALL_ROLES, requireApiUser } from "@/lib/auth/guard";
 import { customerScope } from "@/lib/jobs/access";
+import { bookJob } from "@/lib/jobs/settings";
 import { json, parseJson, route } from "@/lib/http/route";
 import { jobListQuerySchema } from "@/lib/validation/jobs";
-import { bookingSchema, specMismatch } from "@/lib/validation/workshop";
-import { HttpError } from "@/lib/http/errors";
+import { bookingSchema } from "@/lib/validation/workshop";
 
 export const GET = route(async (req) => {
   const user = await requireApiUser(ALL_ROLES);
@@ -24,7 +24,5 @@ export const GET = route(async (req) => {
 export const POST = route(async (req) => {
   const actor = await requireApiUser(["owner", "counter"]);
   const input = await parseJson(req, bookingSchema);
-  const mismatch = specMismatch(input.spec);
-  if (mismatch) throw new HttpError(422, "invalid_input", Object.values(mismatch)[0]!, mismatch);
-  return json({ job: await createJob(getDb(), input, actor.id) }, 201);
+  return json(await bookJob(getDb(), input, actor.id), 201);
 });
