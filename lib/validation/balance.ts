@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { BALANCE_GRADES } from "@/lib/balance";
+import { BALANCE_GRADES, isBalanceInputError, parseDrillSize } from "@/lib/balance";
 import { decimalString, percentString, positiveDecimal } from "./decimal";
 
 const weight = z.union([decimalString, z.array(decimalString).min(1).max(10)]);
@@ -80,24 +80,55 @@ export const crankRequestSchema = z
   })
   .strict();
 
+/**
+ * A drill size as a machinist writes it: "8.5" or "8.5 mm", "3/8", "1-1/4\"", "0.375 in", "#21",
+ * "F". A bare number is millimetres, as before. The engine's reader gives the message.
+ */
+export const drillSizeText = z
+  .string({ message: 'Enter the drill size, like 8.5 mm or 3/8".' })
+  .trim()
+  .min(1, 'Enter the drill size, like 8.5 mm or 3/8".')
+  .max(40, "That drill size is too long.")
+  .superRefine((value, ctx) => {
+    try {
+      parseDrillSize(value);
+    } catch (error) {
+      if (!isBalanceInputError(error)) throw error;
+      ctx.addIssue({ code: "custom", message: error.message });
+    }
+  });
+
+/** Included point angle of a twist drill, degrees: 118 for a standard jobber drill. */
+const pointAngle = positiveDecimal.refine(
+  (v) => Number(v) < 180,
+  "A point angle below 180° (118° for a standard twist drill).",
+);
+
 /** POST /api/balance/hole: the hole and correction helpers, one per "kind". */
 export const holeRequestSchema = z.discriminatedUnion("kind", [
   z
     .object({
       kind: z.literal("drill"),
+      /** Mass to take out, g. */
       mass: positiveDecimal,
-      diameter: positiveDecimal,
+      /** Drill size (see drillSizeText); a bare number is mm. */
+      diameter: drillSizeText,
       density: positiveDecimal,
-      pointAngle: positiveDecimal.optional(),
+      pointAngle: pointAngle.optional(),
+      /** Depth of metal there is to drill into, mm: the answer says whether the hole fits. */
+      availableDepth: positiveDecimal.optional(),
     })
     .strict(),
   z
     .object({
       kind: z.literal("plug"),
-      diameter: positiveDecimal,
+      /** Plug and hole size (see drillSizeText); a bare number is mm. */
+      diameter: drillSizeText,
       length: positiveDecimal,
       plugDensity: positiveDecimal,
       hostDensity: positiveDecimal,
+      /** Point angle of the drill that made the hole: counts the empty cone under a flat plug. */
+      pointAngle: pointAngle.optional(),
     })
     .strict(),
   z
@@ -109,6 +140,14 @@ export const holeRequestSchema = z.discriminatedUnion("kind", [
     })
     .strict(),
   z
-    .object({ kind: z.literal("split"), mass: positiveDecimal, halfAngleDeg: decimalString })
+    .object({
+      kind: z.literal("split"),
+      mass: positiveDecimal,
+      halfAngleDeg: decimalString.refine(
+        (v) => Number(v) < 90,
+        "Each hole less than 90° from the wanted angle.",
+      ),
+    })
     .strict(),
 ]);
+export type HoleRequest = z.infer<typeof holeRequestSchema>;

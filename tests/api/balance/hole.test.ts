@@ -1,0 +1,120 @@
+import { all, create } from "mathjs";
+import { beforeEach, describe, expect, it } from "vitest";
+import { POST as postHole } from "@/app/api/balance/hole/route";
+import type { Role } from "@/db/schema";
+import type { User } from "@/db/users";
+import { addOneOfEachRole, freshDb } from "../../helpers/db";
+import { jsonRequest, noParams } from "../../helpers/http";
+import { signInAs } from "../../helpers/session";
+
+// Reference library: mathjs with BigNumber arithmetic, 1 in = 25.4 mm exactly.
+const math = create(all, { number: "BigNumber", precision: 64 });
+
+let users: Record<Role, User>;
+
+beforeEach(async () => {
+  users = await addOneOfEachRole(await freshDb());
+  signInAs(users.machinist);
+});
+
+async function hole(body: unknown) {
+  const res = await postHole(jsonRequest("POST", "/api/balance/hole", body), noParams);
+  return { status: res.status, body: await res.json() };
+}
+
+describe("POST /api/balance/hole: drill sizes as written", () => {
+  it("reads 3/8 as 9.525 mm and answers the depth for that diameter", async () => {
+    const inch = await hole({ kind: "drill", mass: "5", diameter: "3/8", density: "7.85" });
+    const mm = await hole({ kind: "drill", mass: "5", diameter: "9.525", density: "7.85" });
+    expect(inch.status).toBe(200);
+    expect(inch.body.drill).toMatchObject({
+      diameterMm: math.evaluate("3/8 inch").toNumeric("mm").toString(),
+      entered: '3/8"',
+      unit: "in",
+    });
+    expect(inch.body.tipDepth).toBe(mm.body.tipDepth);
+    // Hand check (DOMAIN §4): V = 5 / 7.85 × 1000 = 636.943 mm³, πr² = π × 4.7625² = 71.2557 mm²,
+    // h = 4.7625 × cot 59° = 2.86160 mm; T = 636.943 / 71.2557 + 2 × 2.86160 / 3 = 8.93882 + 1.90773 = 10.8466 mm.
+    expect(Number(inch.body.tipDepth)).toBeCloseTo(10.8466, 3);
+  });
+
+  it("keeps a bare number as millimetres, as before", async () => {
+    const res = await hole({ kind: "drill", mass: "5", diameter: "10", density: "7.85" });
+    expect(res.status).toBe(200);
+    // DOMAIN §4 worked example: 5 g of steel with a 10 mm drill, T = 10.1127 mm.
+    expect(Number(res.body.tipDepth)).toBeCloseTo(10.112675, 5);
+    expect(res.body.fits).toBeNull();
+  });
+
+  it("reads number and letter sizes (#21 = 0.1590 in, F = 0.257 in, ASME B94.11M)", async () => {
+    const n21 = await hole({ kind: "drill", mass: "1", diameter: "#21", density: "7.85" });
+    expect(n21.body.drill.diameterMm).toBe(math.evaluate("0.1590 inch").toNumeric("mm").toString());
+    const f = await hole({ kind: "drill", mass: "1", diameter: "F", density: "7.85" });
+    expect(f.body.drill.diameterMm).toBe(math.evaluate("0.257 inch").toNumeric("mm").toString());
+  });
+
+  it("says whether the hole fits the metal there is", async () => {
+    const deep = { kind: "drill", mass: "5", diameter: "10", density: "7.85" };
+    expect((await hole({ ...deep, availableDepth: "12" })).body.fits).toBe(true);
+    expect((await hole({ ...deep, availableDepth: "9" })).body.fits).toBe(false);
+  });
+
+  it("refuses a size it cannot read with 422 naming diameter", async () => {
+    const res = await hole({ kind: "drill", mass: "5", diameter: "3/8x", density: "7.85" });
+    expect(res.status).toBe(422);
+    expect(Object.keys(res.body.error.fields)).toEqual(["diameter"]);
+    expect(res.body.error.fields.diameter).toMatch(/3\/8/);
+  });
+
+  it("refuses a point angle of 180° or more with 422 naming pointAngle", async () => {
+    const res = await hole({
+      kind: "drill",
+      mass: "5",
+      diameter: "10",
+      density: "7.85",
+      pointAngle: "200",
+    });
+    expect(res.status).toBe(422);
+    expect(Object.keys(res.body.error.fields)).toEqual(["pointAngle"]);
+  });
+});
+
+describe("POST /api/balance/hole: heavy-metal plug", () => {
+  it("counts the empty cone of a 118° point under a flat-ended ½ in plug", async () => {
+    const body = {
+      kind: "plug",
+      diameter: '1/2"',
+      length: "25",
+      plugDensity: "18.0",
+      hostDensity: "7.85",
+    };
+    const flat = await hole(body);
+    const pointed = await hole({ ...body, pointAngle: "118" });
+    expect(pointed.status).toBe(200);
+    // Worked by hand: r = 6.35 mm, h = 6.35 × cot 59° = 3.81546 mm, cone = π × 40.3225 × 3.81546 / 3
+    // = 161.110 mm³, × 7.85 g/cm³ = 1.2647 g that the flat plug does not put back.
+    expect(Number(flat.body.netMass)).toBeCloseTo(32.1443, 4);
+    expect(Number(pointed.body.netMass)).toBeCloseTo(30.8795, 4);
+    expect(Number(pointed.body.pointVoidMass)).toBeCloseTo(1.2647, 4);
+    expect(pointed.body.drill.entered).toBe('1/2"');
+  });
+});
+
+describe("POST /api/balance/hole: split and moved corrections", () => {
+  it("splits over two holes at ±θ and refuses 90° with 422 naming halfAngleDeg", async () => {
+    // m / (2 cos 60°) = 10 / 1 = 10 g each (DOMAIN §4).
+    expect((await hole({ kind: "split", mass: "10", halfAngleDeg: "60" })).body.massEach).toBe(
+      "10",
+    );
+    const res = await hole({ kind: "split", mass: "10", halfAngleDeg: "90" });
+    expect(res.status).toBe(422);
+    expect(Object.keys(res.body.error.fields)).toEqual(["halfAngleDeg"]);
+  });
+
+  it("moves a correction to another radius: 12 g at 50 mm = 8 g at 75 mm", async () => {
+    // m₂ = m₁ r₁ / r₂ = 12 × 50 / 75 = 8 g (DOMAIN §4).
+    expect(
+      (await hole({ kind: "move", mass: "12", fromRadius: "50", toRadius: "75" })).body,
+    ).toEqual({ mass: "8", unbalance: "600" });
+  });
+});
