@@ -24,7 +24,8 @@ export type BalanceErrorCode =
   | "too-many-rods" // more rods on a crankpin than the layout allows
   | "unknown-cylinder" // a group or pairing names a cylinder that is not in the set
   | "unknown-plane" // a reading names a correction plane the allowance does not have
-  | "missing-plane"; // a correction plane has no reading
+  | "missing-plane" // a correction plane has no reading
+  | "conflict"; // two inputs that say the same thing differently (oil allowance per rod and per crankpin)
 
 /**
  * The one error `lib/balance` throws for bad input. `field` is a dotted path into the

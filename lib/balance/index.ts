@@ -54,6 +54,12 @@ export {
 } from "./match-set";
 export { bobweightForCrankpin, type BobweightInput } from "./bobweight";
 export {
+  bobweightToBuild,
+  type BobweightToBuildInput,
+  type BobweightSet,
+  type PinBobweight,
+} from "./build-to";
+export {
   computeBalance,
   MATCHED_KINDS,
   RECIPROCATING_KINDS,

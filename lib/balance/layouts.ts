@@ -25,6 +25,11 @@ export interface FixedLayoutPreset {
   balanceFactorRange: readonly [string, string] | null;
   /** Where the figures come from, and how sure they are. */
   source: string;
+  /**
+   * Set on a preset kept only so that jobs booked with it keep their figures: the presets to
+   * choose instead. Forms offer it only to a job that already uses it.
+   */
+  replacedBy?: readonly string[];
 }
 
 /**
@@ -53,6 +58,14 @@ export const CUSTOM_DEFAULT_BALANCE_FACTOR = "50";
 
 const pins = (cylinders: number, rodsPerPin: number): number[] =>
   Array.from({ length: cylinders }, (_, i) => Math.floor(i / rodsPerPin) + 1);
+
+/**
+ * Why 50 % is where every shared-pin or split-pin V layout starts: a cylinder's primary force
+ * along its own axis is half a vector turning with its crankpin and half a vector turning the
+ * other way, m·r·ω²·cos(θ − φ)·u(φ) = ½·m·r·ω²·[u(θ) + u(2φ − θ)] (textbook engine balance).
+ */
+const HALF_TURNS_WITH_CRANK =
+  "Each cylinder's primary force along its axis is half a force turning with its crankpin and half a force turning the other way, m·r·ω²·cos(θ − φ)·u(φ) = ½·m·r·ω²·[u(θ) + u(2φ − θ)]; a counterweight turns with the crank, so it can only cancel the first half.";
 
 const NO_BOBWEIGHT =
   "DOMAIN §3, common practice: the throws cancel each other's primary forces and couples, so equal bobweights would cancel too; the crank is spun bare.";
@@ -86,6 +99,7 @@ function fixed(
  *
  * @example
  * LAYOUT_PRESETS.find((p) => p.id === "v8-cross-plane")?.defaultBalanceFactor; // "50"
+ * LAYOUT_PRESETS.find((p) => p.id === "v6-90-split")?.crankpins; // [1, 2, 3, 4, 5, 6]
  */
 export const LAYOUT_PRESETS: readonly LayoutPreset[] = [
   fixed(
@@ -133,13 +147,32 @@ export const LAYOUT_PRESETS: readonly LayoutPreset[] = [
   fixed("flat-4", "Flat (boxer) four", 4, 1, null, NO_BOBWEIGHT),
   fixed("flat-6", "Flat (boxer) six", 6, 1, null, NO_BOBWEIGHT),
   fixed(
-    "v-twin",
-    "V-twin, shared crankpin",
+    "v-twin-90",
+    "V-twin, 90°, shared crankpin",
+    2,
+    2,
+    { factor: "50" },
+    `Textbook engine balance (NPTEL "Dynamics of Machines", V-engine balancing; DOMAIN §3): ${HALF_TURNS_WITH_CRANK} At 90° the two counter-rotating halves point opposite ways and cancel, so the primary force of both cylinders is a constant vector of half their reciprocating mass turning with the crank: 50 % cancels all of it. Use the engine maker's figure where it differs.`,
+  ),
+  fixed(
+    "v-twin-narrow",
+    "V-twin, narrower than 90°, shared crankpin",
     2,
     2,
     { factor: "60", range: ["55", "65"] },
-    "DOMAIN §3, common practice: narrow V-twins roughly 55–65 %, 60 % taken as the start.",
+    `DOMAIN §3, common practice: narrow V-twins roughly 55–65 %, 60 % taken as the start. Below 90° the counter-rotating halves no longer cancel (what is left is cos(V angle) of one cylinder's primary force) and no counterweight can cancel it; a factor over 50 % only moves the remaining shake from one direction to another, which is why makers choose their own figure. ${HALF_TURNS_WITH_CRANK}`,
   ),
+  {
+    ...fixed(
+      "v-twin",
+      "V-twin, shared crankpin (V angle not given: choose 90° or narrower)",
+      2,
+      2,
+      { factor: "60", range: ["55", "65"] },
+      "Kept for jobs booked before the V angle was asked, with the 60 % they were worked out with (narrow V-twins 55–65 %, common practice, DOMAIN §3). A 90° twin needs 50 %: change the job to the 90° or the narrower V-twin layout.",
+    ),
+    replacedBy: ["v-twin-90", "v-twin-narrow"],
+  },
   fixed(
     "v6-60",
     "V6, 60°, one rod per throw",
@@ -149,12 +182,20 @@ export const LAYOUT_PRESETS: readonly LayoutPreset[] = [
     "DOMAIN §3: V6 cranks need bobweights. Even-fire 60° V6 cranks give each rod its own (split) throw; the 50 % start is from memory — use the engine maker's figure.",
   ),
   fixed(
+    "v6-90-split",
+    "V6, 90°, even fire, split crankpins",
+    6,
+    1,
+    { factor: "50" },
+    `DOMAIN §3: V6 cranks need bobweights. Each rod has its own crankpin (the two pins of a throw are offset so that the cylinders fire every 120°), so there are six bobweights of one rod each. ${HALF_TURNS_WITH_CRANK} 50 % of each rod's reciprocating mass cancels the half that turns with its own pin exactly; the counter-rotating halves of the six cylinders add up to no force over the three throws but leave a rocking couple that no counterweight can cancel (the reason some of these engines carry a balance shaft). So 50 % leaves nothing that the crank's counterweights could still correct (textbook engine balance, derived, not a maker's figure): use the engine maker's figure where it differs.`,
+  ),
+  fixed(
     "v6-90",
-    "V6, 90°, shared crankpins",
+    "V6, 90°, shared crankpins (odd fire)",
     6,
     2,
     { factor: "50" },
-    "DOMAIN §3: V6 cranks need bobweights. Two cylinders 90° apart on one pin: at 50 % their primary forces sum to a constant turning vector (textbook engine balance, as for the 90° V8). Split-pin cranks: use a custom layout with one rod per pin.",
+    "DOMAIN §3: V6 cranks need bobweights. Two cylinders 90° apart on one pin: at 50 % their primary forces sum to a constant turning vector (textbook engine balance, as for the 90° V8). Even-fire cranks with split pins: use the split-crankpin V6 layout.",
   ),
   fixed(
     "v8-cross-plane",

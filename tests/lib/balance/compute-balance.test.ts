@@ -223,14 +223,23 @@ describe("computeBalance: cross-plane V8 worked by hand", () => {
         rotating: "1104.5",
         reciprocating: "1745.5",
         mass: "1977.25",
+        oil: "4",
       },
-      { crankpin: 2, cylinders: [3, 4], rotating: "1104.3", reciprocating: "1745", mass: "1976.8" },
+      {
+        crankpin: 2,
+        cylinders: [3, 4],
+        rotating: "1104.3",
+        reciprocating: "1745",
+        mass: "1976.8",
+        oil: "4",
+      },
       {
         crankpin: 3,
         cylinders: [5, 6],
         rotating: "1104.4",
         reciprocating: "1745.7",
         mass: "1977.25",
+        oil: "4",
       },
       {
         crankpin: 4,
@@ -238,6 +247,7 @@ describe("computeBalance: cross-plane V8 worked by hand", () => {
         rotating: "1104.3",
         reciprocating: "1745.5",
         mass: "1977.05",
+        oil: "4",
       },
     ]);
   });
@@ -282,7 +292,14 @@ describe("computeBalance: single cylinder worked by hand", () => {
       { number: 1, crankpin: 1, reciprocating: "497.9", rotating: "265.5" },
     ]);
     expect(result.bobweights).toEqual([
-      { crankpin: 1, cylinders: [1], rotating: "265.5", reciprocating: "497.9", mass: "564.24" },
+      {
+        crankpin: 1,
+        cylinders: [1],
+        rotating: "265.5",
+        reciprocating: "497.9",
+        mass: "564.24",
+        oil: "3",
+      },
     ]);
     expect(result.warnings).toEqual([]);
   });
