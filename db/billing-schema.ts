@@ -34,6 +34,8 @@ export interface ShopSettingsTable {
   currency: string;
   invoice_footer: string | null;
   max_upload_mb: string;
+  /** Percent of the median of its kind a weight may sit from before it is held (default "5"). */
+  outlier_percent: Generated<string>;
   version: Generated<number>;
   updated_at: Timestamp;
 }

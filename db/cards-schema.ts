@@ -20,6 +20,8 @@ export interface BalanceCardTable {
   issued_at: string;
   superseded_at: string | null;
   superseded_by_revision: number | null;
+  /** What the job held when issued (lib/cards/fingerprint.ts); null before it was recorded. */
+  job_fingerprint: string | null;
 }
 
 /** The shop's logo for its cards (one row, id 1). */

@@ -20,6 +20,8 @@ export interface StoredCard {
   supersededByRevision: number | null;
   /** The data it was made from, as stored (parse with lib/cards). */
   dataJson: string;
+  /** What the job held when it was issued (lib/cards/fingerprint.ts); null on older cards. */
+  jobFingerprint: string | null;
 }
 
 type CardRowWithIssuer = Omit<BalanceCardRow, "pdf"> & { issued_by_name: string | null };
@@ -39,6 +41,7 @@ function toCard(row: CardRowWithIssuer): StoredCard {
     supersededAt: row.superseded_at,
     supersededByRevision: row.superseded_by_revision,
     dataJson: row.data_json,
+    jobFingerprint: row.job_fingerprint,
   };
 }
 
@@ -59,6 +62,7 @@ function selectCards(db: Kysely<Database>) {
       "balance_cards.issued_at",
       "balance_cards.superseded_at",
       "balance_cards.superseded_by_revision",
+      "balance_cards.job_fingerprint",
       "users.name as issued_by_name",
     ]);
 }
@@ -82,6 +86,9 @@ export interface NewCard {
   dataJson: string;
   verificationCode: string;
   issuedAt: string;
+  jobFingerprint?: string | null;
+  /** Why it was issued with parts outside the band, light or held (kept in the audit entry). */
+  overrideReason?: string | null;
 }
 
 /**
@@ -120,6 +127,7 @@ export async function createCard(
         verification_code: card.verificationCode,
         issued_by: actorId,
         issued_at: card.issuedAt,
+        job_fingerprint: card.jobFingerprint ?? null,
       })
       .returning("id")
       .executeTakeFirstOrThrow();
@@ -144,6 +152,7 @@ export async function createCard(
         sha256: stored.sha256,
         pageSize: stored.pageSize,
         supersedes: superseded.map((s) => s.revision),
+        ...(card.overrideReason ? { overrideReason: card.overrideReason } : {}),
       },
     });
     return stored;

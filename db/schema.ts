@@ -116,6 +116,8 @@ export interface PartWeightTable {
   kind: PartKind;
   phase: WeighPhase;
   readings_json: string;
+  /** 1 when the machinist confirmed a weight far from the rest of its kind. */
+  confirmed_outlier: Generated<number>;
   version: Generated<number>;
   updated_by: number | null;
   updated_at: ColumnType<string, string | undefined, string>;

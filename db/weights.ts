@@ -9,6 +9,8 @@ export interface PartWeight {
   kind: PartKind;
   phase: WeighPhase;
   readings: string[];
+  /** The machinist confirmed these readings although they sit far from the rest of the kind. */
+  confirmedOutlier: boolean;
   version: number;
   updatedAt: string;
 }
@@ -27,6 +29,7 @@ export async function listPartWeights(db: Kysely<Database>, jobId: number): Prom
     kind: r.kind,
     phase: r.phase,
     readings: JSON.parse(r.readings_json) as string[],
+    confirmedOutlier: r.confirmed_outlier === 1,
     version: r.version,
     updatedAt: r.updated_at,
   }));
@@ -41,6 +44,21 @@ export interface PartWeightWrite {
   readings: string[];
   /** The version the writer last saw; 0 for a part not weighed yet. */
   baseVersion: number;
+  /**
+   * Stored with the readings: the machinist confirmed them although they sit far from the rest
+   * of the kind. Every write without it clears the mark, so a changed weight is checked afresh.
+   */
+  confirmedOutlier?: boolean;
+}
+
+/** The shop's outlier percentage (shop_settings.outlier_percent), or null before any settings are saved. */
+export async function findOutlierPercent(db: Kysely<Database>): Promise<string | null> {
+  const row = await db
+    .selectFrom("shop_settings")
+    .select("outlier_percent")
+    .where("id", "=", 1)
+    .executeTakeFirst();
+  return row?.outlier_percent ?? null;
 }
 
 /**
@@ -107,17 +125,25 @@ async function writePartWeight(
     if (before) await trx.deleteFrom("part_weights").where("id", "=", before.id).execute();
   } else {
     const readings_json = JSON.stringify(write.readings);
+    const confirmed_outlier = write.confirmedOutlier ? 1 : 0;
     const version = currentVersion + 1;
     if (before) {
       await trx
         .updateTable("part_weights")
-        .set({ readings_json, version, updated_by: actorId, updated_at: at })
+        .set({ readings_json, confirmed_outlier, version, updated_by: actorId, updated_at: at })
         .where("id", "=", before.id)
         .execute();
     } else {
       await trx
         .insertInto("part_weights")
-        .values({ ...key, readings_json, version, updated_by: actorId, updated_at: at })
+        .values({
+          ...key,
+          readings_json,
+          confirmed_outlier,
+          version,
+          updated_by: actorId,
+          updated_at: at,
+        })
         .execute();
     }
     saved = {
@@ -125,13 +151,14 @@ async function writePartWeight(
       kind: key.kind,
       phase: key.phase,
       readings: write.readings,
+      confirmedOutlier: confirmed_outlier === 1,
       version,
       updatedAt: at,
     };
   }
   await createAuditEntry(trx, {
     userId: actorId,
-    action: saved ? "weigh" : "clear",
+    action: saved ? (saved.confirmedOutlier ? "weigh-confirmed" : "weigh") : "clear",
     entity: "part_weight",
     entityId,
     before: beforeReadings,

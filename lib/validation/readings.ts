@@ -13,4 +13,12 @@ export const readingsTextSchema = z
   .refine((readings) => readings.every((r) => decimalString.safeParse(r).success), {
     message: "Enter a number, like 512.4; separate repeated readings with spaces.",
   })
-  .refine((readings) => readings.length <= 10, { message: "At most 10 readings of one part." });
+  .refine((readings) => readings.length <= 10, { message: "At most 10 readings of one part." })
+  .refine((readings) => !readings.some(isZeroReading), {
+    message: "A weight of zero is not a reading: weigh the part again.",
+  });
+
+/** "0", "0.0", "000.00": a reading of nothing, refused at the grid and the API. */
+export function isZeroReading(reading: string): boolean {
+  return /^0+(\.0+)?$/.test(reading.trim());
+}

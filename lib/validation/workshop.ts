@@ -7,7 +7,9 @@ import {
   LAYOUT_PRESETS,
   parseDrillSize,
 } from "@/lib/balance";
+import { PART_NAMES } from "@/lib/workshop/outliers";
 import { decimalString, positiveDecimal } from "./decimal";
+import { isZeroReading } from "./readings";
 
 export { readingsTextSchema } from "./readings";
 
@@ -186,8 +188,18 @@ export const weightWriteSchema = z
     phase: z.enum(["initial", "final"]),
     readings: z.array(decimalString).max(10, "At most 10 readings of one part."),
     version: z.number().int().min(0),
+    /** The machinist confirms readings far from the rest of the kind (lib/workshop/outliers.ts). */
+    confirmOutlier: z.boolean().optional(),
   })
-  .strict();
+  .strict()
+  .superRefine((write, ctx) => {
+    if (write.readings.some(isZeroReading))
+      ctx.addIssue({
+        code: "custom",
+        path: ["readings"],
+        message: `Cylinder ${write.cylinder} ${PART_NAMES[write.kind].one}: a weight of zero is not a reading. Weigh the part again.`,
+      });
+  });
 
 export const targetWriteSchema = z
   .object({

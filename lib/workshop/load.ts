@@ -1,6 +1,8 @@
+import { DEFAULT_OUTLIER_PERCENT } from "@/lib/balance";
 import type { DB } from "@/db/client";
 import type { Job } from "@/db/jobs";
 import {
+  findOutlierPercent,
   listPartTargets,
   listPartWeights,
   listRotatingRecords,
@@ -17,20 +19,31 @@ export interface Workshop {
   targets: PartTarget[];
   rotating: (RotatingRecord & { check: RotatingCheck })[];
   plan: WorkshopPlan;
+  /** The shop's outlier percentage: how far from its kind a weight may sit before it is held. */
+  outlierPercent: string;
 }
 
 /** Everything the bench pages show for one job, with the plan worked out from it. */
 export async function loadWorkshop(db: DB, job: Job): Promise<Workshop> {
-  const [weights, targets, rotating] = await Promise.all([
+  const [weights, targets, rotating, percent] = await Promise.all([
     listPartWeights(db, job.id),
     listPartTargets(db, job.id),
     listRotatingRecords(db, job.id),
+    findOutlierPercent(db),
   ]);
+  const outlierPercent = percent ?? DEFAULT_OUTLIER_PERCENT;
   return {
     job,
     weights,
     targets,
     rotating: rotating.map((r) => ({ ...r, check: checkRotatingRecord(r) })),
-    plan: buildWorkshopPlan(job, weights, targets, job.spec.pairingGroups ?? undefined),
+    plan: buildWorkshopPlan(
+      job,
+      weights,
+      targets,
+      job.spec.pairingGroups ?? undefined,
+      outlierPercent,
+    ),
+    outlierPercent,
   };
 }

@@ -16,6 +16,7 @@ import {
 import type { Job } from "@/db/jobs";
 import type { PartKind } from "@/db/schema";
 import type { PartTarget, PartWeight } from "@/db/weights";
+import { findHeldWeights, type OutlierCheck } from "./outliers";
 
 const REQUIRED: PartKind[] = ["piston", "wristPin", "smallEnd", "bigEnd"];
 const OPTIONAL: PartKind[] = ["retainers", "rings", "bearing", "rodTotal"];
@@ -68,6 +69,11 @@ export interface WorkshopPlan {
   pairing: PairingResult | null;
   /** A setting or weight the engine refused, with the field it named. */
   error: { field: string; message: string } | null;
+  /**
+   * Weights far from the rest of their kind that the machinist has not confirmed (or at zero):
+   * while any is held the plan is not worked out and `error` names the first.
+   */
+  held: OutlierCheck[];
 }
 
 function layoutOf(job: Job): BalanceInput["layout"] | null {
@@ -91,6 +97,7 @@ export function buildWorkshopPlan(
   weights: PartWeight[],
   targets: PartTarget[],
   pairingGroups?: number[][],
+  outlierPercent?: string,
 ): WorkshopPlan {
   const cylinders = job.spec.cylinders ?? 0;
   const layout = layoutOf(job);
@@ -114,8 +121,15 @@ export function buildWorkshopPlan(
     drill: {},
     pairing: null,
     error: null,
+    held: findHeldWeights(job, weights, outlierPercent),
   };
   if (!layout || cylinders === 0 || missing.length > 0) return empty;
+  if (empty.held.length > 0) {
+    const [first, ...rest] = empty.held;
+    const more = rest.length > 0 ? ` (and ${rest.length} more held)` : "";
+    const message = `Held on the weigh-in: ${first!.message}${more}`;
+    return { ...empty, error: { field: "readings", message } };
+  }
 
   const base = {
     unit: job.spec.massUnit,
