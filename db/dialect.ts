@@ -1,4 +1,5 @@
 import { type Kysely, type SelectQueryBuilder, sql } from "kysely";
+import type { Database } from "./schema";
 
 // The few places where SQLite and PostgreSQL need different SQL, each behind one function. The
 // rest of db/ writes SQL both engines read the same way.
@@ -30,16 +31,19 @@ export async function tableExists(db: Kysely<any>, name: string): Promise<boolea
 
 /**
  * Locks the rows a read-then-write transaction selects until it commits (`for update`) on
- * PostgreSQL, where several connections write at once. SQLite takes one writer at a time (and
- * the app holds one connection), so it needs no lock and has no such clause.
+ * PostgreSQL, where several connections write at once: a second writer waits, then reads the
+ * row as the first left it (and sees the new version). SQLite takes one writer at a time (and
+ * the app holds one connection), so it needs no lock and has no such clause. With a join, name
+ * the table whose rows are written (`of`), so the joined rows are not locked too.
  *
  * @example await trx.selectFrom("jobs").selectAll().where("id", "=", id).$call(forUpdate(trx))
  */
-export function forUpdate(db: Kysely<any>) {
+export function forUpdate<TB extends string = never>(db: Kysely<any>, of?: TB) {
   const lock = isPostgres(db);
-  return <DB, TB extends keyof DB, O>(
-    qb: SelectQueryBuilder<DB, TB, O>,
-  ): SelectQueryBuilder<DB, TB, O> => (lock ? qb.forUpdate() : qb);
+  return <DB, T extends keyof DB, O>(
+    qb: SelectQueryBuilder<DB, T, O>,
+  ): SelectQueryBuilder<DB, T, O> =>
+    lock ? qb.forUpdate(of as Parameters<typeof qb.forUpdate>[0]) : qb;
 }
 
 /** A write refused because a unique value (or key) is already taken, on either engine. */
@@ -50,4 +54,28 @@ export function isUniqueViolation(error: unknown): boolean {
     code === "SQLITE_CONSTRAINT_UNIQUE" ||
     code === "SQLITE_CONSTRAINT_PRIMARYKEY"
   );
+}
+
+/** Tables whose rows writers lock by id before reading what they will change. */
+export type LockableTable = "jobs" | "invoices" | "quotes" | "price_items";
+
+/**
+ * Takes one row's lock for the rest of the transaction on PostgreSQL (nothing on SQLite, which
+ * runs one writer at a time): a second writer of the same row waits until the first commits,
+ * then reads what the first wrote, so a version check or a running total cannot be based on a
+ * row someone is changing. Take it before reading the row.
+ */
+export async function lockRow(db: Kysely<any>, table: LockableTable, id: number): Promise<void> {
+  if (!isPostgres(db)) return;
+  await sql`select id from ${sql.table(table)} where id = ${id} for update`.execute(db);
+}
+
+/**
+ * Takes a job's row lock (see lockRow). Writers of a job's parts (weights, targets, rotating-part
+ * records) take it first, so two saves of the same part queue up instead of both reading the same
+ * version (or both inserting a part not weighed yet), and no two of them can lock each other's
+ * rows in opposite order.
+ */
+export async function lockJob(db: Kysely<Database>, jobId: number): Promise<void> {
+  await lockRow(db, "jobs", jobId);
 }

@@ -1,7 +1,9 @@
 import { type Kysely, sql, type Updateable } from "kysely";
 import { createAuditEntry } from "./audit";
+import { forUpdate } from "./dialect";
 import { containsText } from "./search";
 import { NotFoundError, StaleWriteError } from "./errors";
+import { takeNextJobNumber } from "./number-sequences";
 import type { Database, JobRow, JobStatus, JobTable } from "./schema";
 
 export const BROUGHT_ITEMS = [
@@ -203,20 +205,6 @@ function selectJobs(db: Kysely<Database>) {
     .select("customers.name as customer_name");
 }
 
-/** The next readable job number for the year: 2026-0001, 2026-0002, … */
-export async function findNextJobNumber(db: Kysely<Database>, now: Date): Promise<string> {
-  const year = now.getUTCFullYear();
-  const last = await db
-    .selectFrom("jobs")
-    .select("number")
-    .where("number", "like", `${year}-%`)
-    .orderBy("number", "desc")
-    .limit(1)
-    .executeTakeFirst();
-  const next = last ? Number(last.number.slice(5)) + 1 : 1;
-  return `${year}-${String(next).padStart(4, "0")}`;
-}
-
 export interface NewJob {
   customerId: number;
   engine: string;
@@ -238,7 +226,7 @@ export async function createJob(
       .where("id", "=", input.customerId)
       .executeTakeFirst();
     if (!customer) throw new NotFoundError("customer");
-    const number = await findNextJobNumber(trx, now);
+    const number = await takeNextJobNumber(trx, now);
     const inserted = await trx
       .insertInto("jobs")
       .values({
@@ -288,7 +276,10 @@ export async function updateJob(
   now = new Date(),
 ): Promise<Job> {
   return db.transaction().execute(async (trx) => {
-    const before = await selectJobs(trx).where("jobs.id", "=", id).executeTakeFirst();
+    const before = await selectJobs(trx)
+      .where("jobs.id", "=", id)
+      .$call(forUpdate(trx, "jobs"))
+      .executeTakeFirst();
     if (!before) throw new NotFoundError("job");
     if (before.version !== baseVersion) throw new StaleWriteError("job", before.version);
     await trx

@@ -1,6 +1,28 @@
-import { type Kysely, sql } from "kysely";
+import type { Kysely } from "kysely";
 import { formatDocumentNumber, type NumberedDocument, sequenceName } from "@/lib/billing/numbering";
 import type { Database } from "./schema";
+
+/**
+ * Adds one to a named counter and answers the new value (1 for a counter not used before), in a
+ * single statement: an insert that, when the row is there, increments it instead. The row lock
+ * the statement takes makes simultaneous callers wait their turn on PostgreSQL, so each gets its
+ * own value; SQLite runs one writer at a time anyway. Values are integers, compared as integers.
+ */
+async function increment(db: Kysely<Database>, name: string): Promise<number> {
+  const row = await db
+    .insertInto("number_sequences")
+    .values({ name, last_value: 1 })
+    .onConflict((oc) =>
+      // Qualified: in an upsert PostgreSQL would not know which `last_value` (the stored row's or
+      // the proposed one) a bare name means.
+      oc.column("name").doUpdateSet((eb) => ({
+        last_value: eb("number_sequences.last_value", "+", 1),
+      })),
+    )
+    .returning("last_value")
+    .executeTakeFirstOrThrow();
+  return Number(row.last_value);
+}
 
 /**
  * Draws the next number for a document kind in the year of `now` (UTC): INV-2026-0001, then
@@ -13,11 +35,21 @@ export async function takeNextNumber(
   now: Date,
 ): Promise<string> {
   const year = now.getUTCFullYear();
-  const row = await db
-    .insertInto("number_sequences")
-    .values({ name: sequenceName(kind, year), last_value: 1 })
-    .onConflict((oc) => oc.column("name").doUpdateSet({ last_value: sql`last_value + 1` }))
-    .returning("last_value")
-    .executeTakeFirstOrThrow();
-  return formatDocumentNumber(kind, year, row.last_value);
+  return formatDocumentNumber(kind, year, await increment(db, sequenceName(kind, year)));
+}
+
+/** The counter job numbers of one year are drawn from. */
+export function jobSequenceName(year: number): string {
+  return `job-${year}`;
+}
+
+/**
+ * Draws the next job number for the year of `now` (UTC): 2026-0001, 2026-0002, … 2026-9999,
+ * 2026-10000 (wider past 9999, never truncated). Call it inside the transaction that stores the
+ * job, so a failed booking gives the number back.
+ */
+export async function takeNextJobNumber(db: Kysely<Database>, now: Date): Promise<string> {
+  const year = now.getUTCFullYear();
+  const value = await increment(db, jobSequenceName(year));
+  return `${year}-${String(value).padStart(4, "0")}`;
 }
