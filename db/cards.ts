@@ -1,6 +1,7 @@
 import type { Kysely } from "kysely";
 import { createAuditEntry } from "./audit";
 import type { BalanceCardRow, CardPageSize, ShopLogoRow } from "./cards-schema";
+import { lockJob } from "./dialect";
 import { ConflictError, NotFoundError } from "./errors";
 import type { Database } from "./schema";
 
@@ -102,6 +103,7 @@ export async function createCard(
   actorId: number | null,
 ): Promise<StoredCard> {
   return db.transaction().execute(async (trx) => {
+    await lockJob(trx, card.jobId);
     const job = await trx
       .selectFrom("jobs")
       .select("id")

@@ -3,6 +3,7 @@ import { BillingInputError } from "@/lib/billing/errors";
 import { compareMoney } from "@/lib/billing/money";
 import { createAuditEntry } from "./audit";
 import type { InvoiceLineRow, InvoiceRow, InvoiceStatus } from "./billing-schema";
+import { lockRow } from "./dialect";
 import { ConflictError, NotFoundError, StaleWriteError } from "./errors";
 import { takeNextNumber } from "./number-sequences";
 import { type LineInput, priceLines, type PricedLineValues } from "./prices";
@@ -250,6 +251,7 @@ export async function createInvoice(
 }
 
 async function lockInvoice(trx: Kysely<Database>, id: number, baseVersion?: number) {
+  await lockRow(trx, "invoices", id);
   const invoice = await loadInvoice(trx, id);
   if (!invoice) throw new NotFoundError("invoice");
   if (baseVersion !== undefined && invoice.version !== baseVersion) {

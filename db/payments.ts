@@ -8,6 +8,7 @@ import type {
   PaymentRow,
   PaymentSessionRow,
 } from "./billing-schema";
+import { lockRow } from "./dialect";
 import { ConflictError, NotFoundError } from "./errors";
 import type { Database } from "./schema";
 
@@ -69,6 +70,7 @@ async function addPayment(
   actorId: number | null,
   now: Date,
 ): Promise<{ payment: Payment; paid: boolean }> {
+  await lockRow(trx, "invoices", invoiceId);
   const invoice = await trx
     .selectFrom("invoices")
     .select(["id", "status", "total", "amount_paid", "version"])
@@ -168,6 +170,7 @@ export async function applyOnlinePayment(
   },
   now = new Date(),
 ): Promise<OnlinePaymentOutcome> {
+  await lockRow(trx, "invoices", input.invoiceId);
   const invoice = await trx
     .selectFrom("invoices")
     .select(["id", "status", "currency", "total", "amount_paid"])

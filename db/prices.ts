@@ -3,6 +3,7 @@ import { BillingInputError } from "@/lib/billing/errors";
 import { parseDecimal } from "@/lib/billing/money";
 import { createAuditEntry } from "./audit";
 import { PRICE_KINDS, type PriceItemRow, type PriceKind } from "./billing-schema";
+import { lockRow } from "./dialect";
 import { ConflictError, NotFoundError, StaleWriteError } from "./errors";
 import type { Database } from "./schema";
 
@@ -88,6 +89,7 @@ export async function updatePriceItem(
   now = new Date(),
 ): Promise<PriceItem> {
   return db.transaction().execute(async (trx) => {
+    await lockRow(trx, "price_items", id);
     const row = await trx
       .selectFrom("price_items")
       .selectAll()

@@ -3,6 +3,7 @@ import { BillingInputError } from "@/lib/billing/errors";
 import { computeTotals } from "@/lib/billing/totals";
 import { createAuditEntry } from "./audit";
 import type { QuoteLineRow, QuoteRow, QuoteStatus } from "./billing-schema";
+import { lockRow } from "./dialect";
 import { ConflictError, NotFoundError, StaleWriteError } from "./errors";
 import { takeNextNumber } from "./number-sequences";
 import { type LineInput, priceLines, type PricedLineValues } from "./prices";
@@ -190,6 +191,7 @@ export async function createQuote(
 }
 
 async function lockQuote(trx: Kysely<Database>, id: number, baseVersion?: number): Promise<Quote> {
+  await lockRow(trx, "quotes", id);
   const quote = await loadQuote(trx, id);
   if (!quote) throw new NotFoundError("quote");
   if (baseVersion !== undefined && quote.version !== baseVersion) {

@@ -1,5 +1,6 @@
 import type { Kysely, Transaction } from "kysely";
 import { createAuditEntry } from "./audit";
+import { forUpdate, lockJob } from "./dialect";
 import { ConflictError, NotFoundError, StaleWriteError } from "./errors";
 import type { Database, PartKind, RotatingPart, WeighPhase } from "./schema";
 
@@ -94,10 +95,12 @@ async function writePartWeight(
   actorId: number | null,
   now: Date,
 ): Promise<PartWeight | null> {
+  // Locked on PostgreSQL: saves of this job's parts wait their turn (db/dialect.ts, lockJob).
   const job = await trx
     .selectFrom("jobs")
     .select("id")
     .where("id", "=", write.jobId)
+    .$call(forUpdate(trx))
     .executeTakeFirst();
   if (!job) throw new NotFoundError("job");
   const key = {
@@ -190,6 +193,7 @@ export async function savePartTarget(
   actorId: number | null,
 ): Promise<PartTarget> {
   return db.transaction().execute(async (trx) => {
+    await lockJob(trx, write.jobId);
     const before = await trx
       .selectFrom("part_targets")
       .selectAll()
@@ -251,6 +255,7 @@ export async function saveRotatingRecord(
   now = new Date(),
 ): Promise<RotatingRecord> {
   return db.transaction().execute(async (trx) => {
+    await lockJob(trx, write.jobId);
     const before = await trx
       .selectFrom("rotating_records")
       .selectAll()
@@ -319,6 +324,7 @@ export async function reassignPistonAssemblies(
   // Park the moved rows out of the way (cylinder + 16; the column allows up to 32), then land them.
   const PARK = 16;
   await db.transaction().execute(async (trx) => {
+    await lockJob(trx, jobId);
     for (const m of changed) {
       await trx
         .updateTable("part_weights")

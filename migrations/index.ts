@@ -4,10 +4,12 @@ import * as m0002 from "./20261201_0002_create_workshop_tables";
 import * as m0003 from "./20261201_0003_create_billing_tables";
 import * as m0004 from "./20261201_0004_create_uploads_and_mail_tables";
 import * as m0005 from "./20261201_0005_create_card_tables";
+import * as m0105 from "./20261202_0105_add_oil_allowance_per_rod";
 import * as m0110 from "./20261202_0110_add_job_entered_lengths";
 import * as m0120 from "./20261202_0120_add_confirmed_outlier_to_part_weights";
 import * as m0121 from "./20261202_0121_add_outlier_percent_to_shop_settings";
 import * as m0122 from "./20261202_0122_add_job_fingerprint_to_balance_cards";
+import * as m0150 from "./20261202_0150_seed_job_number_sequences";
 
 // A static map of the same files, for tests and for code running inside Next (which cannot read
 // the folder at run time). `scripts/migrate.ts` reads the folder itself. Add each new file here.
@@ -17,8 +19,10 @@ export const migrations: Record<string, Migration> = {
   "20261201_0003_create_billing_tables": m0003,
   "20261201_0004_create_uploads_and_mail_tables": m0004,
   "20261201_0005_create_card_tables": m0005,
+  "20261202_0105_add_oil_allowance_per_rod": m0105,
   "20261202_0110_add_job_entered_lengths": m0110,
   "20261202_0120_add_confirmed_outlier_to_part_weights": m0120,
   "20261202_0121_add_outlier_percent_to_shop_settings": m0121,
   "20261202_0122_add_job_fingerprint_to_balance_cards": m0122,
+  "20261202_0150_seed_job_number_sequences": m0150,
 };
