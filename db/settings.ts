@@ -18,6 +18,11 @@ export interface ShopSettings {
   invoiceFooter: string | null;
   /** Largest accepted upload, in MB. */
   maxUploadMb: string;
+  /**
+   * The oil allowance per rod new jobs start with, in grams (a job in ounces gets it converted).
+   * Jobs already booked keep their own figure.
+   */
+  oilAllowancePerRodG: string;
   version: number;
   updatedAt: string | null;
 }
@@ -32,6 +37,9 @@ export const DEFAULT_SETTINGS: ShopSettings = {
   currency: "USD",
   invoiceFooter: null,
   maxUploadMb: "10",
+  // 2 g per rod: the low end of the 2–5 g per rod of common practice (DOMAIN §3), and the same as
+  // the 4 g per two-rod crankpin some shops use. The owner changes it on the settings screen.
+  oilAllowancePerRodG: "2",
   version: 0,
   updatedAt: null,
 };
@@ -46,6 +54,7 @@ function toSettings(row: ShopSettingsRow): ShopSettings {
     currency: row.currency,
     invoiceFooter: row.invoice_footer,
     maxUploadMb: row.max_upload_mb,
+    oilAllowancePerRodG: row.oil_allowance_per_rod_g,
     version: row.version,
     updatedAt: row.updated_at,
   };
@@ -61,7 +70,9 @@ export async function findShopSettings(db: Kysely<Database>): Promise<ShopSettin
   return row ? toSettings(row) : DEFAULT_SETTINGS;
 }
 
-export type ShopSettingsInput = Omit<ShopSettings, "version" | "updatedAt">;
+/** The settings to save; a field left out keeps its saved value (for callers that predate it). */
+export type ShopSettingsInput = Omit<ShopSettings, "version" | "updatedAt" | "oilAllowancePerRodG"> &
+  Partial<Pick<ShopSettings, "oilAllowancePerRodG">>;
 
 /**
  * Replaces the settings if the stored version is the one the caller read (0 before the first
@@ -86,15 +97,20 @@ export async function updateShopSettings(
       currency: input.currency,
       invoice_footer: input.invoiceFooter,
       max_upload_mb: input.maxUploadMb,
+      oil_allowance_per_rod_g: input.oilAllowancePerRodG ?? before.oilAllowancePerRodG,
       version: before.version + 1,
       updated_at: now.toISOString(),
     };
     const row = await trx
       .insertInto("shop_settings")
       .values({ id: 1, ...columns })
-      .onConflict((oc) => oc.column("id").doUpdateSet(columns))
+      // Only over the version read: on PostgreSQL another save may land in between.
+      .onConflict((oc) =>
+        oc.column("id").doUpdateSet(columns).where("shop_settings.version", "=", before.version),
+      )
       .returningAll()
-      .executeTakeFirstOrThrow();
+      .executeTakeFirst();
+    if (!row) throw new StaleWriteError("settings", (await findShopSettings(trx)).version);
     const after = toSettings(row);
     await createAuditEntry(trx, {
       userId: actorId,
