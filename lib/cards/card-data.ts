@@ -275,13 +275,15 @@ function rotatingRecord(workshop: Workshop, part: RotatingPart): CardRotatingRec
   }
   const data = record.data as RotatingRecordInput;
   const { permissible, before, after, missing } = record.check;
-  const planes: CardPlane[] = (permissible?.planes ?? []).map((p) => {
+  // The allowance per plane the readings were checked against: the whole U_per for one plane.
+  const single = record.check.planes === "one";
+  const planes: CardPlane[] = record.check.allowances.map((p) => {
     const b = before?.planes.find((x) => x.plane === p.plane);
     const a = after?.planes.find((x) => x.plane === p.plane);
     const reading = (side: RotatingRecordInput["before"]) =>
       side?.[p.plane as "A" | "B"]?.mass ?? "0";
     return {
-      plane: p.plane,
+      plane: single ? "single" : p.plane,
       allowed: p.uPer,
       allowedMass: p.massAtRadius ?? null,
       before: b ? { residual: b.residual, mass: reading(data.before) } : null,

@@ -215,28 +215,56 @@ export const rotatingPartField = z.enum(ROTATING_PARTS);
 const blankToNull = (v: unknown) => (v === "" || v === undefined ? null : v);
 const optionalPositive = z.preprocess(blankToNull, positiveDecimal.nullable()).optional();
 
+/** An angle on the balancer's dial, degrees; 360 is the same mark as 0. */
+const dialAngle = z.preprocess(
+  blankToNull,
+  decimalString.refine((v) => Number(v) <= 360, "An angle from 0 to 360°.").nullable(),
+);
+
+/** A balancer reading in one plane: grams at the balancer radius, and where the heavy spot is. */
 const planeReading = z.preprocess(
-  (v) =>
-    v && typeof v === "object" && "mass" in v && (v as { mass: unknown }).mass === "" ? null : v,
+  (v) => {
+    // Both boxes left empty: the plane was not read. An angle alone still needs its grams.
+    if (!v || typeof v !== "object") return v;
+    const { mass, angle } = v as { mass?: unknown; angle?: unknown };
+    return (mass === "" || mass === undefined || mass === null) &&
+      (angle === "" || angle === undefined || angle === null)
+      ? null
+      : v;
+  },
   z
     .object({
-      mass: decimalString,
-      angle: z
-        .preprocess(
-          blankToNull,
-          decimalString.refine((v) => Number(v) < 360, "Angle from 0 to 359.9°.").nullable(),
-        )
-        .optional(),
+      mass: z
+        .string({ message: "Enter the grams the balancer reads, like 0.4." })
+        .trim()
+        .min(1, "Enter the grams the balancer reads, like 0.4.")
+        .pipe(decimalString),
+      angle: dialAngle.optional(),
     })
     .nullable(),
 );
 
+/** Correction methods on a crank, flywheel, clutch cover or damper. */
+export const CORRECTION_METHODS = ["drilled", "heavy-metal", "added", "other"] as const;
+
 const correction = z.object({
-  plane: z.enum(["A", "B"]),
-  method: z.enum(["drilled", "heavy-metal", "added", "other"]),
-  where: z.string().trim().max(120),
-  mass: decimalString,
+  plane: z.enum(["A", "B"], { message: "Choose plane A or B." }),
+  method: z.enum(CORRECTION_METHODS, { message: "Choose how the correction was made." }),
+  where: z.string().trim().max(120, "At most 120 characters."),
+  mass: z
+    .string({ message: "Enter the grams of this correction, like 4.2." })
+    .trim()
+    .min(1, "Enter the grams of this correction, like 4.2.")
+    .pipe(positiveDecimal),
+  angle: dialAngle.optional(),
 });
+
+/**
+ * How many correction planes the part is balanced in: a crankshaft in two; a flexplate,
+ * flywheel, clutch cover or damper usually in one (the whole allowance in that plane).
+ */
+export const CORRECTION_PLANES = ["one", "two"] as const;
+export type CorrectionPlanes = (typeof CORRECTION_PLANES)[number];
 
 /** The record of one rotating part on the balancer: readings before and after, and corrections. */
 export const rotatingRecordSchema = z
@@ -245,6 +273,7 @@ export const rotatingRecordSchema = z
     rpm: z.preprocess(blankToNull, z.number().int().min(100).max(30_000).nullable()).optional(),
     grade: z.string().max(10).nullable().optional(),
     radiusMm: optionalPositive,
+    planes: z.enum(CORRECTION_PLANES, { message: "One plane or two." }).optional(),
     planeDistanceAMm: optionalPositive,
     planeDistanceBMm: optionalPositive,
     before: z.object({ A: planeReading, B: planeReading }).partial().optional(),
