@@ -8,7 +8,7 @@ import { type Resolver, useForm } from "react-hook-form";
 import { z } from "zod";
 import type { Customer } from "@/db/customers";
 import { BROUGHT_ITEMS, type Job } from "@/db/jobs";
-import { convertLength, LAYOUT_PRESETS } from "@/lib/balance";
+import { LAYOUT_PRESETS } from "@/lib/balance";
 import { ApiError, apiFetch } from "@/lib/api-client";
 import { customerSchema } from "@/lib/validation/customers";
 import { bookingSchema } from "@/lib/validation/workshop";
@@ -40,12 +40,6 @@ const formSchema = z.object({
 });
 type Values = z.input<typeof formSchema>;
 type Parsed = z.output<typeof formSchema>;
-
-function toMm(value: string | undefined, unit: "mm" | "in"): string | null {
-  const v = value?.trim();
-  if (!v) return null;
-  return unit === "mm" ? v : convertLength(v, "in", "mm");
-}
 
 /** Booking a job in at the counter: who, what engine, what came in, what is asked, when promised. */
 export function BookingForm() {
@@ -112,9 +106,11 @@ export function BookingForm() {
           ...(v.layout === "custom"
             ? { rodsPerPin: v.rodsPerPin ?? 1, bobweightNeeded: v.bobweightNeeded ?? true }
             : {}),
-          boreMm: toMm(v.bore, v.lengthUnit),
-          strokeMm: toMm(v.stroke, v.lengthUnit),
-          rodLengthMm: toMm(v.rodLength, v.lengthUnit),
+          // Kept as typed in the unit chosen; the server works out the mm for the engine.
+          lengthUnit: v.lengthUnit,
+          bore: v.bore?.trim() || null,
+          stroke: v.stroke?.trim() || null,
+          rodLength: v.rodLength?.trim() || null,
           maxRpm: v.maxRpm?.trim() ? Number(v.maxRpm) : null,
           condition: v.condition?.trim() || null,
           promisedDate: v.promisedDate || null,
@@ -294,15 +290,7 @@ export function BookingForm() {
           <label key={k} className="text-sm">
             <span className="mb-1 block font-semibold">{label}</span>
             <input className="field-input" inputMode="decimal" {...form.register(k)} />
-            {fieldError(
-              k === "bore"
-                ? "boreMm"
-                : k === "stroke"
-                  ? "strokeMm"
-                  : k === "rodLength"
-                    ? "rodLengthMm"
-                    : "maxRpm",
-            )}
+            {fieldError(k)}
           </label>
         ))}
       </section>

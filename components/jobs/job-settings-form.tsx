@@ -11,6 +11,8 @@ import { JOB_STATUSES } from "@/db/schema";
 import { LAYOUT_PRESETS, MATERIAL_DENSITIES } from "@/lib/balance";
 import { ApiError, apiFetch } from "@/lib/api-client";
 import { jobSpecSchema } from "@/lib/validation/workshop";
+import { lengthAsEntered, showDrillSize } from "@/lib/jobs/lengths";
+import { needsBobweight } from "@/lib/jobs/needs-bobweight";
 import { parseDrillMaterials } from "@/lib/workshop/plan";
 import { STATUS_LABEL } from "./status";
 
@@ -25,7 +27,11 @@ const settingsSchema = jobSpecSchema
     tolerance: true,
     balanceFactor: true,
     oilAllowance: true,
-    drillDiameterMm: true,
+    lengthUnit: true,
+    bore: true,
+    stroke: true,
+    rodLength: true,
+    drillSize: true,
     balanceType: true,
     maxRpm: true,
     promisedDate: true,
@@ -33,90 +39,114 @@ const settingsSchema = jobSpecSchema
   .extend({ rodMaterial: z.string(), pistonMaterial: z.string() });
 type Values = z.input<typeof settingsSchema>;
 type Parsed = z.output<typeof settingsSchema>;
+type FieldName = keyof Values;
 
-const blank = (v: string | null | undefined) => (v === "" || v === undefined ? null : v);
+const UNIT_WORD = { g: "g", oz: "oz" } as const;
+
+/** The form's boxes for a job as stored: lengths as typed, blanks for settings not given. */
+function formValues(job: Job): Values {
+  const s = job.spec;
+  const materials = parseDrillMaterials(s.material);
+  return {
+    layout: s.layout ?? "custom",
+    cylinders: s.cylinders === null ? "" : String(s.cylinders),
+    massUnit: s.massUnit,
+    scaleResolution: s.scaleResolution,
+    scaleName: s.scaleName ?? "",
+    balancerName: s.balancerName ?? "",
+    tolerance: s.tolerance,
+    balanceFactor: s.balanceFactor ?? "",
+    oilAllowance: s.oilAllowance,
+    lengthUnit: s.lengthUnit,
+    bore: lengthAsEntered(s, "bore") ?? "",
+    stroke: lengthAsEntered(s, "stroke") ?? "",
+    rodLength: lengthAsEntered(s, "rodLength") ?? "",
+    drillSize: showDrillSize(s) ?? "",
+    balanceType: s.balanceType ?? "",
+    maxRpm: s.maxRpm === null ? "" : String(s.maxRpm),
+    promisedDate: s.promisedDate ?? "",
+    rodMaterial: materials.rod,
+    pistonMaterial: materials.piston,
+  };
+}
 
 /** The machinist's settings for this job; the counter may change only the promised date and the state. */
-export function JobSettingsForm({ job, role }: { job: Job; role: string }) {
+export function JobSettingsForm({ job: initial, role }: { job: Job; role: string }) {
   const router = useRouter();
-  const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
+  const [job, setJob] = useState(initial);
+  const [message, setMessage] = useState<{ ok: boolean; lines: string[] } | null>(null);
   const machinist = role === "machinist" || role === "owner";
-  const materials = parseDrillMaterials(job.spec.material);
   const form = useForm<Values, unknown, Parsed>({
     resolver: zodResolver(settingsSchema) as unknown as Resolver<Values, unknown, Parsed>,
-    defaultValues: {
-      layout: job.spec.layout ?? "custom",
-      cylinders: job.spec.cylinders ?? 1,
-      massUnit: job.spec.massUnit,
-      scaleResolution: job.spec.scaleResolution,
-      scaleName: job.spec.scaleName ?? "",
-      balancerName: job.spec.balancerName ?? "",
-      tolerance: job.spec.tolerance,
-      balanceFactor: job.spec.balanceFactor ?? "",
-      oilAllowance: job.spec.oilAllowance,
-      drillDiameterMm: job.spec.drillDiameterMm ?? "",
-      balanceType: job.spec.balanceType,
-      maxRpm: job.spec.maxRpm,
-      promisedDate: job.spec.promisedDate ?? "",
-      rodMaterial: materials.rod,
-      pistonMaterial: materials.piston,
-    },
+    defaultValues: formValues(initial),
   });
   const save = useMutation({
     mutationFn: (body: unknown) =>
-      apiFetch<{ job: Job }>(`/api/jobs/${job.id}`, { method: "PATCH", body }),
-    onSuccess: () => {
-      setMessage({ ok: true, text: "Saved." });
+      apiFetch<{ job: Job; notices?: string[] }>(`/api/jobs/${job.id}`, { method: "PATCH", body }),
+    onSuccess: (answer) => {
+      setJob(answer.job);
+      form.reset(formValues(answer.job));
+      setMessage({ ok: true, lines: ["Saved.", ...(answer.notices ?? [])] });
       router.refresh();
     },
-    onError: (e) =>
+    onError: (e) => {
+      if (e instanceof ApiError) {
+        for (const [key, text] of Object.entries(e.fields)) {
+          const name = key.replace(/^spec\./, "") as FieldName;
+          if (name in form.getValues()) form.setError(name, { message: text });
+        }
+      }
       setMessage({
         ok: false,
-        text:
+        lines: [
           e instanceof ApiError && e.status === 409
             ? "Someone changed this job meanwhile. Reload the page to see their changes, then save again."
             : e instanceof ApiError
-              ? (Object.values(e.fields)[0] ?? e.message)
+              ? `Not saved: ${Object.values(e.fields)[0] ?? e.message}`
               : "Not saved: the server could not be reached.",
-      }),
+        ],
+      });
+    },
   });
 
   function submit(v: Parsed) {
     const { rodMaterial, pistonMaterial, ...spec } = v;
-    const cleaned = {
-      ...spec,
-      balanceFactor: blank(spec.balanceFactor),
-      drillDiameterMm: blank(spec.drillDiameterMm),
-      scaleName: blank(spec.scaleName),
-      balancerName: blank(spec.balancerName),
-      promisedDate: blank(spec.promisedDate),
-      material: JSON.stringify({ rod: rodMaterial, piston: pistonMaterial }),
-    };
+    const all = { ...spec, material: JSON.stringify({ rod: rodMaterial, piston: pistonMaterial }) };
+    setMessage(null);
     save.mutate({
       version: job.version,
-      spec: machinist ? cleaned : { promisedDate: cleaned.promisedDate },
+      spec: machinist ? all : { promisedDate: spec.promisedDate ?? null },
     });
   }
 
   const errors = form.formState.errors;
+  const unit = UNIT_WORD[form.watch("massUnit") ?? job.spec.massUnit];
+  const lengthUnit = form.watch("lengthUnit") ?? job.spec.lengthUnit;
+  const layout = form.watch("layout");
+  const noBobweight = !needsBobweight({ layout, bobweightNeeded: job.spec.bobweightNeeded });
   const box = "field-input py-1.5";
-  const field = (name: keyof Values, label: string, props: Record<string, unknown> = {}) => (
+  const field = (name: FieldName, label: string, props: Record<string, unknown> = {}) => (
     <label className="text-sm">
       <span className="mb-1 block font-semibold">{label}</span>
       <input
         className={box}
         disabled={!machinist && name !== "promisedDate"}
+        aria-invalid={errors[name] ? true : undefined}
         {...props}
         {...form.register(name)}
       />
       {errors[name]?.message ? (
-        <span className="text-xs text-replace">{String(errors[name]?.message)}</span>
+        <span className="text-xs text-replace" data-testid={`error-${name}`}>
+          {String(errors[name]?.message)}
+        </span>
       ) : null}
     </label>
   );
+  const invalid = (): void =>
+    setMessage({ ok: false, lines: ["Not saved: check the boxes marked in red."] });
   return (
     <form
-      onSubmit={form.handleSubmit(submit)}
+      onSubmit={form.handleSubmit(submit, invalid)}
       className="panel grid gap-3 p-4 sm:grid-cols-2 lg:grid-cols-4"
       noValidate
     >
@@ -124,7 +154,9 @@ export function JobSettingsForm({ job, role }: { job: Job; role: string }) {
       <label className="text-sm">
         <span className="mb-1 block font-semibold">Layout</span>
         <select className={box} disabled={!machinist} {...form.register("layout")}>
-          {LAYOUT_PRESETS.map((p) => (
+          {LAYOUT_PRESETS.filter(
+            (p) => !("replacedBy" in p && p.replacedBy) || p.id === job.spec.layout,
+          ).map((p) => (
             <option key={p.id} value={p.id}>
               {p.label}
             </option>
@@ -139,12 +171,37 @@ export function JobSettingsForm({ job, role }: { job: Job; role: string }) {
           <option value="oz">ounces</option>
         </select>
       </label>
-      {field("scaleResolution", "Scale resolution", { inputMode: "decimal" })}
-      {field("tolerance", "Tolerance (finished spread)", { inputMode: "decimal" })}
-      {field("balanceFactor", "Balance factor % (blank: layout default)", { inputMode: "decimal" })}
-      {field("oilAllowance", "Oil allowance per crankpin", { inputMode: "decimal" })}
+      {field("scaleResolution", `Scale resolution (${unit})`, { inputMode: "decimal" })}
+      {field("tolerance", `Tolerance (${unit}): all parts within this of each other`, {
+        inputMode: "decimal",
+      })}
+      {noBobweight ? (
+        <div className="text-sm">
+          <span className="mb-1 block font-semibold">Balance factor</span>
+          <p className="py-1.5 text-graphite-600" data-testid="no-bobweight">
+            No bobweight needed: this layout is balanced without bobweights.
+          </p>
+        </div>
+      ) : (
+        field("balanceFactor", "Balance factor % (blank: layout default)", {
+          inputMode: "decimal",
+        })
+      )}
+      {field("oilAllowance", `Oil allowance per crankpin (${unit})`, { inputMode: "decimal" })}
       {field("maxRpm", "Max service speed (rpm)", { inputMode: "numeric" })}
-      {field("drillDiameterMm", "Drill diameter (mm)", { inputMode: "decimal" })}
+      <label className="text-sm">
+        <span className="mb-1 block font-semibold">Lengths in</span>
+        <select className={box} disabled={!machinist} {...form.register("lengthUnit")}>
+          <option value="mm">millimetres</option>
+          <option value="in">inches</option>
+        </select>
+      </label>
+      {field("bore", `Bore (${lengthUnit}; blank: not known)`, { inputMode: "decimal" })}
+      {field("stroke", `Stroke (${lengthUnit}; blank: not known)`, { inputMode: "decimal" })}
+      {field("rodLength", `Rod length (${lengthUnit}; blank: not known)`, {
+        inputMode: "decimal",
+      })}
+      {field("drillSize", "Drill for crank work (8.5 mm, 3/8, #21, F; blank: none)")}
       <label className="text-sm">
         <span className="mb-1 block font-semibold">Rods are</span>
         <select className={box} disabled={!machinist} {...form.register("rodMaterial")}>
@@ -167,11 +224,7 @@ export function JobSettingsForm({ job, role }: { job: Job; role: string }) {
       </label>
       <label className="text-sm">
         <span className="mb-1 block font-semibold">Balance</span>
-        <select
-          className={box}
-          disabled={!machinist}
-          {...form.register("balanceType", { setValueAs: (v) => (v === "" ? null : v) })}
-        >
+        <select className={box} disabled={!machinist} {...form.register("balanceType")}>
           <option value="">not noted</option>
           <option value="internal">internal</option>
           <option value="external">external</option>
@@ -179,17 +232,20 @@ export function JobSettingsForm({ job, role }: { job: Job; role: string }) {
       </label>
       {field("scaleName", "Scale used")}
       {field("balancerName", "Balancer used")}
-      {field("promisedDate", "Promised for", { type: "date" })}
-      <div className="flex items-center gap-3 sm:col-span-2 lg:col-span-4">
+      {field("promisedDate", "Promised for (blank: no date)", { type: "date" })}
+      <div className="flex items-start gap-3 sm:col-span-2 lg:col-span-4">
         <button type="submit" className="btn-primary" disabled={save.isPending}>
           Save settings
         </button>
-        <span
+        <div
           aria-live="polite"
+          data-testid="settings-message"
           className={`text-sm ${message?.ok ? "text-within" : "text-replace"}`}
         >
-          {message?.text}
-        </span>
+          {message?.lines.map((line) => (
+            <p key={line}>{line}</p>
+          ))}
+        </div>
       </div>
     </form>
   );

@@ -1,9 +1,11 @@
 import type { Kysely } from "kysely";
 import { createJob, DEFAULT_SPEC, type Job, type JobSpec, updateJob } from "@/db/jobs";
 import type { Database, JobStatus } from "@/db/schema";
+import { findShopSettings } from "@/db/settings";
 import { listPartTargets, listPartWeights } from "@/db/weights";
 import { convertLength, convertMassSetting, findLayoutPreset, parseDrillSize } from "@/lib/balance";
 import { HttpError } from "@/lib/http/errors";
+import { needsBobweight } from "./needs-bobweight";
 import { COUNTER_SPEC_FIELDS } from "@/lib/validation/jobs";
 import { type JobSpecInput, specMismatch } from "@/lib/validation/workshop";
 
@@ -40,15 +42,9 @@ const LENGTHS = [
 const MASS_SETTINGS = [
   { key: "scaleResolution", label: "scale resolution", as: "resolution" },
   { key: "tolerance", label: "tolerance", as: "amount" },
-  { key: "oilAllowance", label: "oil allowance", as: "amount" },
+  { key: "oilAllowance", label: "oil allowance per crankpin", as: "amount" },
+  { key: "oilAllowancePerRod", label: "oil allowance per rod", as: "amount" },
 ] as const;
-
-/** Whether the job's layout is spun with bobweights (a custom layout says so itself). */
-export function needsBobweight(spec: Pick<JobSpec, "layout" | "bobweightNeeded">): boolean {
-  const preset = spec.layout ? findLayoutPreset(spec.layout) : undefined;
-  if (!preset) return true;
-  return preset.custom ? spec.bobweightNeeded !== false : preset.bobweightNeeded;
-}
 
 /**
  * Turns the settings as typed into the columns to store, against the job as it is:
@@ -110,9 +106,14 @@ export function resolveSpecChanges(
     for (const m of MASS_SETTINGS) {
       const sent = input[m.key];
       if (sent !== undefined && sent !== current[m.key]) continue;
-      const next = convertMassSetting(current[m.key], from, to, m.as);
+      const value = current[m.key];
+      // Nothing to convert where unset, nor the per-crankpin oil while the per-rod one is used.
+      if (value === null || (m.key === "oilAllowance" && current.oilAllowancePerRod !== null)) {
+        continue;
+      }
+      const next = convertMassSetting(value, from, to, m.as);
       spec[m.key] = next;
-      converted.push(`${m.label} ${current[m.key]} ${from} is now ${next} ${to}`);
+      converted.push(`${m.label} ${value} ${from} is now ${next} ${to}`);
     }
     notices.push(
       `Weights now in ${MASS_UNIT_WORDS[to]}: ${converted.length ? converted.join(", ") : "the mass settings were typed in the new unit"}. Check the resolution against the scale.`,
@@ -212,7 +213,13 @@ export async function bookJob(
     const [field, message] = Object.entries(mismatch)[0]!;
     throw new JobSettingError(field, "invalid_input", message);
   }
-  const { spec, notices } = resolveSpecChanges(DEFAULT_SPEC, input.spec);
-  const job = await createJob(db, { ...input, spec }, actorId);
+  // A new job starts with the shop's oil allowance per rod (grams, converted for a job in
+  // ounces) unless the booking gives one, or gives the older per-crankpin figure instead.
+  const byPin =
+    input.spec.oilAllowance !== undefined && input.spec.oilAllowancePerRod === undefined;
+  const oilAllowancePerRod = byPin ? null : (await findShopSettings(db)).oilAllowancePerRodG;
+  const base: JobSpec = { ...DEFAULT_SPEC, oilAllowancePerRod };
+  const { spec, notices } = resolveSpecChanges(base, input.spec);
+  const job = await createJob(db, { ...input, spec: { oilAllowancePerRod, ...spec } }, actorId);
   return { job, notices };
 }

@@ -6,6 +6,7 @@ import { JobCards } from "@/components/cards/job-cards";
 import { listJobChanges } from "@/db/audit";
 import { getDb } from "@/db/client";
 import { findLayoutPreset } from "@/lib/balance";
+import { showLength } from "@/lib/jobs/lengths";
 import { loadPageJob } from "@/lib/jobs/page-job";
 
 export default async function JobOverviewPage({ params }: { params: Promise<{ id: string }> }) {
@@ -28,10 +29,10 @@ export default async function JobOverviewPage({ params }: { params: Promise<{ id
             <dd>{s.cylinders ?? "—"}</dd>
             <dt className="text-graphite-500">Bore × stroke</dt>
             <dd className="font-mono">
-              {s.boreMm ?? "—"} × {s.strokeMm ?? "—"} mm
+              {showLength(s, "bore") ?? "—"} × {showLength(s, "stroke") ?? "—"}
             </dd>
             <dt className="text-graphite-500">Rod length</dt>
-            <dd className="font-mono">{s.rodLengthMm ? `${s.rodLengthMm} mm` : "—"}</dd>
+            <dd className="font-mono">{showLength(s, "rodLength") ?? "—"}</dd>
             <dt className="text-graphite-500">Max rpm</dt>
             <dd className="font-mono">{s.maxRpm ?? "—"}</dd>
             <dt className="text-graphite-500">Promised</dt>
@@ -67,7 +68,7 @@ export default async function JobOverviewPage({ params }: { params: Promise<{ id
         the balancing machine&apos;s instructions and local codes and licensed practice; wear eye
         protection when machining.
       </p>
-      <JobChanges changes={changes} />
+      <JobChanges changes={changes} unit={job.spec.massUnit} />
     </div>
   );
 }
