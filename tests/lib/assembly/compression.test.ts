@@ -1,4 +1,4 @@
-import { all, create } from "mathjs";
+import { all, create, type FactoryFunctionMap } from "mathjs";
 import { describe, expect, it } from "vitest";
 import {
   compressionRatio,
@@ -9,7 +9,7 @@ import {
 
 // Reference library: mathjs with BigNumber arithmetic and its unit conversions
 // (1 in = 25.4 mm exactly, NIST SP 811 appendix B).
-const math = create(all, { number: "BigNumber", precision: 64 });
+const math = create(all as FactoryFunctionMap, { number: "BigNumber", precision: 64 });
 const close = (actual: string, expected: string, digits = 20) =>
   expect(
     math.abs(math.subtract(math.bignumber(actual), math.bignumber(expected))).toNumber(),

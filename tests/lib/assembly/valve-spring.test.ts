@@ -1,10 +1,9 @@
-import { all, create } from "mathjs";
+import { unit } from "mathjs";
 import { describe, expect, it } from "vitest";
 import { valveSpring } from "@/lib/assembly";
 
 // Reference library for the unit check: mathjs units (lbf, inch; 1 lbf = 4.4482216152605 N and
 // 1 in = 25.4 mm exactly, NIST SP 811 appendix B).
-const math = create(all);
 
 // Hooke's law for a linear spring: F = k x (DOMAIN §7).
 describe("valveSpring", () => {
@@ -77,14 +76,14 @@ describe("valveSpring", () => {
   });
 
   it("gives the same loads in N from N/mm and mm (mathjs units)", () => {
-    const lbf = math.unit("1 lbf").toNumber("N");
+    const lbf = unit("1 lbf").toNumber("N");
     const metric = valveSpring({
       installedLoad: String(100 * lbf),
       rate: String((300 * lbf) / 25.4),
       installedHeight: "45.72", // 1.800 × 25.4
       lift: "12.7", // 0.500 × 25.4
     });
-    expect(Number(metric.openLoad)).toBeCloseTo(math.unit("250 lbf").toNumber("N"), 6);
+    expect(Number(metric.openLoad)).toBeCloseTo(unit("250 lbf").toNumber("N"), 6);
   });
 
   describe("refusals name the field", () => {
