@@ -6,6 +6,7 @@ import { DEFAULT_TOLERANCE_G } from "./match-set";
 import {
   parseChoice,
   parseInteger,
+  parseOptionalQuantity,
   parseQuantity,
   parseWeight,
   requireAtMost,
@@ -40,6 +41,25 @@ export const RECIPROCATING_KINDS: readonly MatchedKind[] = [
   "rings",
   "smallEnd",
 ];
+
+/**
+ * Kinds the trade lightens by machining (common practice): pistons are milled at the pin
+ * bosses or under the crown, rods are ground on the small-end and big-end pads. Ring sets are
+ * matched by choice or replaced, pin retainers are chosen from spares, and wrist pins are
+ * matched by selection (lightening one by grinding its bore is specialist work the plan does
+ * not offer): a part of those kinds over the band is `reselect`, never `remove`.
+ */
+export const MACHINED_KINDS: readonly MatchedKind[] = ["piston", "smallEnd", "bigEnd"];
+
+/**
+ * How the set is matched:
+ * - `by-part`: each kind of part to its own target (the lightest piston, the lightest small
+ *   end, …), every kind on its own.
+ * - `by-cylinder`: each cylinder's reciprocating assembly (piston + wrist pin + retainers +
+ *   ring set + small end) to the lightest assembly; big ends still matched end to end.
+ */
+export type MatchingMode = "by-part" | "by-cylinder";
+export const MATCHING_MODES: readonly MatchingMode[] = ["by-part", "by-cylinder"];
 
 /** Default scale resolution in grams, a usual shop scale (common practice). */
 export const DEFAULT_RESOLUTION_G = "0.1";
@@ -114,8 +134,18 @@ export interface BalanceInput {
    * once for every rod on its crankpin, so a two-rod pin takes twice the figure.
    */
   oilAllowancePerRod?: string;
-  /** Target per kind; otherwise the lightest part of the kind. */
+  /**
+   * Target per kind; otherwise the lightest part of the kind. When matching `by-cylinder` only
+   * the big-end target is used (the others are ignored with a `target-unused` warning).
+   */
   targets?: Partial<Record<MatchedKind, string>>;
+  /** How the set is matched; default "by-part" (see {@link MatchingMode}). */
+  matching?: MatchingMode;
+  /**
+   * `by-cylinder` only: the reciprocating mass every assembly is brought to; default the
+   * lightest assembly. Ignored with a `target-unused` warning when matching `by-part`.
+   */
+  assemblyTarget?: string;
   cylinders: readonly CylinderInput[];
 }
 
@@ -123,6 +153,10 @@ export type BalanceWarningCode =
   | "reading-spread"
   | "rod-total-mismatch"
   | "part-light"
+  | "part-reselect"
+  | "assembly-light"
+  | "assembly-reselect"
+  | "target-unused"
   | "target-above-set"
   | "tolerance-below-resolution"
   | "assumed-balance-factor"
@@ -342,6 +376,9 @@ export interface ParsedJob {
   /** Kinds weighed for every cylinder. */
   weighed: ReadonlySet<PartKind>;
   targets: Partial<Record<MatchedKind, Dec>>;
+  matching: MatchingMode;
+  /** `by-cylinder` only; undefined: the lightest assembly. */
+  assemblyTarget: Dec | undefined;
   /** Warnings about the settings themselves. */
   warnings: BalanceWarning[];
 }
@@ -367,6 +404,29 @@ export function parseBalanceJob(input: BalanceInput): ParsedJob {
   const first = cylinders[0] as ParsedCylinder;
   const weighed = new Set(PART_KINDS.filter((kind) => first.weights[kind] !== undefined));
   const targets = parseTargets(root.targets, weighed);
+  const matching =
+    root.matching === undefined
+      ? "by-part"
+      : parseChoice(root.matching, "matching", MATCHING_MODES);
+  let assemblyTarget = parseOptionalQuantity(root.assemblyTarget, "assemblyTarget");
+  if (matching === "by-cylinder") {
+    const unused = (Object.keys(targets) as MatchedKind[]).filter((kind) => kind !== "bigEnd");
+    for (const kind of unused) {
+      delete targets[kind];
+      warnings.push({
+        code: "target-unused",
+        message: `The ${LABEL[kind]} target is not used: the set is matched by whole reciprocating assemblies, so only the big ends keep a target of their own.`,
+        kind,
+      });
+    }
+  } else if (assemblyTarget !== undefined) {
+    assemblyTarget = undefined;
+    warnings.push({
+      code: "target-unused",
+      message:
+        "The reciprocating assembly target is not used: the set is matched part by part, each kind to its own target.",
+    });
+  }
   if (tolerance.lt(resolution)) {
     warnings.push({
       code: "tolerance-below-resolution",
@@ -384,6 +444,8 @@ export function parseBalanceJob(input: BalanceInput): ParsedJob {
     cylinders,
     weighed,
     targets,
+    matching,
+    assemblyTarget,
     warnings,
   };
 }

@@ -61,6 +61,8 @@ export {
 } from "./build-to";
 export {
   computeBalance,
+  MACHINED_KINDS,
+  MATCHING_MODES,
   MATCHED_KINDS,
   RECIPROCATING_KINDS,
   DEFAULT_RESOLUTION_G,
@@ -78,6 +80,8 @@ export {
   type MatchedKind,
   type PartKind,
   type PartResult,
+  type AssemblyResult,
+  type MatchingMode,
   type WeightInput,
 } from "./compute-balance";
 export {

@@ -7,9 +7,11 @@ export const DEFAULT_TOLERANCE_G = "0.5";
 
 /**
  * What to do with a part: `ok` leave it, `remove` machine it to the target, `light` it is
- * under a set target and needs a heavier replacement or added weight.
+ * under a set target and needs a heavier replacement or added weight, `reselect` it is over
+ * the band but is a kind the trade does not machine (ring sets, wrist pins, pin retainers):
+ * choose a lighter one from spares or replace it.
  */
-export type PartStatus = "ok" | "remove" | "light";
+export type PartStatus = "ok" | "remove" | "light" | "reselect";
 
 export interface MatchSetInput {
   /** Weights of the parts of one kind, one per part, in one mass unit. */
@@ -18,6 +20,11 @@ export interface MatchSetInput {
   target?: string;
   /** Allowed spread of the finished set, same unit; default {@link DEFAULT_TOLERANCE_G}. */
   tolerance?: string;
+  /**
+   * False for a kind that is matched by choice, never machined (ring sets, wrist pins, pin
+   * retainers): a part over the band is `reselect` instead of `remove`. Default true.
+   */
+  machined?: boolean;
 }
 
 export interface MatchedPart {
@@ -32,7 +39,7 @@ export interface MatchSetResult {
   tolerance: string;
   /** In the order of `measured`. */
   parts: MatchedPart[];
-  /** Heaviest minus lightest final weight of the parts that are not light. */
+  /** Heaviest minus lightest final weight of the parts that are neither light nor to re-select. */
   spread: string;
 }
 
@@ -48,13 +55,18 @@ export function matchDecimals(
   measured: readonly Dec[],
   target: Dec | undefined,
   tolerance: Dec,
+  machined = true,
 ): { target: Dec; parts: MatchedDecimal[] } {
   const goal = target ?? Dec.min(...measured);
   const ceiling = goal.plus(tolerance);
   const zero = new Dec(0);
   const parts = measured.map((weight): MatchedDecimal => {
     if (weight.lt(goal)) return { remove: zero, final: weight, status: "light" };
-    if (weight.gt(ceiling)) return { remove: weight.minus(goal), final: goal, status: "remove" };
+    if (weight.gt(ceiling)) {
+      return machined
+        ? { remove: weight.minus(goal), final: goal, status: "remove" }
+        : { remove: zero, final: weight, status: "reselect" };
+    }
     return { remove: zero, final: weight, status: "ok" };
   });
   return { target: goal, parts };
@@ -64,7 +76,9 @@ export function matchDecimals(
  * Matches a set of parts of one kind (DOMAIN §2, common practice): the target is the lightest
  * part unless one is set; a part heavier than target + tolerance is machined to the target; a
  * part within the band is left alone; a part lighter than a set target is flagged `light`.
- * The finished set (light parts aside) then spans at most the tolerance.
+ * With `machined: false` (ring sets, wrist pins, pin retainers) a part over the band is
+ * flagged `reselect` and keeps its weight. The finished set (light and re-select parts aside)
+ * then spans at most the tolerance.
  *
  * @param input - weights, optional target and tolerance, all decimal strings in one unit
  * @returns per part the metal to remove and the final weight, in input order
@@ -77,6 +91,8 @@ export function matchDecimals(
  * // [{ measured: "512.4", remove: "0.8", final: "511.6", status: "remove" },
  * //  { measured: "511.6", remove: "0", final: "511.6", status: "ok" },
  * //  { measured: "511.9", remove: "0", final: "511.9", status: "ok" }]
+ * matchSet({ measured: ["46.1", "47.7"], machined: false }).parts[1];
+ * // { measured: "47.7", remove: "0", final: "47.7", status: "reselect" }  (a ring set)
  */
 export function matchSet(input: MatchSetInput): MatchSetResult {
   if (!Array.isArray(input.measured) || input.measured.length === 0) {
@@ -89,8 +105,10 @@ export function matchSet(input: MatchSetInput): MatchSetResult {
     "tolerance",
     "non-negative",
   );
-  const matched = matchDecimals(measured, target, tolerance);
-  const finals = matched.parts.filter((p) => p.status !== "light").map((p) => p.final);
+  const matched = matchDecimals(measured, target, tolerance, input.machined !== false);
+  const finals = matched.parts
+    .filter((p) => p.status === "ok" || p.status === "remove")
+    .map((p) => p.final);
   const spread = finals.length === 0 ? new Dec(0) : Dec.max(...finals).minus(Dec.min(...finals));
   return {
     target: out(matched.target),

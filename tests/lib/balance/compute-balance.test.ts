@@ -26,22 +26,23 @@ import {
  * Band = target + 0.5. Machined to target:
  *   pistons  1: 512.4 → 0.8   3: 513.0 → 1.4   4: 512.2 → 0.6   7: 514.3 → 2.7
  *            (6: 512.1 is exactly on the band edge → left alone)
- *   pins     3: 140.9 → 0.9   8: 140.6 → 0.6
+ *   pins     3: 140.9 and 8: 140.6 are over the 140.5 band but wrist pins are matched by
+ *            selection, not machined (common practice): both "reselect", weights kept
  *   small    3: 181.0 → 0.8   5: 180.9 → 0.7
  *   big      3: 521.1 → 1.1   5: 520.8 → 0.8   8: 521.4 → 1.4   (1: 520.5 on the edge → left)
  *
  * Reciprocating (final piston + pin + ret + rings + small end):
  *   1: 511.6 + 140.2 + 2.0 + 38.5 + 180.6 = 872.9      5: 511.6 + 140.3 + 2.0 + 38.5 + 180.2 = 872.6
  *   2: 511.9 + 140.0 + 2.0 + 38.5 + 180.2 = 872.6      6: 512.1 + 140.0 + 2.0 + 38.7 + 180.3 = 873.1
- *   3: 511.6 + 140.0 + 2.0 + 38.5 + 180.2 = 872.3      7: 511.6 + 140.4 + 2.0 + 38.5 + 180.2 = 872.7
- *   4: 511.6 + 140.1 + 2.1 + 38.5 + 180.4 = 872.7      8: 511.8 + 140.0 + 2.0 + 38.5 + 180.5 = 872.8
+ *   3: 511.6 + 140.9 + 2.0 + 38.5 + 180.2 = 873.2      7: 511.6 + 140.4 + 2.0 + 38.5 + 180.2 = 872.7
+ *   4: 511.6 + 140.1 + 2.1 + 38.5 + 180.4 = 872.7      8: 511.8 + 140.6 + 2.0 + 38.5 + 180.5 = 873.4
  * Rotating per rod (final big end + bearing + 4/2 oil):
  *   1: 552.5  2: 552.0  3: 552.0  4: 552.3  5: 552.0  6: 552.4  7: 552.3 (bearing 30.2)  8: 552.0
  * Bobweights = Σ(big + bearing) + 4 + 0.5 × Σ reciprocating:
  *   pin 1: 1100.5 + 4 + 0.5 × 1745.5 = 1977.25
- *   pin 2: 1100.3 + 4 + 0.5 × 1745.0 = 1976.8
+ *   pin 2: 1100.3 + 4 + 0.5 × 1745.9 = 1977.25
  *   pin 3: 1100.4 + 4 + 0.5 × 1745.7 = 1977.25
- *   pin 4: 1100.3 + 4 + 0.5 × 1745.5 = 1977.05
+ *   pin 4: 1100.3 + 4 + 0.5 × 1746.1 = 1977.35
  */
 const v8: BalanceInput = {
   layout: { preset: "v8-cross-plane" },
@@ -167,7 +168,15 @@ describe("computeBalance: cross-plane V8 worked by hand", () => {
 
   it("machines only the parts above target + 0.5 g, down to the target (common practice)", () => {
     expect(removal(result, "piston")).toEqual({ 1: "0.8", 3: "1.4", 4: "0.6", 7: "2.7" });
-    expect(removal(result, "wristPin")).toEqual({ 3: "0.9", 8: "0.6" });
+    expect(removal(result, "wristPin")).toEqual({});
+    expect(
+      result.parts
+        .filter((p) => p.status === "reselect")
+        .map((p) => [p.cylinder, p.kind, p.excess]),
+    ).toEqual([
+      [3, "wristPin", "0.9"], // 140.9 − 140.0
+      [8, "wristPin", "0.6"], // 140.6 − 140.0
+    ]);
     expect(removal(result, "retainers")).toEqual({});
     expect(removal(result, "rings")).toEqual({});
     expect(removal(result, "smallEnd")).toEqual({ 3: "0.8", 5: "0.7" });
@@ -204,12 +213,12 @@ describe("computeBalance: cross-plane V8 worked by hand", () => {
     expect(result.cylinders).toEqual([
       { number: 1, crankpin: 1, reciprocating: "872.9", rotating: "552.5" },
       { number: 2, crankpin: 1, reciprocating: "872.6", rotating: "552" },
-      { number: 3, crankpin: 2, reciprocating: "872.3", rotating: "552" },
+      { number: 3, crankpin: 2, reciprocating: "873.2", rotating: "552" },
       { number: 4, crankpin: 2, reciprocating: "872.7", rotating: "552.3" },
       { number: 5, crankpin: 3, reciprocating: "872.6", rotating: "552" },
       { number: 6, crankpin: 3, reciprocating: "873.1", rotating: "552.4" },
       { number: 7, crankpin: 4, reciprocating: "872.7", rotating: "552.3" },
-      { number: 8, crankpin: 4, reciprocating: "872.8", rotating: "552" },
+      { number: 8, crankpin: 4, reciprocating: "873.4", rotating: "552" },
     ]);
   });
 
@@ -229,8 +238,8 @@ describe("computeBalance: cross-plane V8 worked by hand", () => {
         crankpin: 2,
         cylinders: [3, 4],
         rotating: "1104.3",
-        reciprocating: "1745",
-        mass: "1976.8",
+        reciprocating: "1745.9",
+        mass: "1977.25",
         oil: "4",
       },
       {
@@ -245,8 +254,8 @@ describe("computeBalance: cross-plane V8 worked by hand", () => {
         crankpin: 4,
         cylinders: [7, 8],
         rotating: "1104.3",
-        reciprocating: "1745.5",
-        mass: "1977.05",
+        reciprocating: "1746.1",
+        mass: "1977.35",
         oil: "4",
       },
     ]);
@@ -255,6 +264,8 @@ describe("computeBalance: cross-plane V8 worked by hand", () => {
   it("warns about the spread readings and the rod whose ends do not add up to its total", () => {
     expect(result.warnings.map((w) => [w.code, w.cylinder, w.kind])).toEqual([
       ["reading-spread", 1, "piston"],
+      ["part-reselect", 3, "wristPin"],
+      ["part-reselect", 8, "wristPin"],
       ["rod-total-mismatch", 4, "rodTotal"],
     ]);
   });
@@ -329,7 +340,8 @@ describe("matching", () => {
       status: "light",
     });
     expect(result.warnings.map((w) => w.code)).toEqual(["target-above-set", "part-light"]);
-    expect(result.warnings[1]?.message).toContain("0.4 g under the target 73 g");
+    // 73.0 − 72.6 = 0.4, a difference: one decimal more than the 0.1 g scale (display rule).
+    expect(result.warnings[1]?.message).toContain("0.40 g under the target 73.00 g");
   });
 
   it("leaves a part within the band alone", () => {
@@ -646,5 +658,150 @@ describe("edge cases", () => {
     const result = computeBalance(withCylinder({ piston: ["310.4", "310.4", "310.5"] }));
     expect(result.parts[0]?.measured).toBe("310.433333333333333333333333333");
     expect(result.warnings).toEqual([]);
+  });
+});
+
+/**
+ * The same V8 matched by whole reciprocating assemblies (worked by hand; tolerance 0.5 g).
+ * Reciprocating = piston + pin + retainers + rings + small end, as weighed:
+ *   1: 512.4 + 140.2 + 2.0 + 38.5 + 180.6 = 873.7      5: 511.6 + 140.3 + 2.0 + 38.5 + 180.9 = 873.3
+ *   2: 511.9 + 140.0 + 2.0 + 38.5 + 180.2 = 872.6      6: 512.1 + 140.0 + 2.0 + 38.7 + 180.3 = 873.1
+ *   3: 513.0 + 140.9 + 2.0 + 38.5 + 181.0 = 875.4      7: 514.3 + 140.4 + 2.0 + 38.5 + 180.2 = 875.4
+ *   4: 512.2 + 140.1 + 2.1 + 38.5 + 180.4 = 873.3      8: 511.8 + 140.6 + 2.0 + 38.5 + 180.5 = 873.4
+ * Target 872.6 (cyl 2), band up to 873.1. Lightest piston 511.6, lightest small end 180.2.
+ * Excess off the piston first (down to 511.6 at most), then the small end (down to 180.2):
+ *   1: 1.1 → piston 0.8 (512.4 → 511.6), small end 0.3                → 872.6
+ *   3: 2.8 → piston 1.4, small end 0.8 (181.0 → 180.2): only 2.2       → 873.2, 0.6 over: re-select
+ *      (its wrist pin is 140.9 − 140.0 = 0.9 over the lightest pin)
+ *   4: 0.7 → piston 0.6, small end 0.1                                  → 872.6
+ *   5: 0.7 → piston 0 (it is the lightest), small end 0.7               → 872.6
+ *   6: 0.5 → on the band edge, left alone
+ *   7: 2.8 → piston 2.7 (514.3 → 511.6), small end 0 (180.2 is the lightest) → 872.7, in band
+ *   8: 0.8 → piston 0.2, small end 0.3                                  → 872.9, in band
+ * Big ends as by part: 3: 1.1, 5: 0.8, 8: 1.4. Rings, pins and retainers: nothing.
+ */
+describe("computeBalance: matching by cylinder (V8 worked by hand)", () => {
+  const result = computeBalance({ ...v8, matching: "by-cylinder" });
+
+  it("brings each assembly to the lightest, piston first, then the small-end pad", () => {
+    expect(result.matching).toBe("by-cylinder");
+    expect(result.assemblyTarget).toBe("872.6");
+    expect(removal(result, "piston")).toEqual({ 1: "0.8", 3: "1.4", 4: "0.6", 7: "2.7", 8: "0.2" });
+    expect(removal(result, "smallEnd")).toEqual({
+      1: "0.3",
+      3: "0.8",
+      4: "0.1",
+      5: "0.7",
+      8: "0.3",
+    });
+    expect(removal(result, "bigEnd")).toEqual({ 3: "1.1", 5: "0.8", 8: "1.4" });
+    for (const kind of ["wristPin", "retainers", "rings"])
+      expect(removal(result, kind)).toEqual({});
+    // Only the big ends keep a target of their own.
+    expect(result.targets).toEqual({ bigEnd: "520" });
+  });
+
+  it("gives each cylinder's assembly and flags the one machining cannot bring into the band", () => {
+    expect(result.cylinders.map((c) => [c.number, c.assembly, c.reciprocating])).toEqual([
+      [1, { measured: "873.7", remove: "1.1", final: "872.6", status: "remove" }, "872.6"],
+      [2, { measured: "872.6", remove: "0", final: "872.6", status: "ok" }, "872.6"],
+      [
+        3,
+        { measured: "875.4", remove: "2.2", final: "873.2", status: "reselect", over: "0.6" },
+        "873.2",
+      ],
+      [4, { measured: "873.3", remove: "0.7", final: "872.6", status: "remove" }, "872.6"],
+      [5, { measured: "873.3", remove: "0.7", final: "872.6", status: "remove" }, "872.6"],
+      [6, { measured: "873.1", remove: "0", final: "873.1", status: "ok" }, "873.1"],
+      [7, { measured: "875.4", remove: "2.7", final: "872.7", status: "remove" }, "872.7"],
+      [8, { measured: "873.4", remove: "0.5", final: "872.9", status: "remove" }, "872.9"],
+    ]);
+    const reselect = result.warnings.find((w) => w.code === "assembly-reselect");
+    expect(reselect?.cylinder).toBe(3);
+    expect(reselect?.message).toContain("0.60 g over the target 872.60 g");
+    expect(reselect?.message).toContain("the wrist pin is 0.90 g over the lightest");
+  });
+
+  it("takes off more in all than by part here (11.2 g against 10.3 g), and says so honestly", () => {
+    // By part: pistons 0.8 + 1.4 + 0.6 + 2.7 = 5.5, small ends 0.8 + 0.7 = 1.5, big ends 3.3.
+    // By cylinder: pistons 5.7, small ends 0.3 + 0.8 + 0.1 + 0.7 + 0.3 = 2.2, big ends 3.3.
+    const total = (r: ReturnType<typeof computeBalance>) =>
+      r.parts.reduce((sum, p) => sum + Math.round(Number(p.remove) * 10), 0) / 10;
+    expect(total(computeBalance(v8))).toBe(10.3);
+    expect(total(result)).toBe(11.2);
+  });
+
+  it("ignores per-kind targets other than the big end, with a warning, and uses a set assembly target", () => {
+    const withTargets = computeBalance({
+      ...v8,
+      matching: "by-cylinder",
+      targets: { piston: "511.0", bigEnd: "520.0" },
+      assemblyTarget: "873.0",
+    });
+    expect(withTargets.warnings.filter((w) => w.code === "target-unused")).toHaveLength(1);
+    // 872.6 and 873.1 … : cylinder 2 (872.6) is 0.4 under 873.0 → light.
+    expect(withTargets.cylinders[1]?.assembly?.status).toBe("light");
+    expect(withTargets.warnings.find((w) => w.code === "assembly-light")?.message).toContain(
+      "0.40 g under the target 873.00 g",
+    );
+  });
+});
+
+describe("removal where the trade removes", () => {
+  it("never machines a ring set: one over the band reads re-select or replace", () => {
+    // Rings 46.1, 46.3, 47.7, 46.2 (a four, invented): target 46.1, band to 46.6; 47.7 is 1.6 over.
+    const four = [1, 2, 3, 4].map((n, i): CylinderInput => ({
+      number: n,
+      piston: "400.0",
+      wristPin: "100.0",
+      rings: ["46.1", "46.3", "47.7", "46.2"][i]!,
+      smallEnd: "150.0",
+      bigEnd: "400.0",
+    }));
+    const result = computeBalance({ layout: { preset: "inline-4" }, cylinders: four });
+    const rings3 = result.parts.find((p) => p.kind === "rings" && p.cylinder === 3);
+    expect(rings3).toMatchObject({ remove: "0", final: "47.7", status: "reselect", excess: "1.6" });
+    const warning = result.warnings.find((w) => w.code === "part-reselect");
+    expect(warning?.message).toContain("1.60 g over the target 46.10 g");
+    expect(warning?.message).toContain("re-select a lighter set or replace it");
+    expect(result.parts.every((p) => p.kind !== "rings" || p.remove === "0")).toBe(true);
+  });
+});
+
+describe("warning messages follow the display rule", () => {
+  it("prints computed masses with one decimal more than the 0.1 g scale, never raw decimals", () => {
+    // Pistons weighed three times: 400.0/400.1/400.4 (mean 400.1666…, spread 0.4) and
+    // 400.0/400.0/400.1 (mean 400.0333…). Target 400.2: the first is 0.0333… under → "0.03 g".
+    // Rod 1: big end 300.0 + small end 100.05 = 400.05 against a whole rod of 400.3: 0.25 apart.
+    const result = computeBalance({
+      layout: { rodsPerPin: 1, bobweight: false },
+      targets: { piston: "400.2" },
+      cylinders: [
+        {
+          number: 1,
+          piston: ["400.0", "400.1", "400.4"],
+          wristPin: "100.0",
+          smallEnd: "100.05",
+          bigEnd: "300.0",
+          rodTotal: "400.3",
+        },
+        {
+          number: 2,
+          piston: ["400.0", "400.0", "400.1"],
+          wristPin: "100.0",
+          smallEnd: "100.0",
+          bigEnd: "300.0",
+        },
+      ],
+    });
+    const messages = result.warnings.map((w) => w.message);
+    expect(messages.join("\n")).not.toMatch(/\d\.\d{3,}/);
+    expect(messages.find((m) => m.startsWith("Cylinder 1 piston is"))).toContain(
+      "0.03 g under the target 400.20 g", // 400.2 − 400.1666… = 0.0333… → 0.03
+    );
+    expect(messages.find((m) => m.includes("readings spread"))).toContain("spread 0.40 g");
+    expect(messages.find((m) => m.includes("whole rod"))).toContain(
+      "big end + small end is 400.05 g but the whole rod weighed 400.3 g",
+    );
   });
 });
