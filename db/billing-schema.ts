@@ -36,6 +36,8 @@ export interface ShopSettingsTable {
   max_upload_mb: string;
   /** Percent of the median of its kind a weight may sit from before it is held (default "5"). */
   outlier_percent: Generated<string>;
+  /** The oil allowance per rod new jobs start with, in grams. */
+  oil_allowance_per_rod_g: Generated<string>;
   version: Generated<number>;
   updated_at: Timestamp;
 }

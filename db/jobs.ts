@@ -41,7 +41,13 @@ export interface JobSpec {
   balancerName: string | null;
   tolerance: string;
   balanceFactor: string | null;
+  /** Oil allowance per crankpin: the older form, used only while `oilAllowancePerRod` is null. */
   oilAllowance: string;
+  /**
+   * Oil allowance per rod in the job's mass unit; null on jobs booked before it existed, which
+   * keep their per-crankpin figure. Saving `oilAllowance` alone puts a job back on that form.
+   */
+  oilAllowancePerRod: string | null;
   benchOrder: "by-kind" | "by-cylinder";
   drillDiameterMm: string | null;
   material: string | null;
@@ -77,6 +83,7 @@ export const DEFAULT_SPEC: JobSpec = {
   tolerance: "0.5",
   balanceFactor: null,
   oilAllowance: "0",
+  oilAllowancePerRod: null,
   benchOrder: "by-kind",
   drillDiameterMm: null,
   material: null,
@@ -109,6 +116,7 @@ function toSpec(row: JobRow): JobSpec {
     tolerance: row.tolerance ?? DEFAULT_SPEC.tolerance,
     balanceFactor: row.balance_factor,
     oilAllowance: row.oil_allowance ?? DEFAULT_SPEC.oilAllowance,
+    oilAllowancePerRod: row.oil_allowance_per_rod,
     benchOrder: row.bench_order ?? DEFAULT_SPEC.benchOrder,
     drillDiameterMm: row.drill_diameter_mm,
     material: row.material,
@@ -143,7 +151,15 @@ function specColumns(spec: Partial<JobSpec>): Updateable<JobTable> {
     balancer_name: spec.balancerName,
     tolerance: spec.tolerance,
     balance_factor: spec.balanceFactor,
-    oil_allowance: spec.oilAllowance,
+    // The allowance is kept one way at a time: a per-rod figure clears the per-crankpin one, and
+    // a per-crankpin figure sent alone replaces the per-rod one.
+    oil_allowance: spec.oilAllowance ?? (spec.oilAllowancePerRod ? "0" : undefined),
+    oil_allowance_per_rod:
+      spec.oilAllowancePerRod !== undefined
+        ? spec.oilAllowancePerRod
+        : spec.oilAllowance !== undefined
+          ? null
+          : undefined,
     bench_order: spec.benchOrder,
     drill_diameter_mm: spec.drillDiameterMm,
     material: spec.material,

@@ -67,7 +67,10 @@ export interface JobTable {
   balancer_name: string | null;
   tolerance: string | null;
   balance_factor: string | null;
+  /** Per crankpin: the older form, used while oil_allowance_per_rod is null. */
   oil_allowance: string | null;
+  /** Per rod, in the job's mass unit; null on jobs booked before it (they keep the per-crankpin figure). */
+  oil_allowance_per_rod: string | null;
   bench_order: "by-kind" | "by-cylinder" | null;
   drill_diameter_mm: string | null;
   material: string | null;

@@ -71,7 +71,10 @@ export async function findShopSettings(db: Kysely<Database>): Promise<ShopSettin
 }
 
 /** The settings to save; a field left out keeps its saved value (for callers that predate it). */
-export type ShopSettingsInput = Omit<ShopSettings, "version" | "updatedAt" | "oilAllowancePerRodG"> &
+export type ShopSettingsInput = Omit<
+  ShopSettings,
+  "version" | "updatedAt" | "oilAllowancePerRodG"
+> &
   Partial<Pick<ShopSettings, "oilAllowancePerRodG">>;
 
 /**

@@ -73,6 +73,10 @@ export const settingsSchema = z
     maxUploadMb: decimalText(3, 1, "10")
       .refine((v) => !isZero(v), { message: "Enter more than 0." })
       .refine((v) => Number(v) <= 500, { message: "At most 500 MB." }),
+    /** Grams per rod for new jobs; left out: unchanged. 2–5 g per rod is common practice. */
+    oilAllowancePerRodG: decimalText(2, 2, "2 or 2.5")
+      .refine((v) => Number(v) <= 20, { message: "Oil allowance per rod: at most 20 g." })
+      .optional(),
   })
   .strict();
 export type SettingsInput = z.infer<typeof settingsSchema>;

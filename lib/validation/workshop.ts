@@ -98,7 +98,9 @@ export const jobSpecSchema = z
           .nullable(),
       )
       .optional(),
-    oilAllowance: quantity("Oil allowance", "4", { zero: true }).optional(),
+    /** Per crankpin: the older form of the oil allowance. New callers send `oilAllowancePerRod`. */
+    oilAllowance: quantity("Oil allowance per crankpin", "4", { zero: true }).optional(),
+    oilAllowancePerRod: quantity("Oil allowance per rod", "2", { zero: true }).optional(),
     benchOrder: z.enum(["by-kind", "by-cylinder"]).optional(),
     /** The drill's diameter in mm (older callers); the settings form sends `drillSize`. */
     drillDiameterMm: z

@@ -136,7 +136,10 @@ export function buildWorkshopPlan(
     tolerance: job.spec.tolerance,
     resolution: job.spec.scaleResolution,
     layout,
-    oilAllowance: job.spec.oilAllowance,
+    // Per rod where the job has it; jobs booked before keep their per-crankpin figure.
+    ...(job.spec.oilAllowancePerRod !== null
+      ? { oilAllowancePerRod: job.spec.oilAllowancePerRod }
+      : { oilAllowance: job.spec.oilAllowance }),
     ...(job.spec.balanceFactor ? { balanceFactor: job.spec.balanceFactor } : {}),
   } satisfies Omit<BalanceInput, "cylinders">;
   const setTargets: Partial<Record<MatchedKind, string>> = {};

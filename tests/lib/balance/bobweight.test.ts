@@ -1,4 +1,4 @@
-import { all, create } from "mathjs";
+import { all, create, type FactoryFunctionMap } from "mathjs";
 import { describe, expect, it } from "vitest";
 import {
   bobweightForCrankpin,
@@ -9,7 +9,7 @@ import {
 } from "@/lib/balance";
 
 // mathjs with exact decimals, a reference library for the means and spreads.
-const math = create(all, { number: "BigNumber", precision: 64 });
+const math = create(all as FactoryFunctionMap, { number: "BigNumber", precision: 64 });
 const exact = (values: string[]) => {
   const xs = values.map((v) => math.bignumber(v));
   return {
