@@ -1,5 +1,6 @@
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
 import type { BillingTables } from "./billing-schema";
+import type { BuildRecordTables } from "./build-record-schema";
 import type { CardTables } from "./cards-schema";
 import type { UploadsAndMailTables } from "./uploads-schema";
 
@@ -158,7 +159,8 @@ export interface SignInFailureTable {
  * Every table. Feature areas keep their table interfaces in their own `db/*-schema.ts` file and
  * extend this interface with them.
  */
-export interface Database extends UploadsAndMailTables, BillingTables, CardTables {
+export interface Database
+  extends UploadsAndMailTables, BillingTables, CardTables, BuildRecordTables {
   users: UserTable;
   customers: CustomerTable;
   jobs: JobTable;

@@ -4,6 +4,7 @@ import type { Database, JobStatus } from "@/db/schema";
 import { findShopSettings } from "@/db/settings";
 import { listPartTargets, listPartWeights } from "@/db/weights";
 import { convertLength, convertMassSetting, findLayoutPreset, parseDrillSize } from "@/lib/balance";
+import { assertRequestsSettled } from "@/lib/build-record/requests";
 import { HttpError } from "@/lib/http/errors";
 import { needsBobweight } from "./needs-bobweight";
 import { COUNTER_SPEC_FIELDS } from "@/lib/validation/jobs";
@@ -156,6 +157,7 @@ export interface JobChangesInput {
  * @returns the job as saved and what the machinist should read about it
  * @throws CounterFieldsError (403) for the counter's machinist-only fields; JobSettingError (422)
  * @throws StaleWriteError when `version` is not the stored one
+ * @throws OpenRequestsError (409) moving to "ready" or "collected" with a request still open
  */
 export async function updateJobSettings(
   db: Kysely<Database>,
@@ -186,6 +188,8 @@ export async function updateJobSettings(
       : { weights: 0, targets: 0 };
     resolved = resolveSpecChanges(job.spec, input, recorded);
   }
+  // No "ready" (or "collected") while a customer's request is neither done nor explained.
+  await assertRequestsSettled(db, job, rest.status);
   const saved = await updateJob(db, job.id, version, { ...rest, spec: resolved.spec }, actor.id);
   return { job: saved, notices: resolved.notices };
 }

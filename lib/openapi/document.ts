@@ -25,6 +25,7 @@ import {
 } from "@/lib/validation/billing";
 import { issueCardSchema, sendCardSchema } from "@/lib/validation/cards";
 import { acceptInviteSchema, newInviteSchema } from "@/lib/validation/invites";
+import { buildRequestNewSchema, buildRequestStateSchema } from "@/lib/build-record/request-schemas";
 import {
   bookingSchema,
   pairingApplySchema,
@@ -294,6 +295,21 @@ export const API_PATHS: ZodOpenApiPathsObject = {
       rotatingWriteSchema,
       undefined,
       z.object({ id: z.string(), part: z.enum(["crankshaft", "flywheel", "clutch", "damper"]) }),
+    ),
+  },
+  "/api/jobs/{id}/build/requests": {
+    get: op("The customer's requests for the build, each open, done or explained"),
+    post: op(
+      "Write down a request for the build (stays open until done or explained)",
+      buildRequestNewSchema,
+    ),
+  },
+  "/api/jobs/{id}/build/requests/{requestId}": {
+    patch: op(
+      "Tick a request done, explain why not, or open it again (with the version read)",
+      buildRequestStateSchema,
+      undefined,
+      z.object({ id: z.string(), requestId: z.string() }),
     ),
   },
 };

@@ -21,6 +21,7 @@ describe(`migrations (${testEngine()})`, () => {
     expect(await tableNames(db)).toEqual([
       "audit_log",
       "balance_cards",
+      "build_requests",
       "customers",
       "invites",
       "invoice_lines",

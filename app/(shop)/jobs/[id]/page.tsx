@@ -1,9 +1,11 @@
+import { BuildRequests } from "@/components/build/build-requests";
 import { BROUGHT_ITEM_LABEL } from "@/components/jobs/brought-items";
 import { JobChanges } from "@/components/jobs/job-changes";
 import { JobSettingsForm, JobStateControl } from "@/components/jobs/job-settings-form";
 import { JobUploads } from "@/components/uploads/job-uploads";
 import { JobCards } from "@/components/cards/job-cards";
 import { listJobChanges } from "@/db/audit";
+import { listBuildRequests } from "@/db/build-record";
 import { getDb } from "@/db/client";
 import { findLayoutPreset } from "@/lib/balance";
 import { showLength } from "@/lib/jobs/lengths";
@@ -14,11 +16,13 @@ export default async function JobOverviewPage({ params }: { params: Promise<{ id
   const { job, user } = await loadPageJob(id, `/jobs/${id}`);
   const shop = user.role !== "customer";
   const changes = shop ? await listJobChanges(getDb(), job.id) : [];
+  const requests = await listBuildRequests(getDb(), job.id);
   const preset = job.spec.layout ? findLayoutPreset(job.spec.layout) : undefined;
   const s = job.spec;
   return (
     <div className="space-y-6">
       {shop ? <JobStateControl job={job} /> : null}
+      <BuildRequests jobId={job.id} role={user.role} initial={requests} />
       <div className="grid gap-4 lg:grid-cols-3">
         <section className="panel p-4">
           <h2 className="mb-2 font-semibold">Engine</h2>

@@ -1,0 +1,81 @@
+import type { Kysely } from "kysely";
+import {
+  type BuildRequest,
+  insertBuildRequest,
+  listBuildRequests,
+  listOpenBuildRequests,
+  updateBuildRequestState,
+} from "@/db/build-record";
+import type { Job } from "@/db/jobs";
+import type { Database, JobStatus } from "@/db/schema";
+import type { User } from "@/db/users";
+import { HttpError } from "@/lib/http/errors";
+import type { BuildRequestNew, BuildRequestStateChange } from "./request-schemas";
+
+/** States a job reaches only once every request is done or explained. */
+const GATED: readonly JobStatus[] = ["ready", "collected"];
+
+/** The job cannot go to "ready" (or "collected") while requests are open: 409 naming them. */
+export class OpenRequestsError extends HttpError {
+  constructor(open: BuildRequest[], to: JobStatus) {
+    const names = open.map((r) => `“${r.text}”`).join(", ");
+    const word = to === "ready" ? "ready" : "collected";
+    const message = `Not ${word} yet: ${open.length} customer request${open.length === 1 ? " is" : "s are"} neither done nor explained: ${names}. Tick each one done, or say why not.`;
+    super(409, "open_requests", message, { status: message });
+  }
+}
+
+/**
+ * Refuses moving a job to "ready" or "collected" while any of its requests for the build is
+ * neither ticked done nor explained. Moves between other states, and staying where it is, pass.
+ *
+ * @throws OpenRequestsError (409) naming each open request
+ */
+export async function assertRequestsSettled(
+  db: Kysely<Database>,
+  job: Pick<Job, "id" | "status">,
+  to: JobStatus | undefined,
+): Promise<void> {
+  if (to === undefined || to === job.status || !GATED.includes(to)) return;
+  const open = await listOpenBuildRequests(db, job.id);
+  if (open.length > 0) throw new OpenRequestsError(open, to);
+}
+
+/** Who may tick or explain a request: the machinist and the owner. */
+export const RESOLVE_ROLES = ["machinist", "owner"] as const;
+/** Who may write a request down: the counter too. */
+export const ADD_ROLES = ["counter", "machinist", "owner"] as const;
+
+export function listRequests(db: Kysely<Database>, job: Job): Promise<BuildRequest[]> {
+  return listBuildRequests(db, job.id);
+}
+
+export function addRequest(
+  db: Kysely<Database>,
+  job: Job,
+  input: BuildRequestNew,
+  actor: User,
+): Promise<BuildRequest> {
+  return insertBuildRequest(db, { jobId: job.id, text: input.text }, actor.id);
+}
+
+/** Ticks a request done, explains it (note required) or opens it again, with the version read. */
+export function changeRequest(
+  db: Kysely<Database>,
+  job: Job,
+  id: number,
+  change: BuildRequestStateChange,
+  actor: User,
+): Promise<BuildRequest> {
+  return updateBuildRequestState(
+    db,
+    {
+      jobId: job.id,
+      id,
+      baseVersion: change.version,
+      state: change.state,
+      note: change.state === "open" ? null : change.note,
+    },
+    actor.id,
+  );
+}
