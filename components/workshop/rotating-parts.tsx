@@ -3,14 +3,25 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useState } from "react";
-import { type Resolver, useFieldArray, useForm } from "react-hook-form";
+import {
+  type FieldErrors,
+  type Path,
+  type Resolver,
+  useFieldArray,
+  useForm,
+} from "react-hook-form";
 import type { z } from "zod";
 import type { RotatingPart } from "@/db/schema";
-import { BALANCE_GRADES, formatMass } from "@/lib/balance";
+import { BALANCE_GRADES, formatLength, formatUnbalance } from "@/lib/balance";
 import { ApiError, apiFetch } from "@/lib/api-client";
-import { rotatingRecordSchema } from "@/lib/validation/workshop";
+import {
+  type CorrectionPlanes,
+  type RotatingRecordInput,
+  rotatingRecordSchema,
+} from "@/lib/validation/workshop";
 import type { Workshop } from "@/lib/workshop/load";
-import type { RotatingCheck } from "@/lib/workshop/rotating";
+import { planesOf, type RotatingCheck } from "@/lib/workshop/rotating";
+import { CorrectionHelpers } from "./correction-helpers";
 import { useWorkshop, workshopKey } from "./use-workshop";
 
 const PARTS: { part: RotatingPart; label: string }[] = [
@@ -20,21 +31,38 @@ const PARTS: { part: RotatingPart; label: string }[] = [
   { part: "damper", label: "Damper / balancer pulley" },
 ];
 
+const METHODS: { value: string; label: string }[] = [
+  { value: "drilled", label: "Drilled out" },
+  { value: "heavy-metal", label: "Heavy metal fitted" },
+  { value: "added", label: "Weight added" },
+  { value: "other", label: "Other" },
+];
+
 type Parsed = z.output<typeof rotatingRecordSchema>;
 type Reading = { mass: string; angle?: string | null } | null;
+type Correction = {
+  plane: "A" | "B";
+  method: string;
+  where: string;
+  mass: string;
+  angle?: string | null;
+};
 /** What the boxes hold; the schema turns blanks into "not given". */
 type Values = {
   massKg?: string | null;
   rpm?: number | null;
   grade?: string | null;
   radiusMm?: string | null;
+  planes: CorrectionPlanes;
   planeDistanceAMm?: string | null;
   planeDistanceBMm?: string | null;
   before?: { A?: Reading; B?: Reading };
   after?: { A?: Reading; B?: Reading };
-  corrections?: NonNullable<Parsed["corrections"]>;
+  corrections?: Correction[];
   notes?: string | null;
 };
+
+type Status = { ok: boolean; text: string } | null;
 
 /** The crank and the other rotating parts on the balancer: readings, corrections, pass or fail. */
 export function RotatingParts({
@@ -60,6 +88,7 @@ export function RotatingParts({
             : "not noted yet (set it on the overview)"}
         . Permissible residual unbalance per ISO 21940-11 from the part&apos;s mass, the service
         speed and the grade; performance work usually aims at G 2.5 or better (common practice).
+        Balancer readings in grams, radii in millimetres.
       </p>
       <div className="flex flex-wrap gap-2" role="tablist" aria-label="Rotating part">
         {PARTS.map((p) => {
@@ -93,8 +122,44 @@ export function RotatingParts({
         workshop={workshop}
         canEdit={canEdit}
       />
+      {canEdit ? <CorrectionHelpers part={open} workshop={workshop} /> : null}
     </div>
   );
+}
+
+const blankReading = () => ({ mass: "", angle: "" });
+
+function initialValues(part: RotatingPart, workshop: Workshop): Values {
+  const record = workshop.rotating.find((r) => r.part === part);
+  const saved = (record?.data ?? {}) as RotatingRecordInput;
+  const reading = (r: Reading | undefined) =>
+    r ? { mass: r.mass, angle: r.angle ?? "" } : blankReading();
+  return {
+    massKg: saved.massKg ?? "",
+    rpm: saved.rpm ?? workshop.job.spec.maxRpm ?? null,
+    grade: (saved.grade ?? "6.3").replace(/^G\s*/i, ""),
+    radiusMm: saved.radiusMm ?? "",
+    planes: planesOf(part, saved),
+    planeDistanceAMm: saved.planeDistanceAMm ?? "",
+    planeDistanceBMm: saved.planeDistanceBMm ?? "",
+    before: { A: reading(saved.before?.A), B: reading(saved.before?.B) },
+    after: { A: reading(saved.after?.A), B: reading(saved.after?.B) },
+    corrections: (saved.corrections ?? []).map((c) => ({ ...c, angle: c.angle ?? "" })),
+    notes: saved.notes ?? "",
+  };
+}
+
+/** How many boxes a failed check marked. */
+function countErrors(errors: FieldErrors): number {
+  let n = 0;
+  const walk = (node: unknown) => {
+    if (!node || typeof node !== "object") return;
+    if ("message" in node && typeof (node as { message: unknown }).message === "string") n += 1;
+    for (const [key, child] of Object.entries(node))
+      if (key !== "ref" && key !== "message" && key !== "type") walk(child);
+  };
+  walk(errors);
+  return n;
 }
 
 function RecordForm({
@@ -110,43 +175,83 @@ function RecordForm({
 }) {
   const client = useQueryClient();
   const record = workshop.rotating.find((r) => r.part === part);
-  const saved = (record?.data ?? {}) as Values;
   const form = useForm<Values, unknown, Parsed>({
     resolver: zodResolver(rotatingRecordSchema) as unknown as Resolver<Values, unknown, Parsed>,
-    defaultValues: {
-      massKg: saved.massKg ?? "",
-      rpm: saved.rpm ?? workshop.job.spec.maxRpm ?? undefined,
-      grade: saved.grade ?? "6.3",
-      radiusMm: saved.radiusMm ?? "",
-      planeDistanceAMm: saved.planeDistanceAMm ?? "",
-      planeDistanceBMm: saved.planeDistanceBMm ?? "",
-      before: saved.before ?? { A: { mass: "", angle: "" }, B: { mass: "", angle: "" } },
-      after: saved.after ?? { A: { mass: "", angle: "" }, B: { mass: "", angle: "" } },
-      corrections: saved.corrections ?? [],
-      notes: saved.notes ?? "",
-    },
+    defaultValues: initialValues(part, workshop),
   });
   const corrections = useFieldArray({ control: form.control, name: "corrections" });
+  const [status, setStatus] = useState<Status>(null);
+  const planes = form.watch("planes");
+  const planeNames: ("A" | "B")[] = planes === "one" ? ["A"] : ["A", "B"];
   const save = useMutation({
     mutationFn: (values: Parsed) =>
       apiFetch(`/api/jobs/${jobId}/rotating/${part}`, {
         method: "PUT",
         body: { data: values, version: record?.version ?? 0 },
       }),
-    onSuccess: () => client.invalidateQueries({ queryKey: workshopKey(jobId) }),
+    onMutate: () => setStatus(null),
+    onSuccess: async () => {
+      setStatus({ ok: true, text: "Saved." });
+      await client.invalidateQueries({ queryKey: workshopKey(jobId) });
+    },
+    onError: (error) => {
+      if (error instanceof ApiError && error.status === 409) {
+        setStatus({
+          ok: false,
+          text: "Not saved: someone else saved this record meanwhile. Reload to see theirs.",
+        });
+        return;
+      }
+      if (error instanceof ApiError && error.status === 422) {
+        const fields = Object.entries(error.fields);
+        for (const [field, message] of fields)
+          form.setError(field.replace(/^data\./, "") as Path<Values>, { message });
+        setStatus({
+          ok: false,
+          text: `Not saved: ${fields.length === 1 ? "one box needs" : `${fields.length} boxes need`} attention (marked below).`,
+        });
+        return;
+      }
+      setStatus({ ok: false, text: `Not saved: ${error.message}` });
+    },
   });
+
+  const choosePlanes = (next: CorrectionPlanes) => {
+    form.setValue("planes", next);
+    if (next === "one") {
+      // One plane keeps no plane B figures: nothing hidden may block the save.
+      form.setValue("before.B", blankReading());
+      form.setValue("after.B", blankReading());
+      form.setValue("planeDistanceAMm", "");
+      form.setValue("planeDistanceBMm", "");
+      corrections.fields.forEach((_, i) => form.setValue(`corrections.${i}.plane`, "A"));
+    }
+  };
 
   const errors = form.formState.errors;
   const input = "w-28 rounded border border-graphite-300 px-2 py-1.5 font-mono";
-  const err = (m?: { message?: string }) =>
-    m?.message ? <span className="block text-xs text-replace">{m.message}</span> : null;
+  const err = (m?: { message?: string }, id?: string) =>
+    m?.message ? (
+      <span id={id} className="block max-w-48 text-xs text-replace">
+        {m.message}
+      </span>
+    ) : null;
   return (
     <form
-      className="panel grid gap-6 p-4 lg:grid-cols-[1fr_20rem]"
-      onSubmit={form.handleSubmit((v) => save.mutate(v))}
+      className="panel grid gap-6 p-4 lg:grid-cols-[1fr_22rem]"
+      onSubmit={form.handleSubmit(
+        (v) => save.mutate(v),
+        (e) => {
+          const n = countErrors(e);
+          setStatus({
+            ok: false,
+            text: `Not saved: ${n === 1 ? "one box needs" : `${n} boxes need`} attention (marked below).`,
+          });
+        },
+      )}
       noValidate
     >
-      <fieldset disabled={!canEdit} className="space-y-4">
+      <fieldset disabled={!canEdit} className="min-w-0 space-y-4">
         <div className="flex flex-wrap gap-4">
           <label className="text-sm">
             <span className="block font-semibold">Mass (kg)</span>
@@ -158,7 +263,9 @@ function RecordForm({
             <input
               className={input}
               inputMode="numeric"
-              {...form.register("rpm", { setValueAs: (v) => (v === "" ? undefined : Number(v)) })}
+              {...form.register("rpm", {
+                setValueAs: (v) => (v === "" || v === null ? null : Number(v)),
+              })}
             />
             {err(errors.rpm)}
           </label>
@@ -177,15 +284,42 @@ function RecordForm({
             <input className={input} inputMode="decimal" {...form.register("radiusMm")} />
             {err(errors.radiusMm)}
           </label>
-          <label className="text-sm">
-            <span className="block font-semibold">Plane A from centre of mass (mm, optional)</span>
-            <input className={input} inputMode="decimal" {...form.register("planeDistanceAMm")} />
-          </label>
-          <label className="text-sm">
-            <span className="block font-semibold">Plane B from centre of mass (mm, optional)</span>
-            <input className={input} inputMode="decimal" {...form.register("planeDistanceBMm")} />
-          </label>
         </div>
+        <fieldset className="flex flex-wrap items-center gap-4 text-sm">
+          <legend className="mb-1 font-semibold">Correction planes</legend>
+          {(["one", "two"] as const).map((choice) => (
+            <label key={choice} className="flex items-center gap-1">
+              <input
+                type="radio"
+                name={`planes-${part}`}
+                value={choice}
+                checked={planes === choice}
+                onChange={() => choosePlanes(choice)}
+              />
+              {choice === "one"
+                ? "One plane (flexplate, flywheel, clutch cover, damper): the whole allowance there"
+                : "Two planes, A and B (a crankshaft)"}
+            </label>
+          ))}
+        </fieldset>
+        {planes === "two" ? (
+          <div className="flex flex-wrap gap-4">
+            <label className="text-sm">
+              <span className="block font-semibold">
+                Plane A from centre of mass (mm, optional)
+              </span>
+              <input className={input} inputMode="decimal" {...form.register("planeDistanceAMm")} />
+              {err(errors.planeDistanceAMm)}
+            </label>
+            <label className="text-sm">
+              <span className="block font-semibold">
+                Plane B from centre of mass (mm, optional)
+              </span>
+              <input className={input} inputMode="decimal" {...form.register("planeDistanceBMm")} />
+              {err(errors.planeDistanceBMm)}
+            </label>
+          </div>
+        ) : null}
         {(["before", "after"] as const).map((side) => (
           <div key={side}>
             <h3 className="font-semibold">
@@ -194,83 +328,118 @@ function RecordForm({
                 : "Balancer readings after correction"}
             </h3>
             <div className="mt-1 flex flex-wrap gap-6">
-              {(["A", "B"] as const).map((plane) => (
-                <div key={plane} className="flex items-end gap-2 text-sm">
-                  <span className="pb-2 font-mono font-semibold">Plane {plane}</span>
-                  <label>
-                    <span className="block">grams</span>
-                    <input
-                      className={input}
-                      inputMode="decimal"
-                      aria-label={`${side} plane ${plane} grams`}
-                      {...form.register(`${side}.${plane}.mass`)}
-                    />
-                  </label>
-                  <label>
-                    <span className="block">angle °</span>
-                    <input
-                      className={input}
-                      inputMode="decimal"
-                      aria-label={`${side} plane ${plane} angle`}
-                      {...form.register(`${side}.${plane}.angle`)}
-                    />
-                  </label>
-                </div>
-              ))}
+              {planeNames.map((plane) => {
+                const name = planes === "one" ? "single plane" : `plane ${plane}`;
+                const e = errors[side]?.[plane];
+                return (
+                  <div key={plane} className="flex items-start gap-2 text-sm">
+                    <span className="pt-6 font-mono font-semibold">
+                      {planes === "one" ? "Reading" : `Plane ${plane}`}
+                    </span>
+                    <label>
+                      <span className="block">grams</span>
+                      <input
+                        className={input}
+                        inputMode="decimal"
+                        aria-label={`${side} ${name} grams`}
+                        aria-invalid={e?.mass ? true : undefined}
+                        {...form.register(`${side}.${plane}.mass`)}
+                      />
+                      {err(e?.mass)}
+                    </label>
+                    <label>
+                      <span className="block">angle °</span>
+                      <input
+                        className={input}
+                        inputMode="decimal"
+                        aria-label={`${side} ${name} angle`}
+                        aria-invalid={e?.angle ? true : undefined}
+                        {...form.register(`${side}.${plane}.angle`)}
+                      />
+                      {err(e?.angle)}
+                    </label>
+                  </div>
+                );
+              })}
             </div>
           </div>
         ))}
         <div>
           <h3 className="font-semibold">Corrections made</h3>
           <ul className="space-y-2">
-            {corrections.fields.map((f, i) => (
-              <li key={f.id} className="flex flex-wrap items-end gap-2 text-sm">
-                <select
-                  className={input}
-                  aria-label="Plane"
-                  {...form.register(`corrections.${i}.plane`)}
-                >
-                  <option value="A">Plane A</option>
-                  <option value="B">Plane B</option>
-                </select>
-                <select
-                  className="rounded border border-graphite-300 px-2 py-1.5"
-                  aria-label="Method"
-                  {...form.register(`corrections.${i}.method`)}
-                >
-                  <option value="drilled">Drilled out</option>
-                  <option value="heavy-metal">Heavy metal fitted</option>
-                  <option value="added">Weight added</option>
-                  <option value="other">Other</option>
-                </select>
-                <input
-                  className="w-56 rounded border border-graphite-300 px-2 py-1.5"
-                  placeholder="Where (e.g. rear counterweight)"
-                  aria-label="Where"
-                  {...form.register(`corrections.${i}.where`)}
-                />
-                <input
-                  className={input}
-                  inputMode="decimal"
-                  placeholder="grams"
-                  aria-label="Grams"
-                  {...form.register(`corrections.${i}.mass`)}
-                />
-                <button
-                  type="button"
-                  className="text-sm underline"
-                  onClick={() => corrections.remove(i)}
-                >
-                  Remove
-                </button>
-              </li>
-            ))}
+            {corrections.fields.map((f, i) => {
+              const e = errors.corrections?.[i];
+              const messages = [e?.plane, e?.method, e?.where, e?.mass, e?.angle]
+                .map((m) => m?.message)
+                .filter((m): m is string => Boolean(m));
+              return (
+                <li key={f.id} className="text-sm" data-testid={`correction-${i}`}>
+                  <div className="flex flex-wrap items-end gap-2">
+                    {planes === "two" ? (
+                      <select
+                        className={input}
+                        aria-label={`Correction ${i + 1} plane`}
+                        {...form.register(`corrections.${i}.plane`)}
+                      >
+                        <option value="A">Plane A</option>
+                        <option value="B">Plane B</option>
+                      </select>
+                    ) : null}
+                    <select
+                      className="rounded border border-graphite-300 px-2 py-1.5"
+                      aria-label={`Correction ${i + 1} method`}
+                      {...form.register(`corrections.${i}.method`)}
+                    >
+                      {METHODS.map((m) => (
+                        <option key={m.value} value={m.value}>
+                          {m.label}
+                        </option>
+                      ))}
+                    </select>
+                    <input
+                      className="w-56 rounded border border-graphite-300 px-2 py-1.5"
+                      placeholder="Where (e.g. rear counterweight)"
+                      aria-label={`Correction ${i + 1} where`}
+                      {...form.register(`corrections.${i}.where`)}
+                    />
+                    <input
+                      className={input}
+                      inputMode="decimal"
+                      placeholder="grams"
+                      aria-label={`Correction ${i + 1} grams`}
+                      aria-invalid={e?.mass ? true : undefined}
+                      {...form.register(`corrections.${i}.mass`)}
+                    />
+                    <input
+                      className="w-20 rounded border border-graphite-300 px-2 py-1.5 font-mono"
+                      inputMode="decimal"
+                      placeholder="angle °"
+                      aria-label={`Correction ${i + 1} angle`}
+                      aria-invalid={e?.angle ? true : undefined}
+                      {...form.register(`corrections.${i}.angle`)}
+                    />
+                    <button
+                      type="button"
+                      className="text-sm underline"
+                      onClick={() => corrections.remove(i)}
+                    >
+                      Remove
+                    </button>
+                  </div>
+                  {messages.length > 0 ? (
+                    <p className="text-xs text-replace" data-testid={`correction-${i}-error`}>
+                      Correction {i + 1}: {messages.join(" ")}
+                    </p>
+                  ) : null}
+                </li>
+              );
+            })}
           </ul>
           <button
             type="button"
             className="btn-secondary mt-2 py-1"
             onClick={() =>
-              corrections.append({ plane: "A", method: "drilled", where: "", mass: "" })
+              corrections.append({ plane: "A", method: "drilled", where: "", mass: "", angle: "" })
             }
           >
             Add a correction
@@ -279,31 +448,33 @@ function RecordForm({
         <label className="block text-sm">
           <span className="block font-semibold">Notes</span>
           <textarea className="field-input" rows={2} {...form.register("notes")} />
+          {err(errors.notes)}
         </label>
         {canEdit ? (
-          <div className="flex items-center gap-3">
+          <div className="flex flex-wrap items-center gap-3">
             <button type="submit" className="btn-primary" disabled={save.isPending}>
               {save.isPending ? "Saving…" : "Save record"}
             </button>
-            <span aria-live="polite" className="text-sm">
-              {save.isSuccess ? <span className="text-within">Saved.</span> : null}
-              {save.isError ? (
-                <span className="text-replace">
-                  {save.error instanceof ApiError && save.error.status === 409
-                    ? "Someone else saved this record meanwhile: reload to see theirs."
-                    : save.error.message}
-                </span>
+            <span
+              role="status"
+              aria-live="polite"
+              className="text-sm"
+              data-testid="rotating-save-status"
+            >
+              {status ? (
+                <span className={status.ok ? "text-within" : "text-replace"}>{status.text}</span>
               ) : null}
             </span>
           </div>
         ) : null}
       </fieldset>
-      <Verdict check={record?.check ?? null} />
+      <Verdict check={record?.check ?? null} data={(record?.data ?? {}) as RotatingRecordInput} />
     </form>
   );
 }
 
-function Verdict({ check }: { check: RotatingCheck | null }) {
+/** The verdict leads with grams at the balancer radius; g·mm and the ISO terms follow. */
+function Verdict({ check, data }: { check: RotatingCheck | null; data: RotatingRecordInput }) {
   if (!check)
     return (
       <aside className="text-sm text-graphite-500">
@@ -315,44 +486,72 @@ function Verdict({ check }: { check: RotatingCheck | null }) {
       <aside className="text-sm text-graphite-600">Still needed: {check.missing.join(", ")}.</aside>
     );
   const p = check.permissible;
-  const g = (v: string) => formatMass(v, "0.1");
+  const single = check.planes === "one";
+  const radius = `${formatLength(check.radiusMm!)} mm`;
+  const name = (plane: string) => (single ? "" : `Plane ${plane}: `);
+  const allowance = new Map(check.allowances.map((a) => [a.plane, a]));
   return (
     <aside className="space-y-3 text-sm" data-testid="rotating-verdict">
-      <div>
-        <p className="font-semibold">Permissible residual (G {p.grade})</p>
-        <p className="font-mono">
-          e_per {g(p.ePer)} g·mm/kg · U_per {g(p.uPer)} g·mm
-        </p>
-        <ul className="mt-1 font-mono">
-          {p.planes.map((pl) => (
-            <li key={pl.plane}>
-              Plane {pl.plane}: {g(pl.uPer)} g·mm
-              {pl.massAtRadius ? ` = ${formatMass(pl.massAtRadius, "0.01")} g at the radius` : ""}
-              {pl.clamped ? " (held to 30–70 %)" : ""}
-            </li>
-          ))}
-        </ul>
-      </div>
-      {(["before", "after"] as const).map((side) => {
+      {(["after", "before"] as const).map((side) => {
         const c = check[side];
-        if (!c) return null;
+        if (!c) {
+          return side === "after" ? (
+            <p key={side} className="text-graphite-600">
+              After: {single ? "no reading yet." : "enter both planes' readings for a verdict."}
+            </p>
+          ) : null;
+        }
         return (
           <div key={side} className={`rounded p-2 ${c.pass ? "bg-emerald-50" : "bg-red-50"}`}>
             <p className={`font-semibold ${c.pass ? "text-within" : "text-replace"}`}>
               {side === "before" ? "Before" : "After"}:{" "}
               {c.pass ? "within the grade" : "over the grade"}
             </p>
-            <ul className="font-mono text-xs">
-              {c.planes.map((pl) => (
-                <li key={pl.plane}>
-                  {pl.plane}: {g(pl.residual)} of {g(pl.allowed)} g·mm (
-                  {pl.pass ? "margin" : "over by"} {g(pl.margin.replace("-", ""))})
-                </li>
-              ))}
+            <ul>
+              {c.planes.map((pl) => {
+                const reading = data[side]?.[pl.plane as "A" | "B"]?.mass ?? "";
+                const allowed = allowance.get(pl.plane as "A" | "B");
+                return (
+                  <li key={pl.plane}>
+                    {name(pl.plane)}Residual {reading} g at {radius} — allowed{" "}
+                    {allowed ? formatUnbalance(allowed.massAtRadius) : "?"} g:{" "}
+                    <span className="font-semibold">{pl.pass ? "pass" : "fail"}</span>
+                    <span className="block font-mono text-xs text-graphite-600">
+                      {formatUnbalance(pl.residual)} of {formatUnbalance(pl.allowed)} g·mm (
+                      {pl.pass ? "margin" : "over by"} {formatUnbalance(pl.margin.replace("-", ""))}{" "}
+                      g·mm)
+                      {pl.angle ? `, heavy spot at ${pl.angle}°` : ""}
+                    </span>
+                  </li>
+                );
+              })}
             </ul>
           </div>
         );
       })}
+      <div className="text-graphite-700">
+        <p className="font-semibold">
+          Allowed residual, G {p.grade} at {data.rpm} rpm
+        </p>
+        <ul>
+          {check.allowances.map((a) => (
+            <li key={a.plane}>
+              {single ? "In the one plane" : `Plane ${a.plane}`}: {formatUnbalance(a.massAtRadius)}{" "}
+              g at {radius}
+              {a.clamped ? " (share held to 30–70 %)" : ""}
+            </li>
+          ))}
+        </ul>
+        <p className="mt-1 font-mono text-xs text-graphite-600">
+          ISO 21940-11: U_per {formatUnbalance(p.uPer)} g·mm for the whole part
+          {single
+            ? ", all in one plane"
+            : p.allocation === "half-each"
+              ? ", half each plane"
+              : ", shared by distance"}
+          ; e_per {formatUnbalance(p.ePer)} g·mm/kg.
+        </p>
+      </div>
     </aside>
   );
 }

@@ -98,56 +98,75 @@ export const drillSizeText = z
     }
   });
 
+/** An optional box left empty is "not given", from a form or an API caller alike. */
+const blankToUndefined = (v: unknown) => (v === "" || v === null ? undefined : v);
+
 /** Included point angle of a twist drill, degrees: 118 for a standard jobber drill. */
-const pointAngle = positiveDecimal.refine(
-  (v) => Number(v) < 180,
-  "A point angle below 180° (118° for a standard twist drill).",
-);
+const pointAngle = z
+  .preprocess(
+    blankToUndefined,
+    positiveDecimal
+      .refine((v) => Number(v) < 180, "A point angle below 180° (118° for a standard twist drill).")
+      .optional(),
+  )
+  .optional();
+
+/** Drill depth for a mass (the drill helper). */
+export const drillHoleSchema = z
+  .object({
+    kind: z.literal("drill"),
+    /** Mass to take out, g. */
+    mass: positiveDecimal,
+    /** Drill size (see drillSizeText); a bare number is mm. */
+    diameter: drillSizeText,
+    density: positiveDecimal,
+    pointAngle,
+    /** Depth of metal there is to drill into, mm: the answer says whether the hole fits. */
+    availableDepth: z.preprocess(blankToUndefined, positiveDecimal.optional()).optional(),
+  })
+  .strict();
+
+/** Net mass of a heavy-metal plug (the heavy-metal helper). */
+export const plugHoleSchema = z
+  .object({
+    kind: z.literal("plug"),
+    /** Plug and hole size (see drillSizeText); a bare number is mm. */
+    diameter: drillSizeText,
+    length: positiveDecimal,
+    plugDensity: positiveDecimal,
+    hostDensity: positiveDecimal,
+    /** Point angle of the drill that made the hole: counts the empty cone under a flat plug. */
+    pointAngle,
+  })
+  .strict();
+
+/** A correction moved to another radius. */
+export const moveHoleSchema = z
+  .object({
+    kind: z.literal("move"),
+    mass: positiveDecimal,
+    fromRadius: positiveDecimal,
+    toRadius: positiveDecimal,
+  })
+  .strict();
+
+/** A correction split over two holes at ±θ. */
+export const splitHoleSchema = z
+  .object({
+    kind: z.literal("split"),
+    mass: positiveDecimal,
+    halfAngleDeg: decimalString.refine(
+      (v) => Number(v) < 90,
+      "Each hole less than 90° from the wanted angle.",
+    ),
+  })
+  .strict();
 
 /** POST /api/balance/hole: the hole and correction helpers, one per "kind". */
 export const holeRequestSchema = z.discriminatedUnion("kind", [
-  z
-    .object({
-      kind: z.literal("drill"),
-      /** Mass to take out, g. */
-      mass: positiveDecimal,
-      /** Drill size (see drillSizeText); a bare number is mm. */
-      diameter: drillSizeText,
-      density: positiveDecimal,
-      pointAngle: pointAngle.optional(),
-      /** Depth of metal there is to drill into, mm: the answer says whether the hole fits. */
-      availableDepth: positiveDecimal.optional(),
-    })
-    .strict(),
-  z
-    .object({
-      kind: z.literal("plug"),
-      /** Plug and hole size (see drillSizeText); a bare number is mm. */
-      diameter: drillSizeText,
-      length: positiveDecimal,
-      plugDensity: positiveDecimal,
-      hostDensity: positiveDecimal,
-      /** Point angle of the drill that made the hole: counts the empty cone under a flat plug. */
-      pointAngle: pointAngle.optional(),
-    })
-    .strict(),
-  z
-    .object({
-      kind: z.literal("move"),
-      mass: positiveDecimal,
-      fromRadius: positiveDecimal,
-      toRadius: positiveDecimal,
-    })
-    .strict(),
-  z
-    .object({
-      kind: z.literal("split"),
-      mass: positiveDecimal,
-      halfAngleDeg: decimalString.refine(
-        (v) => Number(v) < 90,
-        "Each hole less than 90° from the wanted angle.",
-      ),
-    })
-    .strict(),
+  drillHoleSchema,
+  plugHoleSchema,
+  moveHoleSchema,
+  splitHoleSchema,
 ]);
 export type HoleRequest = z.infer<typeof holeRequestSchema>;

@@ -272,7 +272,17 @@ export type CorrectionPlanes = (typeof CORRECTION_PLANES)[number];
 export const rotatingRecordSchema = z
   .object({
     massKg: optionalPositive,
-    rpm: z.preprocess(blankToNull, z.number().int().min(100).max(30_000).nullable()).optional(),
+    rpm: z
+      .preprocess(
+        blankToNull,
+        z
+          .number({ message: "Service speed: a whole number of rpm, like 7000." })
+          .int("Service speed: a whole number of rpm, like 7000.")
+          .min(100, "At least 100 rpm.")
+          .max(30_000, "At most 30 000 rpm.")
+          .nullable(),
+      )
+      .optional(),
     grade: z.string().max(10).nullable().optional(),
     radiusMm: optionalPositive,
     planes: z.enum(CORRECTION_PLANES, { message: "One plane or two." }).optional(),

@@ -1,4 +1,4 @@
-import { all, create } from "mathjs";
+import { all, create, type FactoryFunctionMap } from "mathjs";
 import { beforeEach, describe, expect, it } from "vitest";
 import { POST as postHole } from "@/app/api/balance/hole/route";
 import type { Role } from "@/db/schema";
@@ -8,7 +8,7 @@ import { jsonRequest, noParams } from "../../helpers/http";
 import { signInAs } from "../../helpers/session";
 
 // Reference library: mathjs with BigNumber arithmetic, 1 in = 25.4 mm exactly.
-const math = create(all, { number: "BigNumber", precision: 64 });
+const math = create(all as FactoryFunctionMap, { number: "BigNumber", precision: 64 });
 
 let users: Record<Role, User>;
 

@@ -1,9 +1,9 @@
-import { all, create } from "mathjs";
+import { all, create, type FactoryFunctionMap } from "mathjs";
 import { describe, expect, it } from "vitest";
 import { LETTER_DRILL_INCHES, NUMBER_DRILL_INCHES, parseDrillSize } from "@/lib/balance";
 
 // Reference library: mathjs with BigNumber arithmetic carries 1 in = 25.4 mm exactly.
-const math = create(all, { number: "BigNumber", precision: 64 });
+const math = create(all as FactoryFunctionMap, { number: "BigNumber", precision: 64 });
 const inchesToMm = (expr: string) => math.evaluate(`(${expr}) inch`).toNumeric("mm").toString();
 
 describe("parseDrillSize", () => {

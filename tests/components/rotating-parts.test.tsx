@@ -1,0 +1,206 @@
+// @vitest-environment jsdom
+import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
+import { cleanup, render, screen, waitFor, within } from "@testing-library/react";
+import userEvent from "@testing-library/user-event";
+import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { RotatingParts } from "@/components/workshop/rotating-parts";
+import { DEFAULT_SPEC, type Job } from "@/db/jobs";
+import type { RotatingRecordInput } from "@/lib/validation/workshop";
+import type { Workshop } from "@/lib/workshop/load";
+import { holeRequestSchema } from "@/lib/validation/balance";
+import { workOutHole } from "@/lib/workshop/hole-helpers";
+import { checkRotatingRecord } from "@/lib/workshop/rotating";
+
+const job: Job = {
+  id: 9,
+  number: "2026-0009",
+  customerId: 1,
+  customerName: "Invented customer",
+  engine: "invented four",
+  status: "balancing",
+  notes: null,
+  version: 1,
+  createdAt: "2026-12-01T00:00:00Z",
+  updatedAt: "2026-12-01T00:00:00Z",
+  spec: { ...DEFAULT_SPEC, layout: "inline-4", cylinders: 4, maxRpm: 6000 },
+} as Job;
+
+const emptyPlan = {
+  complete: false,
+  missing: [],
+  removal: null,
+  finished: null,
+  reweighed: 0,
+  drill: {},
+  pairing: null,
+  error: null,
+} as unknown as Workshop["plan"];
+
+function workshopWith(records: { part: "flywheel" | "crankshaft"; data: RotatingRecordInput }[]) {
+  const rotating = records.map((r) => {
+    const record = { ...r, version: 1, updatedAt: "2026-12-02T00:00:00Z" };
+    return { ...record, check: checkRotatingRecord(record) };
+  });
+  return { job, weights: [], targets: [], rotating, plan: emptyPlan } as Workshop;
+}
+
+type Call = { method: string; url: string; body: Record<string, unknown> | null };
+let calls: Call[];
+let current: Workshop;
+
+beforeEach(() => {
+  calls = [];
+  vi.stubGlobal("fetch", async (url: string, init: RequestInit = {}) => {
+    const call = {
+      method: init.method ?? "GET",
+      url,
+      body: init.body ? JSON.parse(String(init.body)) : null,
+    };
+    calls.push(call);
+    // The helpers' route answers with the real calculation behind it.
+    const body =
+      call.method === "GET"
+        ? current
+        : url === "/api/balance/hole"
+          ? workOutHole(holeRequestSchema.parse(call.body))
+          : { record: { version: 2 } };
+    return new Response(JSON.stringify(body), {
+      status: 200,
+      headers: { "content-type": "application/json" },
+    });
+  });
+});
+afterEach(() => {
+  cleanup();
+  vi.unstubAllGlobals();
+});
+
+function renderScreen(initial: Workshop) {
+  current = initial;
+  const client = new QueryClient({
+    defaultOptions: { queries: { retry: false, staleTime: Infinity } },
+  });
+  render(
+    <QueryClientProvider client={client}>
+      <RotatingParts jobId={job.id} initial={initial} canEdit />
+    </QueryClientProvider>,
+  );
+  return userEvent.setup();
+}
+
+const puts = () => calls.filter((c) => c.method === "PUT");
+
+describe("saving a rotating-part record is never silent", () => {
+  it("names a correction row without grams beside the row and says it was not saved", async () => {
+    const user = renderScreen(workshopWith([]));
+    await user.click(screen.getByRole("button", { name: "Add a correction" }));
+    await user.click(screen.getByRole("button", { name: "Save record" }));
+    expect((await screen.findByTestId("correction-0-error")).textContent).toContain(
+      "Correction 1: Enter the grams of this correction",
+    );
+    expect(screen.getByTestId("rotating-save-status").textContent).toContain(
+      "Not saved: one box needs attention",
+    );
+    expect(puts()).toHaveLength(0);
+  });
+
+  it("refuses an angle of 400° with a message beside the box", async () => {
+    const user = renderScreen(workshopWith([]));
+    await user.type(screen.getByLabelText("before plane A grams"), "3.1");
+    await user.type(screen.getByLabelText("before plane A angle"), "400");
+    await user.click(screen.getByRole("button", { name: "Save record" }));
+    expect(await screen.findByText("An angle from 0 to 360°.")).toBeTruthy();
+    expect(screen.getByTestId("rotating-save-status").textContent).toContain("Not saved");
+    expect(puts()).toHaveLength(0);
+  });
+
+  it("says Saved. once the server took it", async () => {
+    const user = renderScreen(workshopWith([]));
+    await user.type(screen.getByLabelText("Mass (kg)"), "20");
+    await user.click(screen.getByRole("button", { name: "Save record" }));
+    await waitFor(() =>
+      expect(screen.getByTestId("rotating-save-status").textContent).toContain("Saved."),
+    );
+    expect(puts()).toHaveLength(1);
+  });
+});
+
+describe("a flexplate read in one plane", () => {
+  // Invented: 10 kg, 3000 rpm, G 6.3, read at 100 mm. ISO 21940-11: e_per = 6.3 / (2π·3000/60)
+  // × 1000 = 20.05 g·mm/kg; U_per = 200.5 g·mm (shown to whole g·mm: 201), all in the one
+  // plane = 2.0 g at 100 mm.
+  const flexplate: RotatingRecordInput = {
+    massKg: "10",
+    rpm: 3000,
+    grade: "6.3",
+    radiusMm: "100",
+    before: { A: { mass: "12" } },
+    after: { A: { mass: "1.9" } },
+  };
+
+  it("leads the verdict with grams at the balancer radius, then g·mm", async () => {
+    const user = renderScreen(workshopWith([{ part: "flywheel", data: flexplate }]));
+    await user.click(screen.getByRole("tab", { name: /Flywheel/ }));
+    const verdict = screen.getByTestId("rotating-verdict");
+    expect(verdict.textContent).toContain("After: within the grade");
+    expect(verdict.textContent).toContain("Residual 1.9 g at 100 mm — allowed 2.0 g: pass");
+    expect(verdict.textContent).toContain("190 of 201 g·mm");
+    expect(verdict.textContent).toContain("Before: over the grade");
+    expect(within(verdict).getByText(/e_per 20 g·mm\/kg/)).toBeTruthy();
+    expect((screen.getByRole("radio", { name: /One plane/ }) as HTMLInputElement).checked).toBe(
+      true,
+    );
+  });
+});
+
+describe("the correction helpers", () => {
+  it("sizes a hole for a 3/8 in drill and shows the depth in inches first", async () => {
+    const user = renderScreen(workshopWith([]));
+    const drill = within(screen.getByTestId("helper-drill"));
+    await user.type(drill.getByLabelText("Mass to take out (g)"), "5");
+    await user.type(drill.getByLabelText("Drill size"), "3/8");
+    await user.type(drill.getByLabelText("Metal there is (mm, optional)"), "9");
+    await user.click(drill.getByRole("button", { name: "Work it out" }));
+    // Hand check (DOMAIN §4): r = 4.7625 mm, V = 5 / 7.85 × 1000 = 636.94 mm³,
+    // T = 636.94 / 71.256 + 2 × 2.8616 / 3 = 10.847 mm = 0.427 in.
+    await waitFor(() =>
+      expect(screen.getByTestId("helper-drill").textContent).toContain(
+        'Drill 3/8" (9.53 mm) to 0.427 in (10.8 mm) at the tip to take out 5 g.',
+      ),
+    );
+    expect(screen.getByTestId("helper-drill").textContent).toContain("Deeper than the 0.354 in");
+    expect(calls.find((c) => c.url === "/api/balance/hole")!.body).toMatchObject({
+      kind: "drill",
+      diameter: "3/8",
+      density: "7.85",
+    });
+  });
+
+  it("refuses a drill size it cannot read beside the box, without asking the server", async () => {
+    const user = renderScreen(workshopWith([]));
+    const drill = within(screen.getByTestId("helper-drill"));
+    await user.type(drill.getByLabelText("Mass to take out (g)"), "5");
+    await user.type(drill.getByLabelText("Drill size"), "3/8x");
+    await user.click(drill.getByRole("button", { name: "Work it out" }));
+    expect((await drill.findByText(/is not a size we read/)).textContent).toContain("3/8x");
+    expect(calls.filter((c) => c.url === "/api/balance/hole")).toHaveLength(0);
+  });
+
+  it("counts the point's empty cone under a ½ in heavy-metal plug", async () => {
+    const user = renderScreen(workshopWith([]));
+    const plug = within(screen.getByTestId("helper-plug"));
+    await user.type(plug.getByLabelText("Plug size"), '1/2"');
+    await user.type(plug.getByLabelText("Plug length (mm)"), "25");
+    await user.click(plug.getByRole("button", { name: "Work it out" }));
+    // Worked by hand (DOMAIN §4): (18.0 − 7.85) × 3.16692 cm³ = 32.144 g, less the 118° cone's
+    // 161.11 mm³ of steel, 1.265 g: 30.88 g. Computed masses one decimal finer than 0.1 g.
+    await waitFor(() =>
+      expect(screen.getByTestId("helper-plug").textContent).toContain(
+        'A 1/2" plug adds 30.88 g to the part.',
+      ),
+    );
+    expect(screen.getByTestId("helper-plug").textContent).toContain(
+      "of which 1.26 g is the 118° point's cone",
+    );
+  });
+});
