@@ -16,6 +16,11 @@ const LISTED_MISSING = 4;
 /** Why a job cannot have a card yet, or null when it can. */
 export function cardBlocker(workshop: Workshop): string | null {
   const { plan, job } = workshop;
+  const held = plan.held[0];
+  if (plan.error && held) {
+    const more = plan.held.length > 1 ? ` (and ${plan.held.length - 1} more)` : "";
+    return `A card cannot carry a weight that is held on the weigh-in: cylinder ${held.cylinder} ${KIND_NAMES[held.kind]} ${held.finding}${more}. Confirm it as read or retype it there first.`;
+  }
   if (plan.error) return `The balance figures cannot be worked out: ${plan.error.message}`;
   if (plan.complete) return null;
   if (!job.spec.layout || !job.spec.cylinders)

@@ -11,23 +11,35 @@ import { findJobForUser } from "@/lib/jobs/access";
 import { renderBalanceCard } from "@/lib/pdf/balance-card";
 import { loadWorkshop } from "@/lib/workshop/load";
 import { cardBlocker } from "./blocker";
-import { buildCardData } from "./card-data";
+import { buildCardData, type CardData } from "./card-data";
 import { newVerificationCode } from "./code";
+import { cardExceptions, describeExceptions } from "./exceptions";
+import { jobFingerprint, serializeFingerprint } from "./fingerprint";
 import { type CardSummary, toCardSummary } from "./summary";
 import { cardVerifyUrl } from "./urls";
 
 export interface IssueOptions {
   pageSize?: CardPageSize;
   now?: Date;
+  /** Issue although parts are outside the band, light, to re-select or confirmed outliers. */
+  override?: boolean;
+  /** Why: printed on the card with the parts it covers. Required with `override`. */
+  overrideReason?: string;
 }
 
 /**
- * Issues the next revision of a job's balance card: checks the weigh-in is complete, freezes the
- * figures into a snapshot, renders the PDF, and stores bytes, hash and snapshot (the previous
- * revision is marked superseded in the same transaction). The caller checks the role.
+ * Issues the next revision of a job's balance card: checks the weigh-in is complete and no weight
+ * is held, freezes the figures into a snapshot, renders the PDF, and stores bytes, hash, snapshot
+ * and the job's fingerprint (lib/cards/fingerprint.ts: what the card was made from, so a later
+ * change shows) — the previous revision is marked superseded in the same transaction. A set with
+ * parts outside the band, light, to re-select or confirmed as outliers (lib/cards/exceptions.ts)
+ * is issued only with `override` and a reason, and the card then lists those parts and the
+ * reason. The caller checks the role.
  *
- * @throws HttpError 404 for a job the user may not see, 422 when the weigh-in is not complete;
- *   ConflictError (409) when another revision was issued at the same moment
+ * @throws HttpError 404 for a job the user may not see, 422 `weigh_in_incomplete` when the
+ *   weigh-in is not complete or a weight is held, 422 `override_required` naming the parts when
+ *   the set has exceptions and no override with a reason; ConflictError (409) when another
+ *   revision was issued at the same moment
  */
 export async function issueCard(
   db: DB,
@@ -39,6 +51,12 @@ export async function issueCard(
   const workshop = await loadWorkshop(db, job);
   const blocker = cardBlocker(workshop);
   if (blocker) throw new HttpError(422, "weigh_in_incomplete", blocker, { weights: blocker });
+  const exceptions = cardExceptions(workshop);
+  const reason = options.override ? options.overrideReason?.trim() : undefined;
+  if (exceptions.length > 0 && !reason) {
+    const message = `This card would carry ${describeExceptions(exceptions)}. Tick "Issue with these parts" and give the reason to issue it, or correct the parts first.`;
+    throw new HttpError(422, "override_required", message, { override: message });
+  }
 
   const [customer, settings, logo, revision] = await Promise.all([
     findCustomerById(db, job.customerId),
@@ -49,7 +67,7 @@ export async function issueCard(
   const code = newVerificationCode();
   const issuedAt = (options.now ?? new Date()).toISOString();
   const pageSize = options.pageSize ?? env().CARD_PAGE_SIZE;
-  const data = buildCardData({
+  const built = buildCardData({
     workshop,
     customer: { name: customer?.name ?? job.customerName, company: customer?.company ?? null },
     settings,
@@ -61,6 +79,10 @@ export async function issueCard(
     pageSize,
     issuedAt,
   });
+  const data: CardData =
+    exceptions.length > 0 && reason
+      ? { ...built, override: { parts: exceptions.map((e) => e.text), reason } }
+      : built;
   const pdf = await renderBalanceCard(
     data,
     logo ? { data: logo.content, format: logo.contentType === "image/png" ? "png" : "jpg" } : null,
@@ -76,6 +98,8 @@ export async function issueCard(
       dataJson: JSON.stringify(data),
       verificationCode: code,
       issuedAt,
+      jobFingerprint: serializeFingerprint(jobFingerprint(workshop)),
+      overrideReason: data.override ? reason : null,
     },
     actor.id,
   );

@@ -210,6 +210,9 @@ export const API_PATHS: ZodOpenApiPathsObject = {
     get: op("The job's balance cards, every revision"),
     post: op("Issue a balance card (a new revision)", issueCardSchema),
   },
+  "/api/jobs/{id}/cards/status": {
+    get: op("Whether the current balance card still matches the job, and what changed"),
+  },
   "/api/jobs/{id}/cards/{revision}/pdf": {
     get: file("A balance card as issued", "application/pdf", cardParams),
   },

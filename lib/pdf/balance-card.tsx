@@ -435,6 +435,22 @@ function Notices({ notices }: { notices: string[] }) {
   );
 }
 
+/** Parts the machinist issued the card with although they are not as the set should be, and why. */
+function IssuedWithExceptions({ override }: { override: CardData["override"] }) {
+  if (!override || override.parts.length === 0) return null;
+  return (
+    <View style={s.section} wrap={false}>
+      <SectionHead title="Issued with parts outside the band" />
+      {override.parts.map((p, i) => (
+        <Text key={i} style={{ fontSize: 7.3, marginBottom: 1, color: REPLACE }}>
+          • {p}
+        </Text>
+      ))}
+      <Text style={{ fontSize: 7.3, marginTop: 1 }}>Reason: {override.reason}</Text>
+    </View>
+  );
+}
+
 /** A long address split where a reader expects it (before the path), as it cannot wrap itself. */
 function urlLines(url: string): string[] {
   const match = /^(https?:\/\/[^/]+)(\/.*)$/.exec(url);
@@ -530,6 +546,7 @@ export function BalanceCardDocument({ data, assets }: { data: CardData; assets: 
         <Bobweights data={data} />
         <RotatingParts data={data} />
         <Notices notices={data.notices} />
+        <IssuedWithExceptions override={data.override} />
 
         <View style={s.bottom} wrap={false}>
           <View style={s.cautions}>

@@ -14,8 +14,30 @@ export const pageSizeField = z.preprocess(
   z.enum(CARD_PAGE_SIZES, { message: "Choose A4 or Letter." }),
 );
 
-/** POST /api/jobs/:id/cards: the body (or `?pageSize=`) may choose the paper. */
-export const issueCardSchema = z.object({ pageSize: pageSizeField.optional() }).strict();
+/**
+ * POST /api/jobs/:id/cards: the body (or `?pageSize=`) may choose the paper. `override` with a
+ * reason issues a card whose parts are outside the band, light, to re-select or confirmed outliers.
+ */
+export const issueCardSchema = z
+  .object({
+    pageSize: pageSizeField.optional(),
+    override: z.boolean({ message: "Issue with these parts: yes or no." }).optional(),
+    overrideReason: z
+      .string({ message: "Give the reason as text." })
+      .trim()
+      .max(300, "Keep the reason under 300 characters.")
+      .optional(),
+  })
+  .strict()
+  .superRefine((input, ctx) => {
+    if (input.override && (input.overrideReason ?? "").length < 3)
+      ctx.addIssue({
+        code: "custom",
+        path: ["overrideReason"],
+        message:
+          "Give the reason for issuing the card with these parts; it is printed on the card.",
+      });
+  });
 export type IssueCardInput = z.infer<typeof issueCardSchema>;
 
 const blankToUndefined = (v: unknown) => (typeof v === "string" && v.trim() === "" ? undefined : v);

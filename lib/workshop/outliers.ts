@@ -31,6 +31,8 @@ export interface WeightCheck extends Plausibility {
   phase: WeighPhase;
   /** Says what is wrong and what to do, naming the part; null when the weight is plausible. */
   message: string | null;
+  /** What was found, without the part's name: "4009 g is 10× the other pistons (median 400.75 g)". */
+  finding: string | null;
 }
 
 export interface PartReadings {
@@ -80,21 +82,23 @@ export function checkPartWeight(
     allowance: job.spec.tolerance,
   });
   const single = others.length === 1 && others[0]!.length === 1 ? others[0]![0]! : null;
+  const described = result.outlier ? describeOutlier(job, part, result, single) : null;
   return {
     ...result,
     cylinder: part.cylinder,
     kind: part.kind,
     phase: part.phase,
-    message: result.outlier ? outlierMessage(job, part, result, single) : null,
+    message: described?.message ?? null,
+    finding: described?.finding ?? null,
   };
 }
 
-function outlierMessage(
+function describeOutlier(
   job: Job,
   part: PartReadings,
   result: Plausibility,
   singleOther: string | null,
-): string {
+): { message: string; finding: string } {
   const unit = job.spec.massUnit;
   const res = job.spec.scaleResolution;
   const name = PART_NAMES[part.kind];
@@ -104,7 +108,10 @@ function outlierMessage(
       ? `${part.readings[0]} ${unit}`
       : `${formatDerivedMass(result.weight, res)} ${unit} (mean of ${part.readings.length} readings)`;
   if (result.reason === "not-positive")
-    return `${subject}: ${typed} is not a weight. Weigh the part again and retype it.`;
+    return {
+      finding: `${typed} is not a weight`,
+      message: `${subject}: ${typed} is not a weight. Weigh the part again and retype it.`,
+    };
   const reference =
     result.basis === "median"
       ? `the other ${name.many} (median ${formatDerivedMass(result.reference!, res)} ${unit})`
@@ -116,7 +123,11 @@ function outlierMessage(
       ? `${formatUnbalance(result.ratio!)}× ${reference}`
       : `${formatUnbalance(deviation.replace("-", ""))} % ${deviation.startsWith("-") ? "lighter" : "heavier"} than ${reference}`;
   const hint = ratio >= 5 || ratio <= 0.2 ? " — a missed decimal point?" : ".";
-  return `${subject}: ${typed} is ${comparison}${hint} Confirm it if that is what the scale read, or retype it.`;
+  const finding = `${typed} is ${comparison}`;
+  return {
+    finding,
+    message: `${subject}: ${finding}${hint} Confirm it if that is what the scale read, or retype it.`,
+  };
 }
 
 export type OutlierCheck = WeightCheck & { confirmed: boolean };

@@ -85,6 +85,7 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "POST /api/jobs/[id]/cards": { allowed: BENCH },
   "GET /api/jobs/[id]/cards/[revision]/pdf": { allowed: EVERYONE, customer: "own-job" },
   "POST /api/jobs/[id]/cards/[revision]/send": { allowed: SHOP },
+  "GET /api/jobs/[id]/cards/status": { allowed: SHOP },
 
   // Quotes and invoices: the desk writes them; the customer reads, accepts and pays their own.
   "GET /api/quotes": { allowed: BILLING_READ, customer: "own-job" },

@@ -123,7 +123,10 @@ export async function seedShop(): Promise<Shop> {
   const prices = await listPriceItems(db);
 
   await saveLogoUpload(db, new File([new Uint8Array(await tinyPng())], "logo.png"), demo.owner);
-  const card = await issueCard(db, job.id, demo.machinist);
+  const card = await issueCard(db, job.id, demo.machinist, {
+    override: true,
+    overrideReason: "Demo job: issued with its flagged parts",
+  });
   const upload = await saveJobUpload(
     db,
     job.id,

@@ -28,7 +28,9 @@ beforeEach(async () => {
 
 async function issue(jobId: number): Promise<CardSummary> {
   signInAs(users.machinist);
-  const res = await postCard(jsonRequest("POST", "/x"), params({ id: String(jobId) }));
+  // The demo V8 has a wrist pin over the band (to re-select): issued with a stated reason.
+  const body = { override: true, overrideReason: "Spare pin on order" };
+  const res = await postCard(jsonRequest("POST", "/x", body), params({ id: String(jobId) }));
   expect(res.status).toBe(201);
   return (await res.json()).card;
 }

@@ -24,7 +24,12 @@ beforeEach(async () => {
 });
 
 async function issueAndRead(jobId: number, pageSize?: "A4" | "LETTER") {
-  const card = await issueCard(db, jobId, users.machinist, pageSize ? { pageSize } : {});
+  // The demo V8 has a wrist pin over the band (to re-select): issued with a stated reason.
+  const override = { override: true, overrideReason: "Spare pin on order" };
+  const card = await issueCard(db, jobId, users.machinist, {
+    ...override,
+    ...(pageSize ? { pageSize } : {}),
+  });
   const file = await findCardFile(db, jobId, card.revision, users.owner);
   return { card, bytes: file.bytes, ...(await readPdf(file.bytes)) };
 }
