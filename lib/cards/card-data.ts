@@ -9,6 +9,7 @@ import {
   type MatchedKind,
   type PartStatus,
 } from "@/lib/balance";
+import { showLength } from "@/lib/jobs/lengths";
 import type { RotatingRecordInput } from "@/lib/validation/workshop";
 import type { Workshop } from "@/lib/workshop/load";
 
@@ -36,6 +37,10 @@ export interface CardPartFigure {
   reweighed: boolean;
   /** Against the target after machining. */
   status: PartStatus;
+  /** `before` is a mean of repeated readings: shown one decimal finer. Absent on older cards. */
+  beforeComputed?: boolean;
+  /** `after` is worked out (a planned weight or a mean): shown one decimal finer. */
+  afterComputed?: boolean;
 }
 
 export interface CardCylinder {
@@ -111,12 +116,16 @@ export interface CardData {
     boreMm: string | null;
     strokeMm: string | null;
     rodLengthMm: string | null;
+    /** Bore, stroke and rod length as typed, with their unit ("4.030 in"). Absent on older cards. */
+    dimensions?: { bore: string | null; stroke: string | null; rodLength: string | null };
     maxRpm: number | null;
     balanceType: "internal" | "external" | null;
   };
   unit: "g" | "oz";
   resolution: string;
   tolerance: string;
+  /** How the tolerance was applied: kind by kind, or whole reciprocating assemblies. */
+  matching?: "by-part" | "by-cylinder";
   scaleName: string | null;
   balancerName: string | null;
   /** The kinds of part weighed on this job, in bench order. */
@@ -130,16 +139,6 @@ export interface CardData {
   rotating: CardRotatingRecord[];
   /** What the balance engine flagged (light parts, spread readings, …). */
   notices: string[];
-  /**
-   * Issued although parts were outside the band, light, to re-select or confirmed outliers
-   * (lib/cards/exceptions.ts): those parts as printed and the machinist's reason. Absent otherwise.
-   */
-  override?: CardOverride | null;
-}
-
-export interface CardOverride {
-  parts: string[];
-  reason: string;
 }
 
 export interface CardDataInput {
@@ -157,7 +156,7 @@ export interface CardDataInput {
 
 /**
  * The card's content from a job whose weigh-in is complete. Figures stay exact decimal strings;
- * the PDF rounds them to the scale resolution when it prints them.
+ * the PDF rounds them by the display rule when it prints them (lib/cards/format.ts).
  *
  * @throws Error when the plan is not complete (callers check `plan.complete` first).
  */
@@ -180,11 +179,18 @@ export function buildCardData(input: CardDataInput): CardData {
     for (const p of finished.parts) {
       if (p.cylinder !== c.number || !isCardKind(p.kind)) continue;
       const key = `${p.cylinder}:${p.kind}`;
+      const first = before.get(key);
+      const beforeComputed = (first?.readings?.length ?? 1) > 1;
       parts[p.kind] = {
-        before: before.get(key)?.measured ?? p.measured,
+        before: first?.measured ?? p.measured,
         after: p.measured,
         reweighed: reweighed.has(key),
         status: p.status,
+        beforeComputed,
+        // Not re-weighed: the planned weight, worked out unless the part was left as weighed.
+        afterComputed: reweighed.has(key)
+          ? (p.readings?.length ?? 1) > 1
+          : beforeComputed || (first !== undefined && first.final !== first.measured),
       };
     }
     return {
@@ -224,19 +230,26 @@ export function buildCardData(input: CardDataInput): CardData {
       boreMm: job.spec.boreMm,
       strokeMm: job.spec.strokeMm,
       rodLengthMm: job.spec.rodLengthMm,
+      dimensions: {
+        bore: showLength(job.spec, "bore"),
+        stroke: showLength(job.spec, "stroke"),
+        rodLength: showLength(job.spec, "rodLength"),
+      },
       maxRpm: job.spec.maxRpm,
       balanceType: job.spec.balanceType,
     },
     unit: finished.unit,
     resolution: finished.resolution,
     tolerance: finished.tolerance,
+    matching: finished.matching,
     scaleName: job.spec.scaleName,
     balancerName: job.spec.balancerName,
     kinds,
     targets: finished.targets,
     cylinders,
     bobweightNeeded: finished.bobweightNeeded,
-    balanceFactor: finished.balanceFactor,
+    // A layout balanced without bobweights has no factor to print.
+    balanceFactor: finished.bobweightNeeded ? finished.balanceFactor : null,
     oilAllowance: finished.oilAllowance,
     bobweights: finished.bobweights.map((b) => ({
       crankpin: b.crankpin,
@@ -260,7 +273,7 @@ function isCardKind(kind: string): kind is CardPartKind {
  */
 function notices(removal: BalanceWarning[], finished: BalanceWarning[]): string[] {
   const kept = [
-    ...removal.filter((w) => w.code !== "part-light"),
+    ...removal.filter((w) => w.code !== "part-light" && w.code !== "balance-factor-unused"),
     ...finished.filter((w) => w.code === "part-light"),
   ];
   return [...new Set(kept.map((w) => w.message))];

@@ -1,23 +1,50 @@
-import Decimal from "decimal.js";
 import type { RotatingPart } from "@/db/schema";
-import { formatMass } from "@/lib/balance";
+import { formatDerivedMass, formatLength, formatMass, formatUnbalance } from "@/lib/balance";
 import type { CardPartKind } from "./card-data";
 
-// Display helpers for the card and the verification page: figures are rounded here and only here.
+// Display helpers for the card and the verification page: figures are rounded here and only
+// here, by the one display rule (lib/balance/display.ts).
 
-/** A mass rounded to the scale resolution, e.g. "497.2". */
+/** A weighed mass at the scale resolution, e.g. "497.2". */
 export function showMass(value: string, resolution: string): string {
   return formatMass(value, resolution);
 }
 
-/** A figure to a fixed number of decimals, halves away from zero, e.g. g·mm to one decimal. */
-export function showFixed(value: string, places: number): string {
-  return new Decimal(value).toDecimalPlaces(places, Decimal.ROUND_HALF_UP).toFixed(places);
+/** A computed mass (mean, target, sum, bobweight) one decimal finer than the scale, "497.25". */
+export function showDerivedMass(value: string, resolution: string): string {
+  return formatDerivedMass(value, resolution);
 }
 
-/** Up to `places` decimals without trailing zeros: "50", "52.5". */
-export function showTrimmed(value: string, places = 2): string {
-  return new Decimal(value).toDecimalPlaces(places, Decimal.ROUND_HALF_UP).toString();
+/** A mass that is either weighed or worked out, shown by the rule for each. */
+export function showFigure(value: string, resolution: string, computed: boolean): string {
+  return computed ? formatDerivedMass(value, resolution) : formatMass(value, resolution);
+}
+
+/** An unbalance (g·mm) or a balancer reading in grams: two significant figures at least. */
+export function showUnbalance(value: string): string {
+  return formatUnbalance(value);
+}
+
+/** A figure the machinist typed (a length, a rotor mass, a balancer reading), as typed. */
+export function showEntered(value: string): string {
+  return formatLength(value);
+}
+
+/**
+ * What the tolerance means as the engine enforces it: every finished part of a kind lies
+ * between the target (the lightest, unless set) and the target plus the tolerance, so all are
+ * within the tolerance of each other: a band that wide, not ± either side. Matched by
+ * cylinder, the whole reciprocating assemblies are banded that way, and the big ends.
+ */
+export function toleranceWording(
+  tolerance: string,
+  unit: string,
+  matching: "by-part" | "by-cylinder" = "by-part",
+): string {
+  const band = `all within ${tolerance} ${unit} of each other`;
+  return matching === "by-cylinder"
+    ? `Reciprocating assemblies ${band}, and the big ends`
+    : `Parts of each kind ${band}`;
 }
 
 /** "1 Dec 2026" (the day in UTC, so every reader sees the same date). */

@@ -5,7 +5,7 @@ import { findCardByAnyCode, findCardByCode, findCardByHash, type StoredCard } fr
 import { HttpError } from "@/lib/http/errors";
 import { parseCardData } from "./card-data";
 import { formatCode, normaliseCode } from "./code";
-import { showMass } from "./format";
+import { showDerivedMass } from "./format";
 
 /** What anyone holding a card may confirm about it: its key figures, nothing about the customer. */
 export interface VerifiedCard {
@@ -23,7 +23,7 @@ export interface VerifiedCard {
   bobweights: {
     needed: boolean;
     unit: "g" | "oz";
-    /** Exact figures and as printed on the card (rounded to the scale resolution). */
+    /** Exact figures and as printed on the card (a computed mass: one decimal finer than the scale). */
     perPin: { crankpin: number; cylinders: number[]; mass: string; printed: string }[];
   };
   /** The crankshaft's grade and whether its final readings are within it; null if not recorded. */
@@ -54,7 +54,7 @@ export function toVerifiedCard(card: StoredCard): VerifiedCard {
         crankpin: b.crankpin,
         cylinders: b.cylinders,
         mass: b.mass,
-        printed: showMass(b.mass, data.resolution),
+        printed: showDerivedMass(b.mass, data.resolution),
       })),
     },
     crank: crank?.recorded ? { grade: crank.grade, pass: crank.pass } : null,

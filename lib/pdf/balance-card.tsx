@@ -14,10 +14,12 @@ import {
   PART_LABELS,
   ROTATING_LABELS,
   showDate,
-  showFixed,
+  showDerivedMass,
+  showEntered,
+  showFigure,
   showGrade,
-  showMass,
-  showTrimmed,
+  showUnbalance,
+  toleranceWording,
 } from "@/lib/cards/format";
 import { CARD_CAUTIONS, NO_BOBWEIGHT_TEXT } from "@/lib/cards/wording";
 import { PDF_FONTS, registerPdfFonts } from "./fonts";
@@ -190,9 +192,13 @@ function PartCell({
   const mark = figureMark(figure, marks);
   return (
     <View style={s.cFig}>
-      <Fig style={s.before}>{showMass(figure.before, resolution)}</Fig>
+      <Fig style={s.before}>
+        {showFigure(figure.before, resolution, figure.beforeComputed ?? false)}
+      </Fig>
       <View style={{ flexDirection: "row", alignItems: "flex-start" }}>
-        <Fig style={s.after}>{showMass(figure.after, resolution)}</Fig>
+        <Fig style={s.after}>
+          {showFigure(figure.after, resolution, figure.afterComputed ?? false)}
+        </Fig>
         {mark ? <Text style={[s.mark, { color: mark.color }]}>{mark.text}</Text> : null}
       </View>
     </View>
@@ -213,10 +219,11 @@ function PartsTable({ data }: { data: CardData }) {
     <View style={s.section}>
       <SectionHead
         title={`Matched parts, ${unit}`}
-        note={`Tolerance ± ${showMass(data.tolerance, data.resolution)} ${unit} · scale resolution ${data.resolution} ${unit}`}
+        note={`${toleranceWording(data.tolerance, unit, data.matching)} · scale resolution ${data.resolution} ${unit}`}
       />
       <Text style={[s.note, { marginBottom: 2 }]}>
-        {legend} L light: needs a heavier part. H still above the band.
+        {legend} Worked-out figures (means, planned weights, sums, targets) carry one decimal more
+        than the scale. L light: needs a heavier part. H still above the band.
       </Text>
       <View style={s.tableHead} fixed>
         <Text style={s.cNo}>CYL</Text>
@@ -238,11 +245,11 @@ function PartsTable({ data }: { data: CardData }) {
           ))}
           <View style={s.cFig}>
             <Text style={s.before}> </Text>
-            <Fig style={s.after}>{showMass(c.reciprocating, data.resolution)}</Fig>
+            <Fig style={s.after}>{showDerivedMass(c.reciprocating, data.resolution)}</Fig>
           </View>
           <View style={s.cFig}>
             <Text style={s.before}> </Text>
-            <Fig style={s.after}>{showMass(c.rotating, data.resolution)}</Fig>
+            <Fig style={s.after}>{showDerivedMass(c.rotating, data.resolution)}</Fig>
           </View>
         </View>
       ))}
@@ -252,7 +259,9 @@ function PartsTable({ data }: { data: CardData }) {
           const t = target(k);
           return t ? (
             <View key={k} style={s.cFig}>
-              <Fig style={[s.after, { fontWeight: 500 }]}>{showMass(t, data.resolution)}</Fig>
+              <Fig style={[s.after, { fontWeight: 500 }]}>
+                {showDerivedMass(t, data.resolution)}
+              </Fig>
             </View>
           ) : (
             <Text key={k} style={[s.cFig, s.note, { textAlign: "right" }]}>
@@ -277,12 +286,12 @@ function Bobweights({ data }: { data: CardData }) {
       </View>
     );
   }
-  const factor = data.balanceFactor ? showTrimmed(data.balanceFactor) : "—";
+  const factor = data.balanceFactor ? showEntered(data.balanceFactor) : "—";
   return (
     <View style={s.section} wrap={false}>
       <SectionHead
         title="Bobweights"
-        note={`Balance factor ${factor} % · oil allowance ${showMass(data.oilAllowance, data.resolution)} ${unit} per crankpin`}
+        note={`Balance factor ${factor} % · oil allowance ${showEntered(data.oilAllowance)} ${unit} per crankpin`}
       />
       <Text style={[s.note, { marginBottom: 2 }]}>
         Bobweight = rotating mass (big ends, bearings, oil allowance) + {factor} % of the
@@ -300,13 +309,13 @@ function Bobweights({ data }: { data: CardData }) {
           <Fig style={{ width: 70 }}>{String(b.crankpin)}</Fig>
           <Text style={{ width: 90 }}>{b.cylinders.join(" & ")}</Text>
           <View style={s.cFig}>
-            <Fig>{showMass(b.rotating, data.resolution)}</Fig>
+            <Fig>{showDerivedMass(b.rotating, data.resolution)}</Fig>
           </View>
           <View style={s.cFig}>
-            <Fig>{showMass(b.reciprocating, data.resolution)}</Fig>
+            <Fig>{showDerivedMass(b.reciprocating, data.resolution)}</Fig>
           </View>
           <View style={s.cFig}>
-            <Fig style={s.bobweight}>{showMass(b.mass, data.resolution)}</Fig>
+            <Fig style={s.bobweight}>{showDerivedMass(b.mass, data.resolution)}</Fig>
           </View>
         </View>
       ))}
@@ -330,11 +339,11 @@ function RotatingRecordBlock({ record }: { record: CardRotatingRecord }) {
   const facts = [
     record.grade ? `${showGrade(record.grade)}` : null,
     record.rpm ? `service speed ${record.rpm} rpm` : null,
-    record.massKg ? `rotor ${showTrimmed(record.massKg, 3)} kg` : null,
-    record.radiusMm ? `balancer radius ${showTrimmed(record.radiusMm, 2)} mm` : null,
+    record.massKg ? `rotor ${showEntered(record.massKg)} kg` : null,
+    record.radiusMm ? `balancer radius ${showEntered(record.radiusMm)} mm` : null,
   ].filter(Boolean);
   const residual = (side: { residual: string; mass: string } | null) =>
-    side ? `${showFixed(side.residual, 1)} (${showFixed(side.mass, 2)} g)` : "—";
+    side ? `${showUnbalance(side.residual)} (${showEntered(side.mass)} g)` : "—";
   return (
     <View wrap={false} style={{ marginBottom: 3 }}>
       <View style={s.recordHead}>
@@ -358,7 +367,7 @@ function RotatingRecordBlock({ record }: { record: CardRotatingRecord }) {
               <Text style={{ width: 50 }}>{p.plane}</Text>
               <View style={s.cFig}>
                 <Fig>
-                  {`${showFixed(p.allowed, 1)}${p.allowedMass ? ` (${showFixed(p.allowedMass, 2)} g)` : ""}`}
+                  {`${showUnbalance(p.allowed)}${p.allowedMass ? ` (${showUnbalance(p.allowedMass)} g)` : ""}`}
                 </Fig>
               </View>
               <View style={s.cFig}>
@@ -388,7 +397,7 @@ function RotatingRecordBlock({ record }: { record: CardRotatingRecord }) {
           {record.corrections
             .map(
               (c) =>
-                `plane ${c.plane}, ${METHOD_LABELS[c.method] ?? c.method} ${c.mass} g${c.where ? ` (${c.where})` : ""}`,
+                `plane ${c.plane}, ${METHOD_LABELS[c.method] ?? c.method} ${showEntered(c.mass)} g${c.where ? ` (${c.where})` : ""}`,
             )
             .join("; ")}
           .
@@ -468,11 +477,16 @@ export function BalanceCardDocument({ data, assets }: { data: CardData; assets: 
   const code = formatCode(data.code);
   const job = data.job;
   const unit = data.unit;
+  // Lengths as typed, in the unit typed; older cards kept only the mm figures.
+  const typed = job.dimensions;
+  const mm = (v: string | null) => (v ? `${showEntered(v)} mm` : null);
   const dims = [
-    job.boreMm ? `bore ${showTrimmed(job.boreMm, 2)}` : null,
-    job.strokeMm ? `stroke ${showTrimmed(job.strokeMm, 2)}` : null,
-    job.rodLengthMm ? `rod ${showTrimmed(job.rodLengthMm, 2)}` : null,
-  ].filter(Boolean);
+    ["bore", typed ? typed.bore : mm(job.boreMm)],
+    ["stroke", typed ? typed.stroke : mm(job.strokeMm)],
+    ["rod", typed ? typed.rodLength : mm(job.rodLengthMm)],
+  ]
+    .filter(([, v]) => v)
+    .map(([label, v]) => `${label} ${v}`);
   const shopLines = [data.shop.address, data.shop.phone, data.shop.email].filter((l): l is string =>
     Boolean(l),
   );
@@ -527,7 +541,7 @@ export function BalanceCardDocument({ data, assets }: { data: CardData; assets: 
           <Fact label="Layout">
             {`${job.layoutLabel ?? job.layout ?? "—"}, ${job.cylinders} cyl.`}
           </Fact>
-          <Fact label="Bore · stroke · rod, mm">{dims.length ? dims.join(" · ") : "—"}</Fact>
+          <Fact label="Bore · stroke · rod">{dims.length ? dims.join(" · ") : "—"}</Fact>
           <Fact label="Max rpm">{job.maxRpm ? String(job.maxRpm) : "—"}</Fact>
           <Fact label="Balance">
             {job.balanceType

@@ -76,7 +76,8 @@ describe("verifying a card by its code (public)", () => {
       crank: { grade: "6.3", pass: true },
       bobweights: { needed: true, unit: "g" },
     });
-    expect(verified.bobweights.perPin[0]).toMatchObject({ crankpin: 1, printed: "1891.0" });
+    // 1891.0 g worked out (rotating + ½ reciprocating): printed one decimal finer than the scale.
+    expect(verified.bobweights.perPin[0]).toMatchObject({ crankpin: 1, printed: "1891.00" });
   });
 
   it("reads a code typed in lower case, without the dash, or with O for 0", async () => {
