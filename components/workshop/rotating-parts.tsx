@@ -77,6 +77,9 @@ export function RotatingParts({
   const { data } = useWorkshop(jobId, initial);
   const workshop = data ?? initial;
   const [open, setOpen] = useState<RotatingPart>("crankshaft");
+  // Held here, not in the form: a save remounts the form on the record's new version, and the
+  // outcome must outlive that.
+  const [status, setStatus] = useState<Status>(null);
   return (
     <div className="space-y-4">
       <p className="text-sm text-graphite-600">
@@ -106,7 +109,10 @@ export function RotatingParts({
               role="tab"
               aria-selected={open === p.part}
               type="button"
-              onClick={() => setOpen(p.part)}
+              onClick={() => {
+                setOpen(p.part);
+                setStatus(null);
+              }}
               className={`rounded border px-3 py-2 text-left text-sm ${open === p.part ? "border-brass-500 bg-brass-50" : "border-graphite-200 bg-white"}`}
             >
               <span className="block font-semibold">{p.label}</span>
@@ -121,6 +127,8 @@ export function RotatingParts({
         part={open}
         workshop={workshop}
         canEdit={canEdit}
+        status={status}
+        setStatus={setStatus}
       />
       {canEdit ? <CorrectionHelpers part={open} workshop={workshop} /> : null}
     </div>
@@ -167,11 +175,15 @@ function RecordForm({
   part,
   workshop,
   canEdit,
+  status,
+  setStatus,
 }: {
   jobId: number;
   part: RotatingPart;
   workshop: Workshop;
   canEdit: boolean;
+  status: Status;
+  setStatus: (status: Status) => void;
 }) {
   const client = useQueryClient();
   const record = workshop.rotating.find((r) => r.part === part);
@@ -180,7 +192,6 @@ function RecordForm({
     defaultValues: initialValues(part, workshop),
   });
   const corrections = useFieldArray({ control: form.control, name: "corrections" });
-  const [status, setStatus] = useState<Status>(null);
   const planes = form.watch("planes");
   const planeNames: ("A" | "B")[] = planes === "one" ? ["A"] : ["A", "B"];
   const save = useMutation({
