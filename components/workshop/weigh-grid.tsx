@@ -9,16 +9,28 @@ import { z } from "zod";
 import type { PartKind, WeighPhase } from "@/db/schema";
 import type { PartWeight } from "@/db/weights";
 import { ApiError, apiFetch } from "@/lib/api-client";
+import { formatDerivedMass } from "@/lib/balance";
 import { readingsTextSchema } from "@/lib/validation/readings";
+import { checkPartWeight } from "@/lib/workshop/outliers";
 import type { WorkshopPlan } from "@/lib/workshop/plan";
 import type { Workshop } from "@/lib/workshop/load";
 import { WEIGH_COLUMNS } from "./part-kinds";
 import { useUpdateWorkshop, useWorkshop } from "./use-workshop";
 
 type CellState = {
-  state: "saving" | "saved" | "error" | "conflict";
+  state: "saving" | "saved" | "error" | "conflict" | "held";
   message?: string;
   theirs?: string;
+  /** For "held": the readings the server would not use until they are confirmed. */
+  text?: string;
+};
+type CommitOptions = {
+  /** Send even when the text is what the server holds (a confirmation, "Save mine"). */
+  version?: number;
+  /** The machinist keeps readings far from the rest of the kind (lib/workshop/outliers.ts). */
+  confirm?: boolean;
+  /** Move to the confirmation when the server holds the readings (the Enter flow). */
+  focusHeld?: boolean;
 };
 type Order = "by-kind" | "by-cylinder";
 
@@ -44,6 +56,11 @@ function spreadOf(text: string): string | null {
 /**
  * The weigh-in: one row per cylinder, one column per kind of part. Digits and Enter: each Enter
  * saves the cell and moves on in bench order (down a column, or along a row).
+ *
+ * A weight far from the rest of its kind (a missed decimal point) is held: the server refuses it
+ * (422 "outlier") until it is confirmed. When the grid sees one coming on Enter it stays on the
+ * part, sends it, and puts the server's answer with a "Keep" button in front of the machinist:
+ * Enter keeps the readings as read (sent again with `confirmOutlier`), Escape goes back to retype.
  */
 export function WeighGrid({
   jobId,
@@ -69,6 +86,9 @@ export function WeighGrid({
   // What the server holds for each cell of this phase: read synchronously between Enter and blur.
   const saved = useRef<Record<string, { text: string; version: number }>>({});
   const inflight = useRef<Record<string, string>>({});
+  // Readings the server held: the blur that follows moving to "Keep" must not send them again.
+  const held = useRef<Record<string, string>>({});
+  const keepButtons = useRef<Record<string, HTMLButtonElement | null>>({});
   const unit = workshop.job.spec.massUnit;
 
   const schema = useMemo(
@@ -110,7 +130,13 @@ export function WeighGrid({
   }, [order, cylinders]);
 
   const save = useMutation({
-    mutationFn: (body: { cylinder: number; kind: PartKind; readings: string[]; version: number }) =>
+    mutationFn: (body: {
+      cylinder: number;
+      kind: PartKind;
+      readings: string[];
+      version: number;
+      confirmOutlier?: true;
+    }) =>
       apiFetch<{ weight: PartWeight | null; plan: WorkshopPlan }>(`/api/jobs/${jobId}/weights`, {
         method: "PUT",
         body: { ...body, phase },
@@ -120,7 +146,7 @@ export function WeighGrid({
   const versionOf = (cylinder: number, kind: PartKind) =>
     saved.current[fieldName(cylinder, kind)]?.version ?? 0;
 
-  async function commit(cylinder: number, kind: PartKind, overrideVersion?: number) {
+  async function commit(cylinder: number, kind: PartKind, options: CommitOptions = {}) {
     const name = fieldName(cylinder, kind);
     const text = form.getValues(name) ?? "";
     const parsed = readingsTextSchema.safeParse(text);
@@ -130,12 +156,13 @@ export function WeighGrid({
     }
     const readings = parsed.data;
     const joined = readings.join(" ");
+    const forced = options.version !== undefined || options.confirm === true;
     // Enter moves on at once and the blur saves; a second call for the same text is not a new write.
-    if (
-      overrideVersion === undefined &&
-      (joined === saved.current[name]?.text || joined === inflight.current[name])
-    )
+    if (!forced && (joined === saved.current[name]?.text || joined === inflight.current[name]))
       return true;
+    // Held readings wait for "Keep" or a retype; leaving the box does not send them again.
+    if (!forced && joined === held.current[name]) return false;
+    delete held.current[name];
     inflight.current[name] = joined;
     setCells((s) => ({ ...s, [name]: { state: "saving" } }));
     try {
@@ -143,7 +170,8 @@ export function WeighGrid({
         cylinder,
         kind,
         readings,
-        version: overrideVersion ?? versionOf(cylinder, kind),
+        version: options.version ?? versionOf(cylinder, kind),
+        ...(options.confirm ? { confirmOutlier: true as const } : {}),
       });
       saved.current[name] = { text: joined, version: result.weight?.version ?? 0 };
       update((w) => ({
@@ -179,6 +207,21 @@ export function WeighGrid({
         setAnnounce(`Cylinder ${cylinder} ${kind}: changed elsewhere, not saved`);
         return false;
       }
+      if (
+        error instanceof ApiError &&
+        error.status === 422 &&
+        error.body.error.code === "outlier"
+      ) {
+        held.current[name] = joined;
+        setCells((s) => ({
+          ...s,
+          [name]: { state: "held", message: error.message, text: joined },
+        }));
+        setAnnounce(error.message);
+        // The button exists once React has drawn the held state.
+        if (options.focusHeld) setTimeout(() => keepButtons.current[name]?.focus(), 0);
+        return false;
+      }
       const message =
         error instanceof ApiError
           ? (Object.values(error.fields)[0] ?? error.message)
@@ -191,24 +234,101 @@ export function WeighGrid({
     }
   }
 
+  const nextAfter = (name: string, back = false) =>
+    sequence[sequence.indexOf(name) + (back ? -1 : 1)];
+
+  /** The same rule as the server, on what this grid knows: worth waiting for its answer? */
+  function looksHeld(cylinder: number, kind: PartKind, readings: string[]) {
+    if (readings.length === 0) return false;
+    const part = { cylinder, kind, phase, readings };
+    try {
+      return checkPartWeight(workshop.job, workshop.weights, part, workshop.outlierPercent).outlier;
+    } catch {
+      return false;
+    }
+  }
+
   function onKeyDown(event: KeyboardEvent<HTMLInputElement>, cylinder: number, kind: PartKind) {
     if (event.key !== "Enter") return;
     event.preventDefault();
     const name = fieldName(cylinder, kind);
-    if (!readingsTextSchema.safeParse(form.getValues(name) ?? "").success) {
+    const parsed = readingsTextSchema.safeParse(form.getValues(name) ?? "");
+    if (!parsed.success) {
       void form.trigger(name);
       return;
     }
-    const here = sequence.indexOf(name);
-    const next = sequence[here + (event.shiftKey ? -1 : 1)];
+    const next = nextAfter(name, event.shiftKey);
+    if (canEdit && !event.shiftKey && looksHeld(cylinder, kind, parsed.data)) {
+      // Stay on the part until the server has answered: it is held, or it was fine after all.
+      void commit(cylinder, kind, { focusHeld: true }).then((ok) => {
+        if (ok && next) inputs.current[next]?.focus();
+      });
+      return;
+    }
     // Moving on at once keeps up with fast typing; leaving the box saves it (onBlur).
     if (next) inputs.current[next]?.focus();
     else if (canEdit) void commit(cylinder, kind);
   }
 
+  async function keep(cylinder: number, kind: PartKind) {
+    const name = fieldName(cylinder, kind);
+    const ok = await commit(cylinder, kind, { confirm: true, version: versionOf(cylinder, kind) });
+    const next = nextAfter(name);
+    if (ok && next) inputs.current[next]?.focus();
+  }
+
+  function retype(cylinder: number, kind: PartKind) {
+    const name = fieldName(cylinder, kind);
+    delete held.current[name];
+    setCells((s) => ({ ...s, [name]: { state: "error", message: "Retype the weight." } }));
+    const input = inputs.current[name];
+    input?.focus();
+    input?.select();
+  }
+
+  // Held here (the server's answer to this grid's save) or held in the plan (saved before, or an
+  // outlier since other parts were weighed), for the phase on screen.
+  const heldParts: {
+    name: string;
+    cylinder: number;
+    kind: PartKind;
+    message: string;
+    text: string;
+  }[] = [];
+  for (const c of cylinders) {
+    for (const col of WEIGH_COLUMNS) {
+      const name = fieldName(c, col.kind);
+      const cell = cells[name];
+      if (cell?.state === "held") {
+        heldParts.push({
+          name,
+          cylinder: c,
+          kind: col.kind,
+          message: cell.message ?? "",
+          text: cell.text ?? "",
+        });
+        continue;
+      }
+      if (cell && cell.state !== "saved") continue;
+      const fromPlan = (workshop.plan.held ?? []).find(
+        (h) => h.phase === phase && h.cylinder === c && h.kind === col.kind,
+      );
+      if (fromPlan)
+        heldParts.push({
+          name,
+          cylinder: c,
+          kind: col.kind,
+          message: fromPlan.message ?? "",
+          text: saved.current[name]?.text ?? "",
+        });
+    }
+  }
+  const heldNames = new Set(heldParts.map((h) => h.name));
+
   function switchPhase(p: WeighPhase) {
     setPhase(p);
     setCells({});
+    held.current = {};
     form.reset(defaults(p));
   }
 
@@ -345,13 +465,18 @@ export function WeighGrid({
                         {cell?.state === "error" ? (
                           <span className="text-replace">{cell.message}</span>
                         ) : null}
+                        {heldNames.has(name) ? (
+                          <span className="font-semibold text-machine">held: confirm below</span>
+                        ) : null}
                         {cell?.state === "conflict" ? (
                           <span className="text-replace">
                             {cell.message}{" "}
                             <button
                               type="button"
                               className="underline"
-                              onClick={() => void commit(c, col.kind, versionOf(c, col.kind))}
+                              onClick={() =>
+                                void commit(c, col.kind, { version: versionOf(c, col.kind) })
+                              }
                             >
                               Save mine
                             </button>{" "}
@@ -365,7 +490,9 @@ export function WeighGrid({
                           </span>
                         ) : null}
                         {spread && !error ? (
-                          <span className="ml-1 text-graphite-500">spread {spread}</span>
+                          <span className="ml-1 text-graphite-500">
+                            spread {formatDerivedMass(spread, workshop.job.spec.scaleResolution)}
+                          </span>
                         ) : null}
                       </div>
                     </td>
@@ -376,6 +503,49 @@ export function WeighGrid({
           </tbody>
         </table>
       </div>
+      {heldParts.length > 0 ? (
+        <div
+          role="group"
+          aria-labelledby="held-title"
+          className="space-y-2 rounded border border-machine/40 bg-amber-50 p-3 text-sm"
+          data-testid="held-weights"
+        >
+          <h3 id="held-title" className="font-semibold">
+            Held until you confirm or retype (the plan waits for these)
+          </h3>
+          <ul className="space-y-2">
+            {heldParts.map((h) => (
+              <li key={h.name} data-testid={`held-${h.name}`}>
+                <span>{h.message}</span>{" "}
+                <span className="whitespace-nowrap">
+                  <button
+                    type="button"
+                    className="btn-secondary px-2 py-0.5 text-sm"
+                    ref={(el) => {
+                      keepButtons.current[h.name] = el;
+                    }}
+                    onClick={() => void keep(h.cylinder, h.kind)}
+                    onKeyDown={(e) => {
+                      if (e.key !== "Escape") return;
+                      e.preventDefault();
+                      retype(h.cylinder, h.kind);
+                    }}
+                  >
+                    Keep {h.text} {unit} (Enter)
+                  </button>{" "}
+                  <button
+                    type="button"
+                    className="px-2 py-0.5 text-sm underline"
+                    onClick={() => retype(h.cylinder, h.kind)}
+                  >
+                    Retype (Esc)
+                  </button>
+                </span>
+              </li>
+            ))}
+          </ul>
+        </div>
+      ) : null}
       <p aria-live="polite" className="sr-only" data-testid="weigh-announce">
         {announce}
       </p>

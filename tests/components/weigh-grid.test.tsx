@@ -30,8 +30,16 @@ const emptyPlan = {
   drill: {},
   pairing: null,
   error: null,
+  held: [],
 };
-const initial: Workshop = { job, weights: [], targets: [], rotating: [], plan: emptyPlan };
+const initial: Workshop = {
+  job,
+  weights: [],
+  targets: [],
+  rotating: [],
+  plan: emptyPlan,
+  outlierPercent: "5",
+};
 
 type Call = { method: string; url: string; body: Record<string, unknown> | null };
 let calls: Call[];
@@ -62,13 +70,13 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-function renderGrid() {
+function renderGrid(start: Workshop = initial) {
   const client = new QueryClient({
     defaultOptions: { queries: { retry: false, staleTime: Infinity } },
   });
   render(
     <QueryClientProvider client={client}>
-      <WeighGrid jobId={job.id} initial={initial} canEdit />
+      <WeighGrid jobId={job.id} initial={start} canEdit />
     </QueryClientProvider>,
   );
   return userEvent.setup();
@@ -110,7 +118,8 @@ describe("the weigh-in keyboard flow", () => {
     await user.click(cell(1, "Piston"));
     await user.keyboard("498.6 498.8{Enter}");
     await waitFor(() => expect(puts()[0]).toMatchObject({ readings: ["498.6", "498.8"] }));
-    expect(screen.getByTestId("cell-note-c1_piston").textContent).toContain("spread 0.2");
+    // A difference of readings is worked out: one decimal finer than the 0.1 g scale.
+    expect(screen.getByTestId("cell-note-c1_piston").textContent).toContain("spread 0.20");
   });
 
   it("stays on a box that is not a number, says why, and sends nothing", async () => {
@@ -156,5 +165,134 @@ describe("the weigh-in keyboard flow", () => {
       ),
     );
     expect(puts()).toHaveLength(1);
+  });
+});
+
+describe("a weight far from the rest of its kind", () => {
+  // Cylinder 1's piston is weighed at 498.6 g; "4986" for cylinder 2 is a missed decimal point:
+  // 4986 / 498.6 = 10×, far past the 5 % limit (common practice for a matched set).
+  const weighed: Workshop = {
+    ...initial,
+    weights: [
+      {
+        cylinder: 1,
+        kind: "piston",
+        phase: "initial",
+        readings: ["498.6"],
+        confirmedOutlier: false,
+        version: 1,
+        updatedAt: "now",
+      },
+    ],
+  };
+  const HELD_MESSAGE =
+    "Cylinder 2 piston: 4986 g is 10× the other piston (498.6 g) — a missed decimal point? " +
+    "Confirm it if that is what the scale read, or retype it.";
+
+  beforeEach(() => {
+    // The server's rule (tests/api/weights-outlier.test.ts covers it): 4986 is held unless confirmed.
+    answer = (call) =>
+      call.body?.readings &&
+      (call.body.readings as string[])[0] === "4986" &&
+      !call.body.confirmOutlier
+        ? {
+            status: 422,
+            body: {
+              error: { code: "outlier", message: HELD_MESSAGE, fields: { readings: HELD_MESSAGE } },
+            },
+          }
+        : {
+            status: 200,
+            body: {
+              weight: {
+                ...call.body,
+                confirmedOutlier: Boolean(call.body?.confirmOutlier),
+                version: 1,
+                updatedAt: "now",
+              },
+              plan: emptyPlan,
+            },
+          };
+  });
+
+  it("stays on the part, shows the server's answer and puts Keep under Enter", async () => {
+    const user = renderGrid(weighed);
+    await user.click(cell(2, "Piston"));
+    await user.keyboard("4986{Enter}");
+    await waitFor(() =>
+      expect(screen.getByTestId("held-c2_piston").textContent).toContain(HELD_MESSAGE),
+    );
+    expect(puts()).toEqual([
+      { cylinder: 2, kind: "piston", readings: ["4986"], version: 0, phase: "initial" },
+    ]);
+    const keep = screen.getByRole("button", { name: /Keep 4986 g/ });
+    await waitFor(() => expect(document.activeElement).toBe(keep));
+    expect(screen.getByTestId("cell-note-c2_piston").textContent).toContain("held");
+
+    // Enter keeps it as read: sent again with the confirmation, then on to the next part.
+    await user.keyboard("{Enter}");
+    await waitFor(() => expect(puts()).toHaveLength(2));
+    expect(puts()[1]).toEqual({
+      cylinder: 2,
+      kind: "piston",
+      readings: ["4986"],
+      version: 0,
+      phase: "initial",
+      confirmOutlier: true,
+    });
+    await waitFor(() => expect(document.activeElement).toBe(cell(1, "Wrist pin")));
+    expect(screen.queryByTestId("held-weights")).toBeNull();
+  });
+
+  it("goes back to the part on Escape, to retype it", async () => {
+    const user = renderGrid(weighed);
+    await user.click(cell(2, "Piston"));
+    await user.keyboard("4986{Enter}");
+    const keep = await screen.findByRole("button", { name: /Keep 4986 g/ });
+    await waitFor(() => expect(document.activeElement).toBe(keep));
+    await user.keyboard("{Escape}");
+    expect(document.activeElement).toBe(cell(2, "Piston"));
+    // The text is selected: typing replaces it.
+    await user.keyboard("498.6{Enter}");
+    expect(document.activeElement).toBe(cell(1, "Wrist pin"));
+    await waitFor(() => expect(puts()).toHaveLength(2));
+    expect(puts()[1]).toMatchObject({ cylinder: 2, readings: ["498.6"] });
+    expect(puts()[1]).not.toHaveProperty("confirmOutlier");
+  });
+
+  it("does not send held readings again when the box is left without an answer", async () => {
+    const user = renderGrid(weighed);
+    await user.click(cell(2, "Piston"));
+    await user.keyboard("4986{Enter}");
+    await screen.findByRole("button", { name: /Keep 4986 g/ });
+    await user.click(cell(1, "Wrist pin"));
+    await user.click(cell(2, "Piston"));
+    await user.click(cell(1, "Wrist pin"));
+    expect(puts()).toHaveLength(1);
+  });
+
+  it("shows a hold the server found that the grid did not expect, without taking the focus", async () => {
+    // Nothing weighed here yet: the grid cannot tell, so Enter moves on and the blur saves.
+    const user = renderGrid();
+    await user.click(cell(2, "Piston"));
+    await user.keyboard("4986{Enter}");
+    expect(document.activeElement).toBe(cell(1, "Wrist pin"));
+    await waitFor(() =>
+      expect(screen.getByTestId("held-c2_piston").textContent).toContain(HELD_MESSAGE),
+    );
+    expect(document.activeElement).toBe(cell(1, "Wrist pin"));
+  });
+
+  it("refuses zero at the grid, saying why, and sends nothing", async () => {
+    const user = renderGrid();
+    await user.click(cell(1, "Piston"));
+    await user.keyboard("0{Enter}");
+    expect(document.activeElement).toBe(cell(1, "Piston"));
+    await waitFor(() =>
+      expect(screen.getByTestId("cell-note-c1_piston").textContent).toContain(
+        "A weight of zero is not a reading",
+      ),
+    );
+    expect(puts()).toHaveLength(0);
   });
 });
