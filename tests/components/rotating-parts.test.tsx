@@ -157,6 +157,21 @@ describe("a flexplate read in one plane", () => {
   });
 });
 
+describe("choosing one plane or two", () => {
+  it("drops plane B from a crank record switched to one plane, and saves it as one", async () => {
+    const user = renderScreen(workshopWith([]));
+    expect(screen.getByLabelText("before plane B grams")).toBeTruthy();
+    await user.click(screen.getByRole("radio", { name: /One plane/ }));
+    expect(screen.queryByLabelText("before plane B grams")).toBeNull();
+    await user.type(screen.getByLabelText("after single plane grams"), "0.3");
+    await user.click(screen.getByRole("button", { name: "Save record" }));
+    await waitFor(() => expect(puts()).toHaveLength(1));
+    expect(puts()[0]!.body).toMatchObject({
+      data: { planes: "one", after: { A: { mass: "0.3" }, B: null } },
+    });
+  });
+});
+
 describe("the correction helpers", () => {
   it("sizes a hole for a 3/8 in drill and shows the depth in inches first", async () => {
     const user = renderScreen(workshopWith([]));
