@@ -20,6 +20,30 @@ export interface BuildRequestTable {
   updated_at: string;
 }
 
+export type BuildSectionName =
+  "specs" | "rings" | "tdc" | "cam" | "springs" | "clearances" | "deck";
+
+/** One section of a job's build record; `data_json` is checked by lib/build-record/schemas.ts. */
+export interface BuildSectionTable {
+  job_id: number;
+  section: BuildSectionName;
+  data_json: string;
+  version: number;
+  updated_by: number | null;
+  updated_at: string;
+}
+
+/** The shop's build settings, one row (id 1); `data_json` is checked by lib/build-record. */
+export interface BuildSettingsTable {
+  id: number;
+  data_json: string;
+  version: number;
+  updated_by: number | null;
+  updated_at: string;
+}
+
 export interface BuildRecordTables {
   build_requests: BuildRequestTable;
+  build_sections: BuildSectionTable;
+  build_settings: BuildSettingsTable;
 }

@@ -1,7 +1,7 @@
-import type { Kysely } from "kysely";
+import type { Kysely, Transaction } from "kysely";
 import { createAuditEntry } from "./audit";
-import type { BuildRequestState } from "./build-record-schema";
-import { lockJob } from "./dialect";
+import type { BuildRequestState, BuildSectionName } from "./build-record-schema";
+import { forUpdate, isUniqueViolation, lockJob } from "./dialect";
 import { NotFoundError, StaleWriteError } from "./errors";
 import type { Database } from "./schema";
 
@@ -155,5 +155,168 @@ export async function updateBuildRequestState(
       after: { text: saved.text, state: saved.state, note: saved.note },
     });
     return saved;
+  });
+}
+
+export interface StoredBuildSection {
+  section: BuildSectionName;
+  data: unknown;
+  version: number;
+  updatedBy: string | null;
+  updatedAt: string;
+}
+
+/** Every saved section of a job's build record (sections never saved are not listed). */
+export async function listBuildSections(db: Db, jobId: number): Promise<StoredBuildSection[]> {
+  const rows = await db
+    .selectFrom("build_sections")
+    .leftJoin("users", "users.id", "build_sections.updated_by")
+    .selectAll("build_sections")
+    .select("users.name as updater_name")
+    .where("build_sections.job_id", "=", jobId)
+    .execute();
+  return rows.map((r) => ({
+    section: r.section,
+    data: JSON.parse(r.data_json) as unknown,
+    version: r.version,
+    updatedBy: r.updater_name,
+    updatedAt: r.updated_at,
+  }));
+}
+
+/**
+ * Saves one section of a job's build record inside the caller's transaction (the service holds
+ * the job's lock), if the stored version is the one the caller read (0: never saved). An update
+ * is `UPDATE … WHERE version = ?` with the row count checked. Audited with before and after.
+ *
+ * @throws StaleWriteError (409) with the stored version
+ */
+export async function saveBuildSection(
+  trx: Transaction<Database>,
+  write: { jobId: number; section: BuildSectionName; data: unknown; baseVersion: number },
+  actorId: number | null,
+  now = new Date(),
+): Promise<{ version: number; updatedAt: string }> {
+  const before = await trx
+    .selectFrom("build_sections")
+    .selectAll()
+    .where("job_id", "=", write.jobId)
+    .where("section", "=", write.section)
+    .executeTakeFirst();
+  const current = before?.version ?? 0;
+  if (current !== write.baseVersion) throw new StaleWriteError("build record section", current);
+  const at = now.toISOString();
+  const data_json = JSON.stringify(write.data);
+  const version = write.baseVersion + 1;
+  if (before) {
+    const result = await trx
+      .updateTable("build_sections")
+      .set({ data_json, version, updated_by: actorId, updated_at: at })
+      .where("job_id", "=", write.jobId)
+      .where("section", "=", write.section)
+      .where("version", "=", write.baseVersion)
+      .executeTakeFirst();
+    if (Number(result.numUpdatedRows) !== 1) {
+      throw new StaleWriteError("build record section", current);
+    }
+  } else {
+    await trx
+      .insertInto("build_sections")
+      .values({
+        job_id: write.jobId,
+        section: write.section,
+        data_json,
+        version,
+        updated_by: actorId,
+        updated_at: at,
+      })
+      .execute();
+  }
+  await createAuditEntry(trx, {
+    userId: actorId,
+    action: "record",
+    entity: "build_section",
+    entityId: `${write.jobId}:${write.section}`,
+    before: before ? (JSON.parse(before.data_json) as unknown) : null,
+    after: write.data,
+  });
+  return { version, updatedAt: at };
+}
+
+export interface StoredBuildSettings {
+  data: unknown;
+  version: number;
+  updatedAt: string | null;
+}
+
+/** The shop's build settings as stored (version 0 and no data: never saved). */
+export async function findBuildSettings(db: Db): Promise<StoredBuildSettings> {
+  const row = await db
+    .selectFrom("build_settings")
+    .selectAll()
+    .where("id", "=", 1)
+    .executeTakeFirst();
+  return row
+    ? {
+        data: JSON.parse(row.data_json) as unknown,
+        version: row.version,
+        updatedAt: row.updated_at,
+      }
+    : { data: null, version: 0, updatedAt: null };
+}
+
+/**
+ * Saves the shop's build settings if the stored version is the one read (0: never saved);
+ * `UPDATE … WHERE version = ?` with the row count checked. Audited.
+ *
+ * @throws StaleWriteError (409) with the stored version
+ */
+export async function saveBuildSettings(
+  db: Db,
+  write: { data: unknown; baseVersion: number },
+  actorId: number | null,
+  now = new Date(),
+): Promise<{ version: number; updatedAt: string }> {
+  return db.transaction().execute(async (trx) => {
+    const before = await trx
+      .selectFrom("build_settings")
+      .selectAll()
+      .where("id", "=", 1)
+      .$call(forUpdate(trx))
+      .executeTakeFirst();
+    const current = before?.version ?? 0;
+    if (current !== write.baseVersion) throw new StaleWriteError("build settings", current);
+    const at = now.toISOString();
+    const data_json = JSON.stringify(write.data);
+    const version = current + 1;
+    if (before) {
+      const result = await trx
+        .updateTable("build_settings")
+        .set({ data_json, version, updated_by: actorId, updated_at: at })
+        .where("id", "=", 1)
+        .where("version", "=", write.baseVersion)
+        .executeTakeFirst();
+      if (Number(result.numUpdatedRows) !== 1) throw new StaleWriteError("build settings", current);
+    } else {
+      try {
+        await trx
+          .insertInto("build_settings")
+          .values({ id: 1, data_json, version, updated_by: actorId, updated_at: at })
+          .execute();
+      } catch (error) {
+        // Another first save got there: this one was based on nothing.
+        if (isUniqueViolation(error)) throw new StaleWriteError("build settings", 1);
+        throw error;
+      }
+    }
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "update",
+      entity: "build_settings",
+      entityId: 1,
+      before: before ? (JSON.parse(before.data_json) as unknown) : null,
+      after: write.data,
+    });
+    return { version, updatedAt: at };
   });
 }

@@ -10,8 +10,10 @@ import * as m0120 from "./20261202_0120_add_confirmed_outlier_to_part_weights";
 import * as m0121 from "./20261202_0121_add_outlier_percent_to_shop_settings";
 import * as m0122 from "./20261202_0122_add_job_fingerprint_to_balance_cards";
 import * as m0150 from "./20261202_0150_seed_job_number_sequences";
-
 import * as m0160 from "./20261202_0160_create_build_requests";
+import * as m0161 from "./20261202_0161_create_build_sections";
+import * as m0162 from "./20261202_0162_create_build_settings";
+
 // A static map of the same files, for tests and for code running inside Next (which cannot read
 // the folder at run time). `scripts/migrate.ts` reads the folder itself. Add each new file here.
 export const migrations: Record<string, Migration> = {
@@ -26,5 +28,7 @@ export const migrations: Record<string, Migration> = {
   "20261202_0121_add_outlier_percent_to_shop_settings": m0121,
   "20261202_0122_add_job_fingerprint_to_balance_cards": m0122,
   "20261202_0150_seed_job_number_sequences": m0150,
-};
   "20261202_0160_create_build_requests": m0160,
+  "20261202_0161_create_build_sections": m0161,
+  "20261202_0162_create_build_settings": m0162,
+};

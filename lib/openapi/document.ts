@@ -26,6 +26,8 @@ import {
 import { issueCardSchema, sendCardSchema } from "@/lib/validation/cards";
 import { acceptInviteSchema, newInviteSchema } from "@/lib/validation/invites";
 import { buildRequestNewSchema, buildRequestStateSchema } from "@/lib/build-record/request-schemas";
+import { BUILD_SECTIONS, sectionWriteSchema } from "@/lib/build-record/schemas";
+import { buildSettingsWriteSchema } from "@/lib/build-record/settings-schema";
 import {
   bookingSchema,
   pairingApplySchema,
@@ -314,6 +316,21 @@ export const API_PATHS: ZodOpenApiPathsObject = {
       undefined,
       z.object({ id: z.string(), requestId: z.string() }),
     ),
+  },
+  "/api/jobs/{id}/build": {
+    get: op("The job's build record, the shop's build settings and what the record works out to"),
+  },
+  "/api/jobs/{id}/build/{section}": {
+    put: op(
+      "Save one section of the build record (with the version read; 0 when never saved)",
+      z.union(BUILD_SECTIONS.map((s) => sectionWriteSchema(s))),
+      undefined,
+      z.object({ id: z.string(), section: z.enum(BUILD_SECTIONS) }),
+    ),
+  },
+  "/api/settings/build": {
+    get: op("The shop's build settings", undefined, undefined, none),
+    put: op("Save the shop's build settings (owner)", buildSettingsWriteSchema, undefined, none),
   },
 };
 

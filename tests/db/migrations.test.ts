@@ -22,6 +22,8 @@ describe(`migrations (${testEngine()})`, () => {
       "audit_log",
       "balance_cards",
       "build_requests",
+      "build_sections",
+      "build_settings",
       "customers",
       "invites",
       "invoice_lines",

@@ -1,0 +1,211 @@
+import type { Kysely } from "kysely";
+import {
+  findBuildSettings,
+  listBuildSections,
+  saveBuildSection,
+  saveBuildSettings,
+} from "@/db/build-record";
+import { lockJob } from "@/db/dialect";
+import type { Job } from "@/db/jobs";
+import type { Database } from "@/db/schema";
+import type { User } from "@/db/users";
+import { HttpError } from "@/lib/http/errors";
+import { type BuildRecordResults, evaluateBuildRecord } from "./evaluate";
+import {
+  BUILD_SECTIONS,
+  type BuildRecordData,
+  type BuildSection,
+  emptySection,
+  SECTION_SCHEMAS,
+} from "./schemas";
+import { type BuildSettings, buildSettingsSchema, EMPTY_BUILD_SETTINGS } from "./settings-schema";
+
+/** Who writes the build record; the counter reads it; a customer reads their own once ready. */
+export const WRITE_ROLES = ["machinist", "owner"] as const;
+const CUSTOMER_SEES = ["ready", "collected"];
+
+export interface SectionState {
+  version: number;
+  updatedBy: string | null;
+  updatedAt: string | null;
+}
+
+export interface BuildRecordView {
+  jobId: number;
+  data: BuildRecordData;
+  versions: Record<BuildSection, SectionState>;
+  settings: BuildSettings;
+  results: BuildRecordResults;
+}
+
+/** A refusal the schema cannot see, named by the field the machinist typed into (422). */
+export class BuildRecordError extends HttpError {
+  constructor(field: string, message: string) {
+    super(422, "invalid_input", message, { [field]: message });
+  }
+}
+
+/** The shop's build settings, or the empty ones before the owner has saved any. */
+export async function loadBuildSettings(
+  db: Kysely<Database>,
+): Promise<{ settings: BuildSettings; version: number }> {
+  const stored = await findBuildSettings(db);
+  const parsed = stored.data === null ? null : buildSettingsSchema.safeParse(stored.data);
+  return {
+    settings: parsed?.success ? parsed.data : EMPTY_BUILD_SETTINGS,
+    version: stored.version,
+  };
+}
+
+/**
+ * A job's build record with what it works out to. A customer sees their own job's record only
+ * once the job is ready or collected (403 before); the job itself was found for this user.
+ *
+ * @throws HttpError 403 for a customer before the job is ready
+ */
+export async function loadBuildRecord(
+  db: Kysely<Database>,
+  job: Job,
+  user: Pick<User, "role">,
+): Promise<BuildRecordView> {
+  if (user.role === "customer" && !CUSTOMER_SEES.includes(job.status)) {
+    throw new HttpError(403, "forbidden", "The build record is shown once the job is ready.");
+  }
+  const stored = await listBuildSections(db, job.id);
+  const unit = job.spec.lengthUnit === "mm" ? "mm" : "in";
+  const data = {} as Record<BuildSection, unknown>;
+  const versions = {} as Record<BuildSection, SectionState>;
+  for (const section of BUILD_SECTIONS) {
+    const row = stored.find((s) => s.section === section);
+    const parsed = row ? SECTION_SCHEMAS[section].safeParse(row.data) : null;
+    data[section] = parsed?.success ? parsed.data : emptySection(section, unit);
+    versions[section] = {
+      version: row?.version ?? 0,
+      updatedBy: row?.updatedBy ?? null,
+      updatedAt: row?.updatedAt ?? null,
+    };
+  }
+  const record = data as BuildRecordData;
+  const { settings } = await loadBuildSettings(db);
+  return {
+    jobId: job.id,
+    data: record,
+    versions,
+    settings,
+    results: evaluateBuildRecord(record, settings),
+  };
+}
+
+const RING_WORDS = { top: "top ring", second: "second ring", oil: "oil rails" } as const;
+
+/** Refuses what only the job and the rest of the record can tell apart (422 by field). */
+function checkSection(
+  job: Job,
+  record: BuildRecordData,
+  section: BuildSection,
+  settings: BuildSettings,
+) {
+  const cylinders = job.spec.cylinders;
+  const rows =
+    section === "rings" || section === "springs" || section === "deck"
+      ? (record[section].rows as { cylinder: number }[])
+      : [];
+  rows.forEach((row, i) => {
+    if (cylinders !== null && row.cylinder > cylinders) {
+      throw new BuildRecordError(
+        `data.rows.${i}.cylinder`,
+        `Cylinder ${row.cylinder}: this engine has ${cylinders} cylinders.`,
+      );
+    }
+  });
+  const seen = new Set<string>();
+  const key = (i: number): string => {
+    if (section === "rings") {
+      const r = record.rings.rows[i]!;
+      return `cylinder ${r.cylinder} ${RING_WORDS[r.ring]}`;
+    }
+    if (section === "springs") {
+      const r = record.springs.rows[i]!;
+      return `cylinder ${r.cylinder} ${r.valve} spring`;
+    }
+    if (section === "deck") return `cylinder ${record.deck.rows[i]!.cylinder}`;
+    const r = record.clearances.rows[i]!;
+    return `${r.kind} journal ${r.journal}`;
+  };
+  const all = section === "clearances" ? record.clearances.rows : rows;
+  all.forEach((_row, i) => {
+    const k = key(i);
+    if (seen.has(k)) {
+      throw new BuildRecordError(
+        `data.rows.${i}`,
+        `${k[0]!.toUpperCase()}${k.slice(1)} is listed twice.`,
+      );
+    }
+    seen.add(k);
+  });
+  if (section === "rings") {
+    const results = evaluateBuildRecord(record, settings).rings;
+    record.rings.rows.forEach((row, i) => {
+      if (!row.done) return;
+      const name = `Cylinder ${row.cylinder} ${RING_WORDS[row.ring]}`;
+      const r = results[i]!;
+      if (r.measured === null) {
+        throw new BuildRecordError(
+          `data.rows.${i}.done`,
+          `${name}: measure the gap before ticking it done.`,
+        );
+      }
+      if (r.result === null || !r.result.ok) {
+        throw new BuildRecordError(
+          `data.rows.${i}.done`,
+          `${name}: set the finished bore and the gap factor first, so the gap can be checked.`,
+        );
+      }
+      if (r.result.value.status === "tight") {
+        throw new BuildRecordError(
+          `data.rows.${i}.done`,
+          `${name}: still tight (${r.measured} against ${r.result.value.target}); file the ring ends square and measure again.`,
+        );
+      }
+    });
+  }
+}
+
+/**
+ * Saves one section of a job's build record (machinist or owner) with the version read, after
+ * the checks the schema cannot make: cylinders the engine has, no part listed twice, and no ring
+ * ticked done while its last gap is tight (or unmeasured). Answers the whole record again.
+ *
+ * @throws BuildRecordError (422) naming the field; StaleWriteError (409) for an older version
+ */
+export async function saveSection(
+  db: Kysely<Database>,
+  job: Job,
+  section: BuildSection,
+  write: { version: number; data: unknown },
+  actor: User,
+): Promise<BuildRecordView> {
+  return db.transaction().execute(async (trx) => {
+    // The job's lock first, so the checks and the write see the same record.
+    await lockJob(trx, job.id);
+    const current = await loadBuildRecord(trx, job, actor);
+    const record = { ...current.data, [section]: write.data } as BuildRecordData;
+    checkSection(job, record, section, current.settings);
+    await saveBuildSection(
+      trx,
+      { jobId: job.id, section, data: write.data, baseVersion: write.version },
+      actor.id,
+    );
+    return loadBuildRecord(trx, job, actor);
+  });
+}
+
+/** Saves the shop's build settings (owner) with the version read. */
+export async function saveSettings(
+  db: Kysely<Database>,
+  write: { version: number; settings: BuildSettings },
+  actor: User,
+): Promise<{ settings: BuildSettings; version: number }> {
+  await saveBuildSettings(db, { data: write.settings, baseVersion: write.version }, actor.id);
+  return loadBuildSettings(db);
+}
