@@ -100,6 +100,20 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
         defaultValue={current.maxUploadMb}
         error={fields?.maxUploadMb}
       />
+      <div>
+        <Field
+          label="Oil allowance per rod for new jobs (g)"
+          name="oilAllowancePerRodG"
+          inputMode="decimal"
+          required
+          defaultValue={current.oilAllowancePerRodG}
+          error={fields?.oilAllowancePerRodG}
+        />
+        <p className="mt-1 text-xs text-graphite-600">
+          Added to each bobweight once per rod on the crankpin. 2–5 g per rod is common practice; a
+          fresh shop starts at 2 g. Jobs already booked keep their own figure.
+        </p>
+      </div>
       <TextArea
         label="Invoice footer: payment terms, bank details"
         name="invoiceFooter"

@@ -240,7 +240,7 @@ export function BookingForm() {
               },
             })}
           >
-            {LAYOUT_PRESETS.map((p) => (
+            {LAYOUT_PRESETS.filter((p) => !("replacedBy" in p && p.replacedBy)).map((p) => (
               <option key={p.id} value={p.id}>
                 {p.label}
               </option>

@@ -109,6 +109,17 @@ const SETTINGS: [keyof JobSpec, (b: Spec, a: Spec) => (string | null)[]][] = [
     ],
   ],
   [
+    "oilAllowancePerRod",
+    (b, a) => [
+      sentence(
+        "Oil allowance per rod",
+        massOf(b)(b.oilAllowancePerRod),
+        massOf(a)(a.oilAllowancePerRod),
+        "cleared: the per-crankpin figure is used",
+      ),
+    ],
+  ],
+  [
     "balanceFactor",
     (b, a) => [
       sentence(

@@ -36,7 +36,15 @@ const settingsSchema = jobSpecSchema
     maxRpm: true,
     promisedDate: true,
   })
-  .extend({ rodMaterial: z.string(), pistonMaterial: z.string() });
+  .extend({
+    rodMaterial: z.string(),
+    pistonMaterial: z.string(),
+    // Blank only on a job still on the older per-crankpin figure: it keeps that figure.
+    oilAllowancePerRod: z.preprocess(
+      (v) => (v === "" ? undefined : v),
+      jobSpecSchema.shape.oilAllowancePerRod,
+    ),
+  });
 type Values = z.input<typeof settingsSchema>;
 type Parsed = z.output<typeof settingsSchema>;
 type FieldName = keyof Values;
@@ -57,6 +65,7 @@ function formValues(job: Job): Values {
     tolerance: s.tolerance,
     balanceFactor: s.balanceFactor ?? "",
     oilAllowance: s.oilAllowance,
+    oilAllowancePerRod: s.oilAllowancePerRod ?? "",
     lengthUnit: s.lengthUnit,
     bore: lengthAsEntered(s, "bore") ?? "",
     stroke: lengthAsEntered(s, "stroke") ?? "",
@@ -110,8 +119,20 @@ export function JobSettingsForm({ job: initial, role }: { job: Job; role: string
   });
 
   function submit(v: Parsed) {
-    const { rodMaterial, pistonMaterial, ...spec } = v;
-    const all = { ...spec, material: JSON.stringify({ rod: rodMaterial, piston: pistonMaterial }) };
+    const { rodMaterial, pistonMaterial, oilAllowance, oilAllowancePerRod, ...spec } = v;
+    if (oilAllowancePerRod === undefined && job.spec.oilAllowancePerRod !== null) {
+      form.setError("oilAllowancePerRod", {
+        message: "Oil allowance per rod: enter a number like 2 (0 for none).",
+      });
+      return;
+    }
+    // The allowance goes one way: per rod once given, else the job's older per-crankpin figure.
+    const oil = oilAllowancePerRod === undefined ? { oilAllowance } : { oilAllowancePerRod };
+    const all = {
+      ...spec,
+      ...oil,
+      material: JSON.stringify({ rod: rodMaterial, piston: pistonMaterial }),
+    };
     setMessage(null);
     save.mutate({
       version: job.version,
@@ -187,7 +208,18 @@ export function JobSettingsForm({ job: initial, role }: { job: Job; role: string
           inputMode: "decimal",
         })
       )}
-      {field("oilAllowance", `Oil allowance per crankpin (${unit})`, { inputMode: "decimal" })}
+      {job.spec.oilAllowancePerRod === null
+        ? field("oilAllowance", `Oil allowance per crankpin (${unit}), older setting`, {
+            inputMode: "decimal",
+          })
+        : null}
+      {field(
+        "oilAllowancePerRod",
+        job.spec.oilAllowancePerRod === null
+          ? `Oil allowance per rod (${unit}; blank: keep per crankpin)`
+          : `Oil allowance per rod (${unit})`,
+        { inputMode: "decimal" },
+      )}
       {field("maxRpm", "Max service speed (rpm)", { inputMode: "numeric" })}
       <label className="text-sm">
         <span className="mb-1 block font-semibold">Lengths in</span>

@@ -6,6 +6,7 @@ import type { User } from "@/db/users";
 import {
   findLayoutPreset,
   type BalanceWarning,
+  type BobweightSet,
   type MatchedKind,
   type PartStatus,
 } from "@/lib/balance";
@@ -57,6 +58,8 @@ export interface CardBobweight {
   rotating: string;
   reciprocating: string;
   mass: string;
+  /** The oil allowance in this bobweight (rods on the pin × per rod). Absent on older cards. */
+  oil?: string;
 }
 
 export interface CardPlane {
@@ -135,7 +138,11 @@ export interface CardData {
   bobweightNeeded: boolean;
   balanceFactor: string | null;
   oilAllowance: string;
+  /** Per rod; null when the job used a per-crankpin figure. Absent on older cards. */
+  oilAllowancePerRod?: string | null;
   bobweights: CardBobweight[];
+  /** The figure to build the bobweights to, per number of rods on a pin. Absent on older cards. */
+  buildTo?: BobweightSet[];
   rotating: CardRotatingRecord[];
   /** What the balance engine flagged (light parts, spread readings, …). */
   notices: string[];
@@ -251,13 +258,16 @@ export function buildCardData(input: CardDataInput): CardData {
     // A layout balanced without bobweights has no factor to print.
     balanceFactor: finished.bobweightNeeded ? finished.balanceFactor : null,
     oilAllowance: finished.oilAllowance,
+    oilAllowancePerRod: finished.oilAllowancePerRod,
     bobweights: finished.bobweights.map((b) => ({
       crankpin: b.crankpin,
       cylinders: b.cylinders,
       rotating: b.rotating,
       reciprocating: b.reciprocating,
       mass: b.mass,
+      oil: b.oil,
     })),
+    buildTo: finished.buildTo,
     rotating: ROTATING_PARTS.map((part) => rotatingRecord(workshop, part)),
     notices: notices(removal.warnings, finished.warnings),
   };

@@ -1,5 +1,5 @@
 import { expect, type Page, test } from "@playwright/test";
-import { computeBalance, formatMass } from "@/lib/balance";
+import { computeBalance, formatDerivedMass } from "@/lib/balance";
 import { signInAs, signOut } from "./helpers";
 
 // An invented V8 set (g), typed at the bench: pistons, pins, retainers, rings, small ends, big ends, bearings.
@@ -77,9 +77,11 @@ test("a V8 from booking in to ready to collect, weighed by keyboard only", async
   const pistons = page.getByRole("region", { name: "Piston" });
   await expect(pistons.getByRole("row").filter({ hasText: /^3/ })).toContainText("1.9");
 
-  // Bobweights, checked against the engine itself run on the same weights (DOMAIN.md §3 formula).
+  // Bobweights, checked against the engine itself run on the same weights (DOMAIN.md §3 formula),
+  // with the fresh shop's oil allowance of 2 g per rod that the job was booked with.
   const expected = computeBalance({
     layout: { preset: "v8-cross-plane" },
+    oilAllowancePerRod: "2",
     cylinders: Array.from({ length: 8 }, (_, i) => ({
       number: i + 1,
       ...Object.fromEntries(KINDS.map((k, j) => [k, Object.values(SET)[j]![i]!])),
@@ -89,8 +91,15 @@ test("a V8 from booking in to ready to collect, weighed by keyboard only", async
   const cards = page.getByTestId("bobweights").getByRole("listitem");
   await expect(cards).toHaveCount(4);
   for (const [i, b] of expected.bobweights.entries()) {
-    await expect(cards.nth(i)).toContainText(formatMass(b.mass, "0.1"));
+    await expect(cards.nth(i)).toContainText(formatDerivedMass(b.mass, "0.1"));
   }
+  // One figure to build the set to: the mean of the four pins.
+  await expect(page.getByTestId("build-to")).toContainText(
+    formatDerivedMass(expected.buildTo[0]!.mass, "0.1"),
+  );
+  await expect(page.getByTestId("bobweight-basis")).toContainText(
+    "oil allowance 2.00 g per rod, 4.00 g per pin",
+  );
 
   // The crank on the balancer: before and after, against G 6.3.
   await page.getByRole("link", { name: "Crank & rotating" }).click();

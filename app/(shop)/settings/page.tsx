@@ -14,7 +14,8 @@ export default async function SettingsPage() {
       <h1 className="text-2xl font-semibold">Shop settings</h1>
       <p className="text-sm text-graphite-600">
         Printed on quotes and invoices. A new tax rate applies to invoices issued from now on;
-        invoices already issued keep the rate they were issued with.
+        invoices already issued keep the rate they were issued with. The oil allowance per rod is
+        where every new job starts; each job can change its own.
       </p>
       <SettingsForm settings={settings} />
       <p className="text-sm">

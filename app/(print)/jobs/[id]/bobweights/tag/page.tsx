@@ -1,19 +1,26 @@
+import { oilAllowanceLine, pinList, rodsWord } from "@/components/workshop/bobweight-text";
 import { PrintButton } from "@/components/ui/print-button";
 import { getDb } from "@/db/client";
-import { formatMass } from "@/lib/balance";
+import { formatDerivedMass, formatMass } from "@/lib/balance";
 import { loadPageJob } from "@/lib/jobs/page-job";
 import { loadWorkshop } from "@/lib/workshop/load";
 
 export const metadata = { title: "Bobweight tag" };
 export const dynamic = "force-dynamic";
 
-/** A tag that goes with the bobweights to the balancer: job, engine and the figure per crankpin. */
+/**
+ * A tag that goes with the bobweights to the balancer: job, engine, the figure to build the
+ * bobweights to, and each crankpin's own figure.
+ */
 export default async function BobweightTagPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const { job } = await loadPageJob(id, `/jobs/${id}/bobweights/tag`);
   const { plan } = await loadWorkshop(getDb(), job);
   const result = plan.finished;
   const unit = job.spec.massUnit;
+  const resolution = job.spec.scaleResolution;
+  const show = (v: string) => formatDerivedMass(v, resolution);
+  const oil = result ? oilAllowanceLine(result, show, unit) : null;
   return (
     <main className="mx-auto max-w-md p-6 print:p-0">
       <div
@@ -30,25 +37,41 @@ export default async function BobweightTagPage({ params }: { params: Promise<{ i
         ) : !result.bobweightNeeded ? (
           <p className="mt-4 text-xl font-semibold">No bobweight needed</p>
         ) : (
-          <table className="mt-4 w-full">
-            <tbody>
-              {result.bobweights.map((b) => (
-                <tr key={b.crankpin} className="border-t border-graphite-300">
-                  <td className="py-2 text-sm">
-                    Pin {b.crankpin}{" "}
-                    <span className="text-graphite-500">(cyl. {b.cylinders.join(", ")})</span>
-                  </td>
-                  <td className="py-2 text-right font-mono text-3xl font-semibold">
-                    {formatMass(b.mass, job.spec.scaleResolution)} {unit}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          result.buildTo.map((set) => (
+            <div key={set.rodsPerPin} className="mt-4 border-t-2 border-graphite-800 pt-3">
+              <p className="text-sm">
+                Build to ({pinList(set.pins)}, {rodsWord(set.rodsPerPin)} each)
+              </p>
+              <p className="font-mono text-4xl font-semibold" data-testid="tag-build-to">
+                {show(set.mass)} {unit}
+              </p>
+              <table className="mt-2 w-full text-sm">
+                <tbody>
+                  {set.pins.map((p) => (
+                    <tr key={p.crankpin} className="border-t border-graphite-300">
+                      <td className="py-1">Pin {p.crankpin}</td>
+                      <td className="py-1 text-right font-mono">
+                        {show(p.mass)} {unit}
+                      </td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+              {set.pins.length > 1 ? (
+                <p className="mt-1 text-xs">
+                  Spread {show(set.spread)} {unit}
+                  {set.spreadAboveResolution
+                    ? `: more than the scale resolution (${formatMass(resolution, resolution)} ${unit}); check the parts before building.`
+                    : "."}
+                </p>
+              ) : null}
+            </div>
+          ))
         )}
         {result?.bobweightNeeded ? (
           <p className="mt-3 text-xs">
-            Factor {result.balanceFactor} % · oil {result.oilAllowance} {unit}/pin · printed{" "}
+            Factor {result.balanceFactor} % ·{" "}
+            {oil?.none ? <strong>no oil allowance included</strong> : oil?.text} · printed{" "}
             {new Date().toISOString().slice(0, 10)}
           </p>
         ) : null}
