@@ -60,7 +60,7 @@ const JOBS: {
       strokeMm: "88.39",
       rodLengthMm: "152.4",
       maxRpm: 7000,
-      oilAllowance: "4",
+      oilAllowancePerRod: "2",
       drillDiameterMm: "9.5",
       scaleName: "Bench scale, 0.1 g",
       balancerName: "Soft-bearing crank balancer",
