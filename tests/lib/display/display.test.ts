@@ -6,6 +6,7 @@ import {
   formatLengthIn,
   formatMass,
   formatUnbalance,
+  convertMassSetting,
   isScaleDivision,
   lengthResolutionOf,
   massDecimals,
@@ -103,5 +104,30 @@ describe("lengths", () => {
     // 3.48 in = 88.392 mm
     expect(formatLengthIn("88.392", "in")).toBe("3.48 in");
     expect(formatLengthIn("92.00", "mm")).toBe("92.00 mm");
+  });
+});
+
+describe("convertMassSetting (a job's settings when it changes unit)", () => {
+  it("takes a resolution to the coarsest 1/2/5 × 10^k step not coarser than the exact value", () => {
+    // 0.1 g ÷ 28.349523125 = 0.0035274 oz (mathjs below): 0.005 would be coarser, 0.002 is not.
+    expect(evaluate("number(0.1 g, ounce)")).toBeCloseTo(0.0035274, 7);
+    expect(convertMassSetting("0.1", "g", "oz", "resolution")).toBe("0.002");
+    // 0.002 oz × 28.349523125 = 0.05669905 g → 0.05 g; 0.01 oz = 0.28349523 g → 0.2 g.
+    expect(convertMassSetting("0.002", "oz", "g", "resolution")).toBe("0.05");
+    expect(convertMassSetting("0.01", "oz", "g", "resolution")).toBe("0.2");
+    // 1 g = 0.035274 oz → 0.02 oz.
+    expect(convertMassSetting("1", "g", "oz", "resolution")).toBe("0.02");
+  });
+
+  it("rounds a tolerance or allowance to two significant figures", () => {
+    // 0.5 g = 0.0176370 oz → 0.018; 4 g = 0.141096 oz → 0.14; 0.018 oz = 0.510291 g → 0.51.
+    expect(convertMassSetting("0.5", "g", "oz", "amount")).toBe("0.018");
+    expect(convertMassSetting("4", "g", "oz", "amount")).toBe("0.14");
+    expect(convertMassSetting("0.018", "oz", "g", "amount")).toBe("0.51");
+    expect(convertMassSetting("0", "g", "oz", "amount")).toBe("0");
+    expect(Number(convertMassSetting("0.5", "g", "oz", "amount"))).toBeCloseTo(
+      evaluate("number(0.5 g, ounce)"),
+      3,
+    );
   });
 });
