@@ -56,8 +56,8 @@ test("a V8 from booking in to ready to collect, weighed by keyboard only", async
   await expect(page).toHaveURL(/\/jobs\/\d+$/);
   const jobUrl = new URL(page.url()).pathname;
   const jobNumber = (await page.getByRole("heading", { level: 1 }).textContent())!.trim();
-  // 4.030 in × 25.4 = 102.362 mm (NIST: 1 in = 25.4 mm exactly).
-  await expect(page.getByText("102.362 × 88.392 mm")).toBeVisible();
+  // Lengths come back as typed, in inches (the engine gets 4.030 × 25.4 = 102.362 mm).
+  await expect(page.getByText("4.030 in × 3.480 in")).toBeVisible();
   await moveTo(page, "On the scale");
   await signOut(page);
 
@@ -120,7 +120,7 @@ test("a V8 from booking in to ready to collect, weighed by keyboard only", async
   for (const label of ["At the machine", "On the balancer", "Final check", "Ready to collect"])
     await moveTo(page, label);
   await expect(page.getByTestId("job-changes")).toContainText(
-    "Cylinder 8 rod bearing shells (first weigh): empty → 52.1",
+    "Cylinder 8 rod bearing shells weighed: 52.1 g (first weigh)",
   );
   await signOut(page);
 
