@@ -49,6 +49,11 @@ export interface JobSpec {
    */
   oilAllowancePerRod: string | null;
   benchOrder: "by-kind" | "by-cylinder";
+  /**
+   * How the set is matched: each kind to its own target ("by-part") or each cylinder's
+   * reciprocating assembly to the lightest assembly ("by-cylinder"; see lib/balance computeBalance).
+   */
+  matching: "by-part" | "by-cylinder";
   drillDiameterMm: string | null;
   material: string | null;
   items: BroughtEntry[];
@@ -85,6 +90,7 @@ export const DEFAULT_SPEC: JobSpec = {
   oilAllowance: "0",
   oilAllowancePerRod: null,
   benchOrder: "by-kind",
+  matching: "by-part",
   drillDiameterMm: null,
   material: null,
   items: [],
@@ -118,6 +124,7 @@ function toSpec(row: JobRow): JobSpec {
     oilAllowance: row.oil_allowance ?? DEFAULT_SPEC.oilAllowance,
     oilAllowancePerRod: row.oil_allowance_per_rod,
     benchOrder: row.bench_order ?? DEFAULT_SPEC.benchOrder,
+    matching: row.matching,
     drillDiameterMm: row.drill_diameter_mm,
     material: row.material,
     items: row.items_json ? (JSON.parse(row.items_json) as BroughtEntry[]) : [],
@@ -161,6 +168,7 @@ function specColumns(spec: Partial<JobSpec>): Updateable<JobTable> {
           ? null
           : undefined,
     bench_order: spec.benchOrder,
+    matching: spec.matching,
     drill_diameter_mm: spec.drillDiameterMm,
     material: spec.material,
     items_json: spec.items === undefined ? undefined : JSON.stringify(spec.items),

@@ -73,6 +73,8 @@ export interface JobTable {
   /** Per rod, in the job's mass unit; null on jobs booked before it (they keep the per-crankpin figure). */
   oil_allowance_per_rod: string | null;
   bench_order: "by-kind" | "by-cylinder" | null;
+  /** "by-part" (each kind to its own target) or "by-cylinder" (whole reciprocating assemblies). */
+  matching: Generated<"by-part" | "by-cylinder">;
   drill_diameter_mm: string | null;
   material: string | null;
   items_json: string | null;

@@ -1,7 +1,7 @@
 import type { Kysely, Transaction } from "kysely";
 import { createAuditEntry } from "./audit";
 import { forUpdate, lockJob } from "./dialect";
-import { ConflictError, NotFoundError, StaleWriteError } from "./errors";
+import { NotFoundError, StaleWriteError } from "./errors";
 import type { Database, PartKind, RotatingPart, WeighPhase } from "./schema";
 
 /** One part's readings off the scale (decimal strings in the job's unit), first weigh or after machining. */
@@ -292,66 +292,5 @@ export async function saveRotatingRecord(
       after: write.data,
     });
     return { part: write.part, data: write.data, version, updatedAt: at };
-  });
-}
-
-const PISTON_ASSEMBLY: PartKind[] = ["piston", "wristPin", "retainers", "rings"];
-
-/**
- * Moves piston assemblies (piston, pin, retainers, rings; every phase) onto other rods, as the
- * machinist does at the bench when applying a suggested pairing. `moves` maps each rod's cylinder
- * to the cylinder its new piston comes from; it must be a permutation.
- */
-export async function reassignPistonAssemblies(
-  db: Kysely<Database>,
-  jobId: number,
-  moves: { rodCylinder: number; pistonFromCylinder: number }[],
-  actorId: number | null,
-  now = new Date(),
-): Promise<void> {
-  const targets = new Set(moves.map((m) => m.rodCylinder));
-  const sources = new Set(moves.map((m) => m.pistonFromCylinder));
-  if (
-    targets.size !== moves.length ||
-    sources.size !== moves.length ||
-    [...targets].some((t) => !sources.has(t))
-  ) {
-    throw new ConflictError("assignment", "Each piston must go to exactly one rod.");
-  }
-  const changed = moves.filter((m) => m.rodCylinder !== m.pistonFromCylinder);
-  if (changed.length === 0) return;
-  const at = now.toISOString();
-  // Park the moved rows out of the way (cylinder + 16; the column allows up to 32), then land them.
-  const PARK = 16;
-  await db.transaction().execute(async (trx) => {
-    await lockJob(trx, jobId);
-    for (const m of changed) {
-      await trx
-        .updateTable("part_weights")
-        .set({ cylinder: m.rodCylinder + PARK })
-        .where("job_id", "=", jobId)
-        .where("cylinder", "=", m.pistonFromCylinder)
-        .where("kind", "in", PISTON_ASSEMBLY)
-        .execute();
-    }
-    await trx
-      .updateTable("part_weights")
-      .set((eb) => ({
-        cylinder: eb("cylinder", "-", PARK),
-        version: eb("version", "+", 1),
-        updated_by: actorId,
-        updated_at: at,
-      }))
-      .where("job_id", "=", jobId)
-      .where("cylinder", ">", PARK)
-      .execute();
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "pair",
-      entity: "job",
-      entityId: jobId,
-      after: changed,
-    });
-    await trx.updateTable("jobs").set({ updated_at: at }).where("id", "=", jobId).execute();
   });
 }

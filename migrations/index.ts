@@ -4,6 +4,7 @@ import * as m0002 from "./20261201_0002_create_workshop_tables";
 import * as m0003 from "./20261201_0003_create_billing_tables";
 import * as m0004 from "./20261201_0004_create_uploads_and_mail_tables";
 import * as m0005 from "./20261201_0005_create_card_tables";
+import * as m0100 from "./20261202_0100_add_job_matching_mode";
 import * as m0105 from "./20261202_0105_add_oil_allowance_per_rod";
 import * as m0110 from "./20261202_0110_add_job_entered_lengths";
 import * as m0120 from "./20261202_0120_add_confirmed_outlier_to_part_weights";
@@ -22,6 +23,7 @@ export const migrations: Record<string, Migration> = {
   "20261201_0003_create_billing_tables": m0003,
   "20261201_0004_create_uploads_and_mail_tables": m0004,
   "20261201_0005_create_card_tables": m0005,
+  "20261202_0100_add_job_matching_mode": m0100,
   "20261202_0105_add_oil_allowance_per_rod": m0105,
   "20261202_0110_add_job_entered_lengths": m0110,
   "20261202_0120_add_confirmed_outlier_to_part_weights": m0120,

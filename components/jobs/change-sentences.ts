@@ -4,6 +4,7 @@ import type { BroughtEntry, JobSpec } from "@/db/jobs";
 import type { PartKind } from "@/db/schema";
 import { findLayoutPreset, MATERIAL_DENSITIES, type MaterialId } from "@/lib/balance";
 import { showDrillSize, showLength } from "@/lib/jobs/lengths";
+import { describePairingChange, type PistonMoveLike } from "@/lib/workshop/pairing-history";
 import { parseDrillMaterials } from "@/lib/workshop/plan";
 import { BROUGHT_ITEM_LABEL } from "./brought-items";
 import { STATUS_LABEL } from "./status";
@@ -172,6 +173,17 @@ const SETTINGS: [keyof JobSpec, (b: Spec, a: Spec) => (string | null)[]][] = [
           ],
   ],
   [
+    "matching",
+    (b, a) =>
+      b.matching === a.matching || !a.matching
+        ? []
+        : [
+            a.matching === "by-cylinder"
+              ? "Set matched by cylinder: each reciprocating assembly to the lightest"
+              : "Set matched part by part: each kind to its own target",
+          ],
+  ],
+  [
     "scaleName",
     (b, a) => [sentence("Scale used", plainValue(b.scaleName), plainValue(a.scaleName))],
   ],
@@ -306,7 +318,8 @@ export function describeChange(change: JobChange, unit: "g" | "oz"): string[] {
     return [`${part.charAt(0).toUpperCase()}${part.slice(1)} balancer record saved`];
   }
   if (change.action === "create") return ["Booked in"];
-  if (change.action === "pair") return ["Pistons moved to other rods (pairing applied)"];
+  if (change.action === "pair" || change.action === "pair-undo")
+    return [describePairingChange(change.action, (change.after ?? []) as PistonMoveLike[])];
   const card = (change.after ?? {}) as { revision?: number; to?: string; error?: string };
   if (change.action === "issue-card")
     return [`Balance card revision ${card.revision ?? ""} issued`];

@@ -33,6 +33,7 @@ const settingsSchema = jobSpecSchema
     rodLength: true,
     drillSize: true,
     balanceType: true,
+    matching: true,
     maxRpm: true,
     promisedDate: true,
   })
@@ -72,6 +73,7 @@ function formValues(job: Job): Values {
     rodLength: lengthAsEntered(s, "rodLength") ?? "",
     drillSize: showDrillSize(s) ?? "",
     balanceType: s.balanceType ?? "",
+    matching: s.matching,
     maxRpm: s.maxRpm === null ? "" : String(s.maxRpm),
     promisedDate: s.promisedDate ?? "",
     rodMaterial: materials.rod,
@@ -260,6 +262,13 @@ export function JobSettingsForm({ job: initial, role }: { job: Job; role: string
           <option value="">not noted</option>
           <option value="internal">internal</option>
           <option value="external">external</option>
+        </select>
+      </label>
+      <label className="text-sm">
+        <span className="mb-1 block font-semibold">Match the set</span>
+        <select className={box} disabled={!machinist} {...form.register("matching")}>
+          <option value="by-part">part by part (each kind to its lightest)</option>
+          <option value="by-cylinder">by cylinder (whole reciprocating assemblies)</option>
         </select>
       </label>
       {field("scaleName", "Scale used")}

@@ -3,10 +3,16 @@
 import { useMutation } from "@tanstack/react-query";
 import { useState } from "react";
 import type { PartKind } from "@/db/schema";
-import { formatMass, MATERIAL_DENSITIES, type PartResult } from "@/lib/balance";
+import { formatDerivedMass, formatMass, type PartResult } from "@/lib/balance";
 import { ApiError, apiFetch } from "@/lib/api-client";
 import type { Workshop } from "@/lib/workshop/load";
-import type { WorkshopPlan } from "@/lib/workshop/plan";
+import {
+  HOW_TO_REMOVE,
+  HOW_TO_RESELECT,
+  type PartProgress,
+  type WorkshopPlan,
+} from "@/lib/workshop/plan";
+import { describePairingMoves } from "@/lib/workshop/pairing-history";
 import { KIND_LABEL } from "./part-kinds";
 import { PartChart } from "./part-chart";
 import { useUpdateWorkshop, useWorkshop } from "./use-workshop";
@@ -15,6 +21,7 @@ const STATUS: Record<PartResult["status"], { label: string; className: string }>
   ok: { label: "In band", className: "bg-emerald-50 text-within" },
   remove: { label: "Take off", className: "bg-amber-50 text-machine" },
   light: { label: "Too light", className: "bg-red-50 text-replace font-semibold" },
+  reselect: { label: "Re-select or replace", className: "bg-red-50 text-replace font-semibold" },
 };
 
 export function StatusTag({ status }: { status: PartResult["status"] }) {
@@ -24,7 +31,22 @@ export function StatusTag({ status }: { status: PartResult["status"] }) {
   );
 }
 
-/** Per kind of part: target, tolerance and, part by part, the metal to take off. */
+/** Where a part stands after the re-weigh, in words. */
+function ProgressTag({ progress, show }: { progress: PartProgress; show: (v: string) => string }) {
+  const amount = progress.amount ? show(progress.amount) : "";
+  const [label, className] = {
+    "to-do": [`Take off ${amount}`, "bg-amber-50 text-machine"],
+    done: ["Done", "bg-emerald-50 text-within"],
+    still: [`Still to take off ${amount}`, "bg-amber-50 text-machine font-semibold"],
+    over: [`Over-machined, ${amount} light`, "bg-red-50 text-replace font-semibold"],
+    reselect: ["Re-select or replace", "bg-red-50 text-replace font-semibold"],
+  }[progress.state];
+  return <span className={`inline-block rounded px-2 py-0.5 text-xs ${className}`}>{label}</span>;
+}
+
+type Show = { weighed: (v: string) => string; derived: (v: string) => string; unit: string };
+
+/** Per kind of part: target, tolerance and, part by part, the metal to take off and where. */
 export function RemovalPlan({
   jobId,
   initial,
@@ -39,7 +61,11 @@ export function RemovalPlan({
   const { plan, job } = workshop;
   const res = job.spec.scaleResolution;
   const unit = job.spec.massUnit;
-  const fmt = (v: string) => formatMass(v, res);
+  const show: Show = {
+    weighed: (v) => formatMass(v, res),
+    derived: (v) => formatDerivedMass(v, res),
+    unit,
+  };
 
   if (!plan.complete || !plan.removal) {
     return (
@@ -61,8 +87,20 @@ export function RemovalPlan({
   }
 
   const removal = plan.removal;
+  const byCylinder = plan.matching === "by-cylinder";
   const kinds = [...new Set(removal.parts.map((p) => p.kind))].filter((k) => k !== "bearing");
   const light = removal.parts.filter((p) => p.status === "light");
+  const reselect = [
+    ...removal.parts
+      .filter((p) => p.status === "reselect")
+      .map((p) => ({
+        key: `${p.cylinder}:${p.kind}`,
+        text: `Cylinder ${p.cylinder} ${KIND_LABEL[p.kind].toLowerCase()}: ${show.derived(p.excess ?? "0")} ${unit} over the target — ${HOW_TO_RESELECT[p.kind] ?? "re-select it"}.`,
+      })),
+    ...removal.warnings
+      .filter((w) => w.code === "assembly-reselect")
+      .map((w) => ({ key: `assembly-${w.cylinder}`, text: w.message })),
+  ];
   const reweighed = new Map(
     workshop.weights
       .filter((w) => w.phase === "final")
@@ -72,6 +110,8 @@ export function RemovalPlan({
 
   return (
     <div className="space-y-6">
+      <OverMachinedBanner plan={plan} show={show} />
+
       {light.length > 0 ? (
         <section
           className="rounded-md border-2 border-replace bg-red-50 p-4"
@@ -81,23 +121,52 @@ export function RemovalPlan({
           <ul className="mt-1 list-disc pl-5 text-sm">
             {light.map((p) => (
               <li key={`${p.cylinder}:${p.kind}`}>
-                Cylinder {p.cylinder} {KIND_LABEL[p.kind].toLowerCase()}: {fmt(p.measured)} {unit},
-                below the target of{" "}
-                {fmt(removal.targets[p.kind as keyof typeof removal.targets] ?? "0")} {unit}. Metal
-                cannot be put back by machining.
+                Cylinder {p.cylinder} {KIND_LABEL[p.kind].toLowerCase()}: {show.weighed(p.measured)}{" "}
+                {unit}, below the target of{" "}
+                {show.derived(removal.targets[p.kind as keyof typeof removal.targets] ?? "0")}{" "}
+                {unit}. Metal cannot be put back by machining.
               </li>
             ))}
           </ul>
         </section>
       ) : null}
 
-      <p className="text-sm text-graphite-600">
-        Tolerance: the finished set within {removal.tolerance} {unit}. Weights shown to the scale
-        resolution ({res} {unit}).
-        {job.spec.drillDiameterMm
-          ? ` Drill depths for a ${job.spec.drillDiameterMm} mm drill, 118° point.`
-          : " Set a drill size on the overview to see drill depths."}
-      </p>
+      {reselect.length > 0 ? (
+        <section
+          className="rounded-md border-2 border-replace bg-red-50 p-4"
+          data-testid="reselect-parts"
+        >
+          <h2 className="font-semibold text-replace">Parts to re-select or replace</h2>
+          <ul className="mt-1 list-disc pl-5 text-sm">
+            {reselect.map((r) => (
+              <li key={r.key}>{r.text}</li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
+
+      <div className="space-y-1 text-sm text-graphite-600">
+        <p>
+          {byCylinder
+            ? "Matched by cylinder: each reciprocating assembly (piston, pin, retainers, rings and small end) is brought to the lightest, taking metal off the piston first (never below the lightest piston), then off the small-end pad (never below the lightest small end). Big ends are matched end to end."
+            : "Matched part by part: each kind is brought to its own lightest (or the target set). Rings, wrist pins and retainers are matched by choice, never machined."}{" "}
+          Tolerance: the finished set within {removal.tolerance} {unit}. Weighed figures at the
+          scale resolution ({res} {unit}), worked-out figures to one decimal more.
+        </p>
+        <p data-testid="total-removed">
+          In all the plan takes off{" "}
+          <strong className="font-mono">
+            {show.derived(plan.totalRemoved ?? "0")} {unit}
+          </strong>
+          .
+        </p>
+        <p className="text-graphite-700">
+          Caution: wear eye protection when machining. Take metal off only where the piston and rod
+          makers allow, and no more than their minimum weights permit; their figures come first.
+        </p>
+      </div>
+
+      {byCylinder ? <AssemblyTable plan={plan} show={show} /> : null}
 
       {kinds.map((kind) => (
         <KindTable
@@ -109,11 +178,11 @@ export function RemovalPlan({
           canEdit={canEdit}
           reweighed={reweighed}
           finishedByKey={finishedByKey}
-          fmt={fmt}
+          show={show}
         />
       ))}
 
-      <Pairing jobId={jobId} plan={plan} canEdit={canEdit} unit={unit} fmt={fmt} />
+      <Pairing jobId={jobId} workshop={workshop} canEdit={canEdit} show={show} />
 
       {removal.warnings.length > 0 ? (
         <section className="panel p-4">
@@ -129,6 +198,108 @@ export function RemovalPlan({
   );
 }
 
+/** Parts machined under their target after the re-weigh, and the three ways out. */
+function OverMachinedBanner({ plan, show }: { plan: WorkshopPlan; show: Show }) {
+  if (plan.overMachined.length === 0) return null;
+  const name = (kind: PartKind | "assembly") =>
+    kind === "assembly" ? "reciprocating assembly" : KIND_LABEL[kind].toLowerCase();
+  const plural = (kind: PartKind | "assembly") =>
+    kind === "assembly" ? "assemblies" : `${KIND_LABEL[kind].toLowerCase()}s`;
+  return (
+    <section
+      className="rounded-md border-2 border-replace bg-red-50 p-4"
+      role="alert"
+      data-testid="over-machined"
+    >
+      <h2 className="font-semibold text-replace">Over-machined: now under the target</h2>
+      <ul className="mt-1 list-disc pl-5 text-sm">
+        {plan.overMachined.map((o) => (
+          <li key={`${o.cylinder}:${o.kind}`}>
+            Cylinder {o.cylinder} {name(o.kind)} is {show.derived(o.short)} {show.unit} light.
+          </li>
+        ))}
+      </ul>
+      <p className="mt-2 text-sm">
+        Either replace the part with a heavier one, add weight where its maker allows, or re-target
+        the set to it:
+      </p>
+      <ul className="mt-1 list-disc pl-5 text-sm">
+        {plan.retarget.map((r) => (
+          <li key={r.kind}>
+            re-targeting the {plural(r.kind)} to {show.derived(r.target)} {show.unit} means taking{" "}
+            <strong className="font-mono">
+              {show.derived(r.extra)} {show.unit}
+            </strong>{" "}
+            off the rest of them, from where they stand now.
+          </li>
+        ))}
+      </ul>
+    </section>
+  );
+}
+
+/** Matching by cylinder: each reciprocating assembly, what comes off it and where it stands. */
+function AssemblyTable({ plan, show }: { plan: WorkshopPlan; show: Show }) {
+  const removal = plan.removal!;
+  const cut = (cylinder: number, kind: PartKind) =>
+    removal.parts.find((p) => p.cylinder === cylinder && p.kind === kind)?.remove ?? "0";
+  return (
+    <section className="panel" aria-labelledby="assemblies-title">
+      <div className="border-b border-graphite-200 px-4 py-3">
+        <h2 id="assemblies-title" className="text-lg font-semibold">
+          Reciprocating assemblies
+        </h2>
+        <p className="text-sm text-graphite-600">
+          Target: the lightest assembly,{" "}
+          <span className="font-mono">
+            {show.derived(removal.assemblyTarget ?? "0")} {show.unit}
+          </span>
+          .
+        </p>
+      </div>
+      <div className="overflow-x-auto p-4">
+        <table className="w-full text-sm">
+          <thead className="text-left text-graphite-500">
+            <tr>
+              <th className="py-1 pr-3 font-semibold">Cyl.</th>
+              <th className="py-1 pr-3 font-semibold">Weighed</th>
+              <th className="py-1 pr-3 font-semibold">Off the piston</th>
+              <th className="py-1 pr-3 font-semibold">Off the small end</th>
+              <th className="py-1 pr-3 font-semibold">Finished</th>
+              <th className="py-1 font-semibold">State</th>
+            </tr>
+          </thead>
+          <tbody className="font-mono">
+            {removal.cylinders.map((c) => {
+              const a = c.assembly;
+              if (!a) return null;
+              const progress = plan.assemblies[c.number];
+              const piston = cut(c.number, "piston");
+              const small = cut(c.number, "smallEnd");
+              return (
+                <tr key={c.number} className="border-t border-graphite-100">
+                  <td className="py-1.5 pr-3">{c.number}</td>
+                  <td className="py-1.5 pr-3">{show.derived(a.measured)}</td>
+                  <td className="py-1.5 pr-3">{piston === "0" ? "—" : show.derived(piston)}</td>
+                  <td className="py-1.5 pr-3">{small === "0" ? "—" : show.derived(small)}</td>
+                  <td className="py-1.5 pr-3">{show.derived(a.final)}</td>
+                  <td className="py-1.5 font-sans">
+                    {progress ? (
+                      <ProgressTag progress={progress} show={show.derived} />
+                    ) : (
+                      <StatusTag status={a.status} />
+                    )}
+                  </td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      </div>
+    </section>
+  );
+}
+
 function KindTable({
   jobId,
   kind,
@@ -137,7 +308,7 @@ function KindTable({
   canEdit,
   reweighed,
   finishedByKey,
-  fmt,
+  show,
 }: {
   jobId: number;
   kind: PartKind;
@@ -146,29 +317,43 @@ function KindTable({
   canEdit: boolean;
   reweighed: Map<string, string[]>;
   finishedByKey: Map<string, PartResult>;
-  fmt: (v: string) => string;
+  show: Show;
 }) {
   const removal = plan.removal!;
-  const unit = workshop.job.spec.massUnit;
+  const unit = show.unit;
   const parts = removal.parts.filter((p) => p.kind === kind);
   const target = removal.targets[kind as keyof typeof removal.targets];
   const setTarget = workshop.targets.find((t) => t.kind === kind);
-  const hasDrill = parts.some((p) => plan.drill[`${p.cylinder}:${p.kind}`]);
+  const inAssembly = plan.matching === "by-cylinder" && kind !== "bigEnd";
+  const machined = HOW_TO_REMOVE[kind] !== undefined;
+  const weighed = (p: PartResult) =>
+    p.readings && p.readings.length > 1 ? show.derived(p.measured) : show.weighed(p.measured);
   return (
     <section className="panel" aria-labelledby={`kind-${kind}`}>
       <div className="flex flex-wrap items-center justify-between gap-3 border-b border-graphite-200 px-4 py-3">
-        <h2 id={`kind-${kind}`} className="text-lg font-semibold">
-          {KIND_LABEL[kind]}
-        </h2>
-        <TargetEditor
-          jobId={jobId}
-          kind={kind}
-          current={target ?? null}
-          isSet={Boolean(setTarget?.target)}
-          version={setTarget?.version ?? 0}
-          canEdit={canEdit}
-          unit={unit}
-        />
+        <div>
+          <h2 id={`kind-${kind}`} className="text-lg font-semibold">
+            {KIND_LABEL[kind]}
+          </h2>
+          <p className="text-xs text-graphite-600">
+            {machined
+              ? `Metal comes off here: ${HOW_TO_REMOVE[kind]}.`
+              : `Never machined: ${HOW_TO_RESELECT[kind] ?? "weighed only"}.`}
+          </p>
+        </div>
+        {inAssembly ? (
+          <p className="text-sm text-graphite-600">Matched as part of each cylinder’s assembly.</p>
+        ) : (
+          <TargetEditor
+            jobId={jobId}
+            kind={kind}
+            current={target ?? null}
+            isSet={Boolean(setTarget?.target)}
+            version={setTarget?.version ?? 0}
+            canEdit={canEdit}
+            unit={unit}
+          />
+        )}
       </div>
       <div className="grid gap-4 p-4 lg:grid-cols-[1fr_22rem]">
         <div className="overflow-x-auto">
@@ -177,8 +362,7 @@ function KindTable({
               <tr>
                 <th className="py-1 pr-3 font-semibold">Cyl.</th>
                 <th className="py-1 pr-3 font-semibold">Weighed</th>
-                <th className="py-1 pr-3 font-semibold">Take off</th>
-                {hasDrill ? <th className="py-1 pr-3 font-semibold">Drill to (tip)</th> : null}
+                {machined ? <th className="py-1 pr-3 font-semibold">Take off</th> : null}
                 <th className="py-1 pr-3 font-semibold">Finished</th>
                 <th className="py-1 pr-3 font-semibold">Re-weighed</th>
                 <th className="py-1 font-semibold">State</th>
@@ -187,48 +371,36 @@ function KindTable({
             <tbody className="font-mono">
               {parts.map((p) => {
                 const key = `${p.cylinder}:${p.kind}`;
-                const drill = plan.drill[key];
                 const after = reweighed.get(key);
-                const finished = finishedByKey.get(key);
+                const progress = plan.progress[key];
                 return (
                   <tr key={key} className="border-t border-graphite-100">
                     <td className="py-1.5 pr-3">{p.cylinder}</td>
                     <td className="py-1.5 pr-3">
-                      {fmt(p.measured)}
+                      {weighed(p)}
                       {p.readings && p.readings.length > 1 ? (
-                        <span className="ml-1 text-xs text-graphite-500">spread {p.spread}</span>
+                        <span className="ml-1 text-xs text-graphite-500">
+                          spread {show.derived(p.spread ?? "0")}
+                        </span>
                       ) : null}
                     </td>
-                    <td className="py-1.5 pr-3 text-lg font-semibold">
-                      {p.status === "remove" ? fmt(p.remove) : "—"}
-                    </td>
-                    {hasDrill ? (
-                      <td
-                        className="py-1.5 pr-3"
-                        title={drill ? MATERIAL_DENSITIES[drill.material].label : undefined}
-                      >
-                        {drill ? `${formatMass(drill.tipDepth, "0.1")} mm` : "—"}
+                    {machined ? (
+                      <td className="py-1.5 pr-3 text-lg font-semibold">
+                        {p.status === "remove" ? show.derived(p.remove) : "—"}
                       </td>
                     ) : null}
-                    <td className="py-1.5 pr-3">{fmt(p.final)}</td>
                     <td className="py-1.5 pr-3">
-                      {after ? (
-                        <>
-                          {after.join(" ")}
-                          {finished && finished.status !== "ok" ? (
-                            <span className="ml-1 font-sans text-xs text-machine">
-                              {finished.status === "remove"
-                                ? `still ${fmt(finished.remove)} over`
-                                : "now light"}
-                            </span>
-                          ) : null}
-                        </>
-                      ) : (
-                        "—"
-                      )}
+                      {p.status === "remove" ? show.derived(p.final) : weighed(p)}
                     </td>
+                    <td className="py-1.5 pr-3">{after ? after.join(" ") : "—"}</td>
                     <td className="py-1.5 font-sans">
-                      <StatusTag status={p.status} />
+                      {progress ? (
+                        <ProgressTag progress={progress} show={show.derived} />
+                      ) : inAssembly && p.status === "ok" ? (
+                        <span className="text-xs text-graphite-500">as weighed</span>
+                      ) : (
+                        <StatusTag status={p.status} />
+                      )}
                     </td>
                   </tr>
                 );
@@ -316,79 +488,165 @@ function TargetEditor(props: {
   );
 }
 
+/**
+ * Which piston rides on which rod: offered only when matching by cylinder (part by part a
+ * pairing changes nothing taken off) and before machining; applied after a confirmation that
+ * names every move, recorded in the job's changes and undoable one step back.
+ */
 function Pairing({
   jobId,
-  plan,
+  workshop,
   canEdit,
-  unit,
-  fmt,
+  show,
 }: {
   jobId: number;
-  plan: WorkshopPlan;
+  workshop: Workshop;
   canEdit: boolean;
-  unit: string;
-  fmt: (v: string) => string;
+  show: Show;
 }) {
   const update = useUpdateWorkshop(jobId);
+  const [confirming, setConfirming] = useState(false);
+  const { plan, lastPairing } = workshop;
+  const pairing = plan.pairing;
   const apply = useMutation({
     mutationFn: () =>
       apiFetch<Workshop>(`/api/jobs/${jobId}/pairing`, {
         method: "POST",
         body: {
-          assignment: plan.pairing!.assignment.map((a) => ({
+          assignment: pairing!.assignment.map((a) => ({
             rodCylinder: a.rodCylinder,
             pistonFromCylinder: a.pistonFromCylinder,
           })),
+          lastPairingId: lastPairing?.id ?? 0,
         },
+      }),
+    onSuccess: (w) => {
+      setConfirming(false);
+      update(() => w);
+    },
+  });
+  const undo = useMutation({
+    mutationFn: () =>
+      apiFetch<Workshop>(`/api/jobs/${jobId}/pairing/undo`, {
+        method: "POST",
+        body: { pairingId: lastPairing!.id },
       }),
     onSuccess: (w) => update(() => w),
   });
-  const pairing = plan.pairing;
-  if (!pairing) return null;
+  const failure = apply.error ?? undo.error;
+  const fmt = (v: string) => `${show.derived(v)} ${show.unit}`;
+  const canUndo = canEdit && lastPairing?.action === "pair";
+
   return (
-    <section className="panel p-4" aria-labelledby="pairing-title">
+    <section className="panel p-4" aria-labelledby="pairing-title" data-testid="pairing">
       <h2 id="pairing-title" className="text-lg font-semibold">
         Piston-to-rod pairing
       </h2>
-      {!pairing.changed ? (
+      {plan.matching === "by-part" ? (
         <p className="text-sm text-graphite-600">
-          The pistons already sit on the rods that need the least metal removed.
+          Matched part by part, every kind is brought to its own lightest, so which piston rides on
+          which rod changes nothing taken off. To pair pistons with rods, match by cylinder in the
+          job settings.
+        </p>
+      ) : plan.reweighed > 0 ? (
+        <p className="text-sm text-graphite-600">
+          Parts have been re-weighed after machining: pistons are paired with rods before machining
+          starts, so no pairing is offered now.
+        </p>
+      ) : !pairing || !pairing.changed ? (
+        <p className="text-sm text-graphite-600">
+          The pistons already sit on the rods that need the least metal taken off.
         </p>
       ) : (
         <>
           <p className="text-sm text-graphite-700">
-            Matched as whole reciprocating assemblies (piston, pin, retainers, rings and small end
-            together), putting these pistons on these rods evens the set with{" "}
-            <strong className="font-mono">
-              {fmt(pairing.saved)} {unit}
-            </strong>{" "}
-            less metal taken off ({fmt(pairing.removedNumbered)} → {fmt(pairing.removedSuggested)}{" "}
-            {unit}).
+            With the pistons on these rods the plan takes off{" "}
+            <strong className="font-mono">{fmt(pairing.removedSuggested)}</strong> instead of{" "}
+            <span className="font-mono">{fmt(pairing.removedNumbered)}</span>
+            {pairing.saved !== "0" && !pairing.saved.startsWith("-") ? (
+              <>
+                : <strong className="font-mono">{fmt(pairing.saved)}</strong> less metal
+              </>
+            ) : null}
+            {pairing.unfixedSuggested !== pairing.unfixedNumbered ? (
+              <>
+                , and leaves {fmt(pairing.unfixedSuggested)} that machining cannot fix instead of{" "}
+                {fmt(pairing.unfixedNumbered)}
+              </>
+            ) : null}
+            . Both figures come from this plan, worked out for each numbering.
           </p>
           <ul className="mt-2 grid gap-1 font-mono text-sm sm:grid-cols-2 lg:grid-cols-4">
-            {pairing.assignment
-              .filter((a) => a.rodCylinder !== a.pistonFromCylinder)
-              .map((a) => (
-                <li key={a.rodCylinder}>
-                  rod {a.rodCylinder} ← piston {a.pistonFromCylinder}
-                </li>
-              ))}
+            {pairing.moves.map((m) => (
+              <li key={m.rodCylinder}>
+                piston {m.pistonFromCylinder} → cylinder {m.rodCylinder}
+              </li>
+            ))}
           </ul>
-          {canEdit ? (
-            <button
-              type="button"
-              className="btn-primary mt-3"
-              onClick={() => apply.mutate()}
-              disabled={apply.isPending}
-            >
-              {apply.isPending ? "Moving…" : "Apply this pairing"}
+          {canEdit && !confirming ? (
+            <button type="button" className="btn-primary mt-3" onClick={() => setConfirming(true)}>
+              Apply this pairing…
             </button>
           ) : null}
-          {apply.isError ? (
-            <p className="mt-2 text-sm text-replace">{apply.error.message}</p>
+          {canEdit && confirming ? (
+            <div
+              role="alertdialog"
+              aria-labelledby="pairing-confirm-title"
+              aria-describedby="pairing-confirm-text"
+              className="mt-3 rounded-md border-2 border-machine bg-amber-50 p-3"
+            >
+              <h3 id="pairing-confirm-title" className="font-semibold">
+                Move these piston assemblies?
+              </h3>
+              <p id="pairing-confirm-text" className="text-sm">
+                Each piston moves with its wrist pin, retainers and rings, and its weights move with
+                it: {describePairingMoves(pairing.moves)}. The move is kept in the job’s changes and
+                can be undone.
+              </p>
+              <div className="mt-2 flex gap-2">
+                <button
+                  type="button"
+                  className="btn-primary"
+                  onClick={() => apply.mutate()}
+                  disabled={apply.isPending}
+                >
+                  {apply.isPending ? "Moving…" : "Move them"}
+                </button>
+                <button
+                  type="button"
+                  className="btn-secondary"
+                  onClick={() => setConfirming(false)}
+                >
+                  Cancel
+                </button>
+              </div>
+            </div>
           ) : null}
         </>
       )}
+      {canUndo ? (
+        <div className="mt-3 text-sm" data-testid="pairing-undo">
+          <p>
+            Last pairing applied {lastPairing.at.slice(0, 16).replace("T", " ")}:{" "}
+            {describePairingMoves(lastPairing.moves)}.
+          </p>
+          <button
+            type="button"
+            className="btn-secondary mt-1"
+            onClick={() => undo.mutate()}
+            disabled={undo.isPending}
+          >
+            {undo.isPending ? "Moving back…" : "Undo this pairing"}
+          </button>
+        </div>
+      ) : null}
+      {failure ? (
+        <p className="mt-2 text-sm text-replace">
+          {failure instanceof ApiError && failure.status === 409
+            ? "Someone applied or undid a pairing meanwhile. Reload the page to see the pistons as they are now."
+            : failure.message}
+        </p>
+      ) : null}
     </section>
   );
 }

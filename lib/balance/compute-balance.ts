@@ -54,6 +54,8 @@ export interface PartResult {
   status: PartStatus;
   /** `reselect` only: how far the part is over its kind's target (measured − target). */
   excess?: string;
+  /** `light` only: how far the part is under its kind's target (target − measured). */
+  short?: string;
   readings?: string[];
   spread?: string;
 }
@@ -69,6 +71,8 @@ export interface AssemblyResult {
   status: PartStatus;
   /** `reselect` only: final − assembly target, left for a re-selected pin, retainers or rings. */
   over?: string;
+  /** `light` only: assembly target − measured. */
+  short?: string;
 }
 
 export interface CylinderResult {
@@ -287,6 +291,7 @@ function matchParts(job: ParsedJob, warnings: BalanceWarning[]) {
       const weight = measured[i] as Dec;
       if (part.status === "light") {
         const short = matched.target.minus(weight);
+        result.short = out(short);
         warnings.push({
           code: "part-light",
           message: `Cylinder ${cylinder.number} ${LABEL[kind]} is ${show.derived(short)} under the target ${show.derived(matched.target)}: it needs a heavier replacement or added weight, not machining.`,
@@ -369,6 +374,7 @@ function matchAssemblies(job: ParsedJob, warnings: BalanceWarning[]) {
       status: a.status,
     };
     if (a.status === "reselect") result.over = out(a.over);
+    if (a.status === "light") result.short = out(target.minus(a.measured));
     return result;
   });
   return { target, matched: matched.assemblies, results };

@@ -84,6 +84,8 @@ export {
   type MatchingMode,
   type WeightInput,
 } from "./compute-balance";
+export { removalTotal } from "./removal-total";
+export { removalSaving, type RemovalSaving } from "./removal-saving";
 export {
   suggestPairing,
   type PairingInput,

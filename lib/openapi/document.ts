@@ -31,6 +31,7 @@ import { buildSettingsWriteSchema } from "@/lib/build-record/settings-schema";
 import {
   bookingSchema,
   pairingApplySchema,
+  pairingUndoSchema,
   rotatingWriteSchema,
   targetWriteSchema,
   weightWriteSchema,
@@ -190,6 +191,9 @@ export const API_PATHS: ZodOpenApiPathsObject = {
   },
   "/api/jobs/{id}/pairing": {
     post: op("Move piston assemblies onto other rods", pairingApplySchema),
+  },
+  "/api/jobs/{id}/pairing/undo": {
+    post: op("Undo the last pairing applied (one step back)", pairingUndoSchema),
   },
   "/api/jobs/{id}/weights/import": {
     post: op(

@@ -102,6 +102,7 @@ export const jobSpecSchema = z
     oilAllowance: quantity("Oil allowance per crankpin", "4", { zero: true }).optional(),
     oilAllowancePerRod: quantity("Oil allowance per rod", "2", { zero: true }).optional(),
     benchOrder: z.enum(["by-kind", "by-cylinder"]).optional(),
+    matching: z.enum(["by-part", "by-cylinder"]).optional(),
     /** The drill's diameter in mm (older callers); the settings form sends `drillSize`. */
     drillDiameterMm: z
       .preprocess(blankAsNull, quantity("Drill diameter (mm)", "9.5").nullable())
@@ -315,8 +316,16 @@ export const pairingApplySchema = z
       .array(z.array(z.number().int().min(1).max(16)))
       .max(8)
       .optional(),
+    /**
+     * The last pairing the machinist saw applied (its id in the change history; 0 for none).
+     * When another has been applied or undone since, the request is refused (409).
+     */
+    lastPairingId: z.number().int().min(0).optional(),
   })
   .strict();
+
+/** Undoes the last pairing applied, named by its id in the change history (409 if not the last). */
+export const pairingUndoSchema = z.object({ pairingId: z.number().int().positive() }).strict();
 
 /** A CSV of weights: previewed first, written only when the same file is sent back confirmed. */
 export const weightsImportSchema = z

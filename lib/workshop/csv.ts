@@ -2,9 +2,9 @@ import Papa from "papaparse";
 import type { Job } from "@/db/jobs";
 import type { PartKind, WeighPhase } from "@/db/schema";
 import type { PartWeight } from "@/db/weights";
-import { formatMass } from "@/lib/balance";
+import { formatDerivedMass, formatMass } from "@/lib/balance";
 import { decimalString } from "@/lib/validation/decimal";
-import type { WorkshopPlan } from "./plan";
+import { HOW_TO_REMOVE, HOW_TO_RESELECT, type WorkshopPlan } from "./plan";
 
 /** Column headings people write for each kind of part, lower-cased without spaces or punctuation. */
 const KIND_NAMES: Record<string, PartKind> = {
@@ -221,22 +221,43 @@ export function weightsToCsv(weights: PartWeight[]): string {
   return Papa.unparse(rows, { columns: ["cylinder", "part", "phase", "weight"] });
 }
 
-/** The removal plan, one row per part, rounded to the scale resolution as on the screen. */
+/**
+ * The removal plan, one row per part, with the figures as on the screen (weighed masses at the
+ * scale resolution, computed ones with one decimal more), where the metal comes off, and where
+ * each part stands after the re-weigh.
+ */
 export function planToCsv(plan: WorkshopPlan, job: Job): string {
   const res = job.spec.scaleResolution;
+  const STATE = {
+    ok: "in band",
+    remove: "take off",
+    light: "too light",
+    reselect: "re-select or replace",
+  } as const;
   const rows = (plan.removal?.parts ?? []).map((p) => {
-    const drill = plan.drill[`${p.cylinder}:${p.kind}`];
     const target =
       plan.removal?.targets[p.kind as keyof NonNullable<WorkshopPlan["removal"]>["targets"]];
+    const progress = plan.progress[`${p.cylinder}:${p.kind}`];
+    const weighed =
+      p.readings && p.readings.length > 1
+        ? formatDerivedMass(p.measured, res)
+        : formatMass(p.measured, res);
     return {
       cylinder: p.cylinder,
       part: EXPORT_NAMES[p.kind],
-      weighed: formatMass(p.measured, res),
-      target: target ? formatMass(target, res) : "",
-      remove: p.status === "remove" ? formatMass(p.remove, res) : "0",
-      finished: formatMass(p.final, res),
-      state: p.status === "ok" ? "in band" : p.status === "remove" ? "take off" : "too light",
-      drill_tip_depth_mm: drill ? formatMass(drill.tipDepth, "0.1") : "",
+      weighed,
+      target: target ? formatDerivedMass(target, res) : "",
+      remove: p.status === "remove" ? formatDerivedMass(p.remove, res) : "0",
+      how:
+        p.status === "remove"
+          ? (HOW_TO_REMOVE[p.kind] ?? "")
+          : p.status === "reselect"
+            ? (HOW_TO_RESELECT[p.kind] ?? "")
+            : "",
+      // Left alone, a part finishes as weighed; machined, at its planned (worked-out) weight.
+      finished: p.final === p.measured ? weighed : formatDerivedMass(p.final, res),
+      state: STATE[p.status],
+      after_reweigh: progress?.state ?? "",
       unit: job.spec.massUnit,
     };
   });
@@ -247,9 +268,10 @@ export function planToCsv(plan: WorkshopPlan, job: Job): string {
       "weighed",
       "target",
       "remove",
+      "how",
       "finished",
       "state",
-      "drill_tip_depth_mm",
+      "after_reweigh",
       "unit",
     ],
   });

@@ -1,6 +1,7 @@
 import { DEFAULT_OUTLIER_PERCENT } from "@/lib/balance";
 import type { DB } from "@/db/client";
 import type { Job } from "@/db/jobs";
+import { findLastPairing, type PairingRecord } from "@/db/pairing";
 import {
   findOutlierPercent,
   listPartTargets,
@@ -19,17 +20,20 @@ export interface Workshop {
   targets: PartTarget[];
   rotating: (RotatingRecord & { check: RotatingCheck })[];
   plan: WorkshopPlan;
+  /** The last pairing applied or undone (undo is offered while it is an applied one). */
+  lastPairing: PairingRecord | null;
   /** The shop's outlier percentage: how far from its kind a weight may sit before it is held. */
   outlierPercent: string;
 }
 
 /** Everything the bench pages show for one job, with the plan worked out from it. */
 export async function loadWorkshop(db: DB, job: Job): Promise<Workshop> {
-  const [weights, targets, rotating, percent] = await Promise.all([
+  const [weights, targets, rotating, percent, lastPairing] = await Promise.all([
     listPartWeights(db, job.id),
     listPartTargets(db, job.id),
     listRotatingRecords(db, job.id),
     findOutlierPercent(db),
+    findLastPairing(db, job.id),
   ]);
   const outlierPercent = percent ?? DEFAULT_OUTLIER_PERCENT;
   return {
@@ -45,5 +49,6 @@ export async function loadWorkshop(db: DB, job: Job): Promise<Workshop> {
       outlierPercent,
     ),
     outlierPercent,
+    lastPairing,
   };
 }

@@ -2,16 +2,16 @@ import {
   type BalanceInput,
   type BalanceResult,
   computeBalance,
-  convertMass,
   type CylinderInput,
-  type DrillDepth,
-  drillDepthForMass,
   isBalanceInputError,
-  type PairingResult,
+  type PairingAssignment,
+  removalSaving,
+  removalTotal,
   suggestPairing,
   MATERIAL_DENSITIES,
   type MaterialId,
   type MatchedKind,
+  type MatchingMode,
 } from "@/lib/balance";
 import type { Job } from "@/db/jobs";
 import type { PartKind } from "@/db/schema";
@@ -44,11 +44,79 @@ export function parseDrillMaterials(value: string | null): DrillMaterials {
   }
 }
 
-const DRILLED_IN: Partial<Record<PartKind, keyof DrillMaterials>> = {
-  piston: "piston",
-  smallEnd: "rod",
-  bigEnd: "rod",
+/**
+ * Where the trade takes metal off each kind it machines (common practice): pistons are milled,
+ * rods ground on their pads; no drill depths for either (drilled holes belong to the crank's
+ * counterweights, the flywheel and the damper). Follow the piston and rod makers' limits.
+ */
+export const HOW_TO_REMOVE: Partial<Record<PartKind, string>> = {
+  piston: "mill the pin bosses or under the crown (common practice)",
+  smallEnd: "grind the small-end pad",
+  bigEnd: "grind the big-end cap pad",
 };
+
+/**
+ * What to do with a part over the band of a kind the trade does not machine (common practice):
+ * ring sets are matched by choice or replaced; wrist pins are matched by selection (lightening
+ * one by grinding its bore is specialist work, not offered here); retainers come from spares.
+ */
+export const HOW_TO_RESELECT: Partial<Record<PartKind, string>> = {
+  rings: "re-select or replace (rings are never machined)",
+  wristPin: "re-select from spares (pins are matched by selection)",
+  retainers: "re-select a lighter pair",
+};
+
+/**
+ * Where a part stands after machining, from the plan (`removal`) and the set as finished
+ * (`finished`, re-weighed parts where re-weighed):
+ * - `to-do`: to be machined, not re-weighed yet; `amount` to take off
+ * - `done`: re-weighed within the band
+ * - `still`: re-weighed, still over the band; `amount` still to take off
+ * - `over`: re-weighed under the target (over-machined, now light); `amount` short
+ * - `reselect`: a ring set, pin or retainers over the band (or, matching by cylinder, an
+ *   assembly machining cannot bring into the band); `amount` over the target
+ */
+export interface PartProgress {
+  state: "to-do" | "done" | "still" | "over" | "reselect";
+  amount?: string;
+}
+
+/** A part (or, matching by cylinder, a reciprocating assembly) machined under its target. */
+export interface OverMachined {
+  cylinder: number;
+  kind: PartKind | "assembly";
+  /** How far under the target, in the job's unit. */
+  short: string;
+}
+
+/**
+ * The cost of re-targeting a kind (or the assemblies) to the lightest finished part instead of
+ * replacing the over-machined one: the new target and the metal the rest of the set then needs
+ * taken off, from where it stands now (re-weighed parts as weighed, the others as planned).
+ */
+export interface Retarget {
+  kind: MatchedKind | "assembly";
+  target: string;
+  extra: string;
+}
+
+/** A piston-to-rod pairing, judged by this plan (matching by cylinder only). */
+export interface PlanPairing {
+  /** One row per rod, by cylinder number. */
+  assignment: PairingAssignment[];
+  /** The rods whose piston changes: rod ← piston from. */
+  moves: { rodCylinder: number; pistonFromCylinder: number }[];
+  /** Metal this plan takes off with the pistons as numbered now. */
+  removedNumbered: string;
+  /** Metal the same plan takes off with the suggested pairing. */
+  removedSuggested: string;
+  /** removedNumbered − removedSuggested. */
+  saved: string;
+  /** Mass machining cannot fix (see suggestPairing), as numbered and suggested. */
+  unfixedNumbered: string;
+  unfixedSuggested: string;
+  changed: boolean;
+}
 
 export interface WorkshopPlan {
   /** Every part the set needs has a first weight. */
@@ -63,10 +131,23 @@ export interface WorkshopPlan {
   finished: BalanceResult | null;
   /** How many parts have been re-weighed after machining. */
   reweighed: number;
-  /** Drill depth per part to remove ("cylinder:kind"), where a drill size is set. */
-  drill: Record<string, DrillDepth & { material: MaterialId }>;
-  /** Which piston to put on which rod to save metal, from the first weights. */
-  pairing: PairingResult | null;
+  /** How the set is matched (the job's setting). */
+  matching: MatchingMode;
+  /** Metal the removal plan takes off in all, in the job's unit; null without a plan. */
+  totalRemoved: string | null;
+  /** Per part ("cylinder:kind") to machine, to re-select or re-weighed: where it stands. */
+  progress: Record<string, PartProgress>;
+  /** Matching by cylinder: where each assembly stands (by cylinder number). */
+  assemblies: Record<number, PartProgress>;
+  /** Parts (or assemblies) machined under the target: the banner's list. */
+  overMachined: OverMachined[];
+  /** For each kind with an over-machined part: re-targeting it instead, and its cost. */
+  retarget: Retarget[];
+  /**
+   * Which piston to put on which rod, judged by this plan. Null when matching by part (each
+   * kind is matched on its own, so a pairing changes nothing) and once parts are re-weighed.
+   */
+  pairing: PlanPairing | null;
   /** A setting or weight the engine refused, with the field it named. */
   error: { field: string; message: string } | null;
   /**
@@ -118,7 +199,12 @@ export function buildWorkshopPlan(
     removal: null,
     finished: null,
     reweighed: final.size,
-    drill: {},
+    matching: job.spec.matching,
+    totalRemoved: null,
+    progress: {},
+    assemblies: {},
+    overMachined: [],
+    retarget: [],
     pairing: null,
     error: null,
     held: findHeldWeights(job, weights, outlierPercent),
@@ -141,6 +227,7 @@ export function buildWorkshopPlan(
       ? { oilAllowancePerRod: job.spec.oilAllowancePerRod }
       : { oilAllowance: job.spec.oilAllowance }),
     ...(job.spec.balanceFactor ? { balanceFactor: job.spec.balanceFactor } : {}),
+    matching: job.spec.matching,
   } satisfies Omit<BalanceInput, "cylinders">;
   const setTargets: Partial<Record<MatchedKind, string>> = {};
   for (const t of targets)
@@ -165,24 +252,69 @@ export function buildWorkshopPlan(
       cylinders: cylinderInput((n, k) => initial.get(`${n}:${k}`)),
     });
     const planned = new Map(removal.parts.map((p) => [`${p.cylinder}:${p.kind}`, p.final]));
-    const finished = computeBalance({
-      ...base,
+    const asFinished = cylinderInput(
+      (n, k) => final.get(`${n}:${k}`) ?? planned.get(`${n}:${k}`) ?? initial.get(`${n}:${k}`),
+    );
+    const sameTargets = {
       targets: removal.targets,
-      cylinders: cylinderInput(
-        (n, k) => final.get(`${n}:${k}`) ?? planned.get(`${n}:${k}`) ?? initial.get(`${n}:${k}`),
-      ),
-    });
-    const pairing = suggestPairing({
-      unit: job.spec.massUnit,
-      cylinders: cylinderInput((n, k) => initial.get(`${n}:${k}`)),
-      ...(pairingGroups?.length ? { groups: pairingGroups } : {}),
-    });
+      ...(removal.assemblyTarget !== null ? { assemblyTarget: removal.assemblyTarget } : {}),
+    };
+    const finished = computeBalance({ ...base, ...sameTargets, cylinders: asFinished });
+    const loop = closeTheLoop(removal, finished, final);
+    const retarget = loop.overMachined.length
+      ? retargetCosts(loop.overMachined, (kind) =>
+          computeBalance({
+            ...base,
+            targets: Object.fromEntries(
+              Object.entries(removal.targets).filter(([k]) => k !== kind),
+            ),
+            cylinders: asFinished,
+          }),
+        )
+      : [];
+
+    // A pairing changes the plan only when whole assemblies are matched, and is chosen before
+    // machining starts. Both figures come from this same plan, run on the two numberings.
+    let pairing: PlanPairing | null = null;
+    if (job.spec.matching === "by-cylinder" && final.size === 0) {
+      const suggestion = suggestPairing({
+        unit: job.spec.massUnit,
+        tolerance: job.spec.tolerance,
+        cylinders: cylinderInput((n, k) => initial.get(`${n}:${k}`)),
+        ...(pairingGroups?.length ? { groups: pairingGroups } : {}),
+      });
+      const pistonFrom = new Map(
+        suggestion.assignment.map((a) => [a.rodCylinder, a.pistonFromCylinder]),
+      );
+      const repaired = computeBalance({
+        ...base,
+        targets: setTargets,
+        cylinders: cylinderInput((n, k) =>
+          initial.get(`${PISTON_ASSEMBLY.includes(k) ? (pistonFrom.get(n) ?? n) : n}:${k}`),
+        ),
+      });
+      const saving = removalSaving(removal, repaired);
+      pairing = {
+        assignment: suggestion.assignment,
+        moves: suggestion.assignment
+          .filter((a) => a.rodCylinder !== a.pistonFromCylinder)
+          .map(({ rodCylinder, pistonFromCylinder }) => ({ rodCylinder, pistonFromCylinder })),
+        removedNumbered: saving.current,
+        removedSuggested: saving.alternative,
+        saved: saving.saved,
+        unfixedNumbered: suggestion.unfixedNumbered,
+        unfixedSuggested: suggestion.unfixedSuggested,
+        changed: suggestion.changed,
+      };
+    }
     return {
       ...empty,
       complete: true,
       removal,
       finished,
-      drill: drillDepths(job, removal),
+      totalRemoved: removalTotal(removal),
+      ...loop,
+      retarget,
       pairing,
       error: null,
     };
@@ -193,24 +325,111 @@ export function buildWorkshopPlan(
   }
 }
 
-function drillDepths(job: Job, removal: BalanceResult): WorkshopPlan["drill"] {
-  const diameter = job.spec.drillDiameterMm;
-  if (!diameter) return {};
-  const materials = parseDrillMaterials(job.spec.material);
-  const drill: WorkshopPlan["drill"] = {};
+/** The parts that travel with a piston when it moves to another rod. */
+const PISTON_ASSEMBLY: PartKind[] = ["piston", "wristPin", "retainers", "rings"];
+const MACHINED_IN_ASSEMBLY = ["piston", "smallEnd"] as const;
+
+/**
+ * Where each part stands after the re-weigh, from the two runs of the same engine: the plan on
+ * the first weights and the set as finished with the same targets (see {@link PartProgress}).
+ */
+function closeTheLoop(
+  removal: BalanceResult,
+  finished: BalanceResult,
+  reweighed: Map<string, string[]>,
+): Pick<WorkshopPlan, "progress" | "assemblies" | "overMachined"> {
+  const progress: Record<string, PartProgress> = {};
+  const assemblies: Record<number, PartProgress> = {};
+  const overMachined: OverMachined[] = [];
+  const after = new Map(finished.parts.map((p) => [`${p.cylinder}:${p.kind}`, p]));
+  const byCylinder = removal.matching === "by-cylinder";
+
   for (const part of removal.parts) {
-    const which = DRILLED_IN[part.kind];
-    if (part.status !== "remove" || !which) continue;
-    const material = materials[which];
-    const grams = job.spec.massUnit === "g" ? part.remove : convertMass(part.remove, "oz", "g");
-    drill[`${part.cylinder}:${part.kind}`] = {
-      ...drillDepthForMass({
-        mass: grams,
-        diameter,
-        density: MATERIAL_DENSITIES[material].density,
-      }),
-      material,
-    };
+    if (part.kind === "bearing") continue;
+    const key = `${part.cylinder}:${part.kind}`;
+    const now = after.get(key);
+    if (byCylinder && part.kind !== "bigEnd") continue;
+    if (!reweighed.has(key) || !now) {
+      if (part.status === "remove") progress[key] = { state: "to-do", amount: part.remove };
+      if (part.status === "reselect") progress[key] = { state: "reselect", amount: part.excess };
+      continue;
+    }
+    progress[key] = partState(now.status, now.remove, now.excess, now.short);
+    if (now.status === "light")
+      overMachined.push({ cylinder: part.cylinder, kind: part.kind, short: now.short ?? "0" });
   }
-  return drill;
+
+  if (byCylinder) {
+    for (const cylinder of removal.cylinders) {
+      const planned = cylinder.assembly;
+      const now = finished.cylinders.find((c) => c.number === cylinder.number)?.assembly;
+      if (!planned || !now) continue;
+      const keys = MACHINED_IN_ASSEMBLY.map((kind) => `${cylinder.number}:${kind}`);
+      const touched = keys.some((key) => reweighed.has(key));
+      assemblies[cylinder.number] = touched
+        ? partState(now.status, now.remove, now.over, now.short)
+        : planned.status === "remove"
+          ? { state: "to-do", amount: planned.remove }
+          : planned.status === "reselect"
+            ? { state: "reselect", amount: planned.over }
+            : planned.status === "light"
+              ? { state: "over", amount: planned.short }
+              : { state: "done" };
+      if (touched && now.status === "light")
+        overMachined.push({ cylinder: cylinder.number, kind: "assembly", short: now.short ?? "0" });
+      for (const key of keys) {
+        const part = removal.parts.find((p) => `${p.cylinder}:${p.kind}` === key);
+        const later = after.get(key);
+        if (!part || !later) continue;
+        if (!reweighed.has(key)) {
+          if (part.status === "remove") progress[key] = { state: "to-do", amount: part.remove };
+          continue;
+        }
+        // The assembly decides: in the band, done; still over, what this part is still to give
+        // (the piston first); light, over-machined if this part was machined at all.
+        progress[key] =
+          now.status === "light"
+            ? part.status === "remove"
+              ? { state: "over", amount: now.short }
+              : { state: "done" }
+            : later.status === "remove"
+              ? { state: "still", amount: later.remove }
+              : { state: "done" };
+      }
+    }
+  }
+  return { progress, assemblies, overMachined };
+}
+
+function partState(
+  status: BalanceResult["parts"][number]["status"],
+  remove: string,
+  over: string | undefined,
+  short: string | undefined,
+): PartProgress {
+  if (status === "remove") return { state: "still", amount: remove };
+  if (status === "reselect") return { state: "reselect", amount: over };
+  if (status === "light") return { state: "over", amount: short };
+  return { state: "done" };
+}
+
+/** Re-targeting each kind with an over-machined part to its lightest finished part. */
+function retargetCosts(
+  over: OverMachined[],
+  rerun: (kind: MatchedKind | "assembly") => BalanceResult,
+): Retarget[] {
+  const kinds = [...new Set(over.map((o) => o.kind))].filter(
+    (k): k is MatchedKind | "assembly" => k !== "bearing",
+  );
+  return kinds.map((kind) => {
+    const result = rerun(kind);
+    if (kind === "assembly") {
+      return {
+        kind,
+        target: result.assemblyTarget ?? "0",
+        extra: removalTotal(result, MACHINED_IN_ASSEMBLY),
+      };
+    }
+    return { kind, target: result.targets[kind] ?? "0", extra: removalTotal(result, [kind]) };
+  });
 }

@@ -124,7 +124,9 @@ describe("weigh-in", () => {
     const piston2 = ws.plan.removal!.parts.find((p) => p.cylinder === 2 && p.kind === "piston")!;
     // 401.2 − 400.0 = 1.2 g over the lightest, outside the 0.5 g band: machine to 400.0 (common practice).
     expect(piston2).toMatchObject({ status: "remove", remove: "1.2", final: "400" });
-    expect(ws.plan.drill["2:piston"]).toMatchObject({ material: "aluminium4032" });
+    // Pistons are milled, not drilled: the plan says how much, and no drill depth (common practice).
+    expect(ws.plan).not.toHaveProperty("drill");
+    expect(ws.plan.progress["2:piston"]).toEqual({ state: "to-do", amount: "1.2" });
     // An in-line four is balanced without bobweights (common practice).
     expect(ws.plan.finished!.bobweightNeeded).toBe(false);
   });

@@ -41,7 +41,14 @@ function workshopWith(records: { part: "flywheel" | "crankshaft"; data: Rotating
     const record = { ...r, version: 1, updatedAt: "2026-12-02T00:00:00Z" };
     return { ...record, check: checkRotatingRecord(record) };
   });
-  return { job, weights: [], targets: [], rotating, plan: emptyPlan } as Workshop;
+  return {
+    job,
+    weights: [],
+    targets: [],
+    rotating,
+    plan: emptyPlan,
+    lastPairing: null,
+  } as unknown as Workshop;
 }
 
 type Call = { method: string; url: string; body: Record<string, unknown> | null };

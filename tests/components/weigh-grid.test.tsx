@@ -27,7 +27,12 @@ const emptyPlan = {
   removal: null,
   finished: null,
   reweighed: 0,
-  drill: {},
+  matching: "by-part" as const,
+  totalRemoved: null,
+  progress: {},
+  assemblies: {},
+  overMachined: [],
+  retarget: [],
   pairing: null,
   error: null,
   held: [],
@@ -38,6 +43,7 @@ const initial: Workshop = {
   targets: [],
   rotating: [],
   plan: emptyPlan,
+  lastPairing: null,
   outlierPercent: "5",
 };
 

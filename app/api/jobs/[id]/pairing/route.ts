@@ -1,17 +1,21 @@
 import { getDb } from "@/db/client";
-import { reassignPistonAssemblies } from "@/db/weights";
+import { applyPairing } from "@/db/pairing";
 import { requireApiUser } from "@/lib/auth/guard";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
 import { pairingApplySchema } from "@/lib/validation/workshop";
 import { loadWorkshop } from "@/lib/workshop/load";
 
-/** Applies a piston-to-rod pairing: the piston assemblies move to their new rods. */
+/**
+ * Applies a piston-to-rod pairing: the piston assemblies move to their new rods, recorded in
+ * the job's change history (undo with POST …/pairing/undo). Answers the new bench record.
+ */
 export const POST = route<{ id: string }>(async (req, { params }) => {
   const user = await requireApiUser(["machinist", "owner"]);
   const db = getDb();
   const job = await findJobForUser(db, parseId((await params).id), user);
-  const { assignment } = await parseJson(req, pairingApplySchema);
-  await reassignPistonAssemblies(db, job.id, assignment, user.id);
+  const { assignment, lastPairingId } = await parseJson(req, pairingApplySchema);
+  const cylinders = job.spec.cylinders ?? 0;
+  await applyPairing(db, { id: job.id, cylinders }, assignment, user.id, lastPairingId);
   return json(await loadWorkshop(db, job));
 });
