@@ -289,10 +289,7 @@ function Bobweights({ data }: { data: CardData }) {
   const factor = data.balanceFactor ? showEntered(data.balanceFactor) : "—";
   return (
     <View style={s.section} wrap={false}>
-      <SectionHead
-        title="Bobweights"
-        note={`Balance factor ${factor} % · oil allowance ${showEntered(data.oilAllowance)} ${unit} per crankpin`}
-      />
+      <SectionHead title="Bobweights" note={`Balance factor ${factor} % · ${cardOilLine(data)}`} />
       <Text style={[s.note, { marginBottom: 2 }]}>
         Bobweight = rotating mass (big ends, bearings, oil allowance) + {factor} % of the
         reciprocating mass of the rods on the crankpin.
@@ -319,8 +316,29 @@ function Bobweights({ data }: { data: CardData }) {
           </View>
         </View>
       ))}
+      {(data.buildTo ?? []).map((set) => (
+        <View key={set.rodsPerPin} style={[s.row, { marginTop: 3 }]}>
+          <Text style={{ flex: 1 }}>
+            Build to, crankpins {set.pins.map((p) => p.crankpin).join(", ")} (
+            {set.rodsPerPin === 1 ? "one rod" : `${set.rodsPerPin} rods`} each): the mean of the
+            pins, spread {showDerivedMass(set.spread, data.resolution)} {unit}
+            {set.spreadAboveResolution ? ", more than the scale resolution" : ""}
+          </Text>
+          <Fig style={s.bobweight}>{`${showDerivedMass(set.mass, data.resolution)} ${unit}`}</Fig>
+        </View>
+      ))}
     </View>
   );
+}
+
+/** The oil allowance as the bobweights took it: per rod and per pin, or the older per-crankpin figure. */
+function cardOilLine(data: CardData): string {
+  const show = (v: string) => showDerivedMass(v, data.resolution);
+  if (data.oilAllowancePerRod === undefined || data.oilAllowancePerRod === null) {
+    return `oil allowance ${showEntered(data.oilAllowance)} ${data.unit} per crankpin`;
+  }
+  const pinOil = [...new Set(data.bobweights.map((b) => b.oil ?? "0"))].map(show).join(" or ");
+  return `oil allowance ${show(data.oilAllowancePerRod)} ${data.unit} per rod, ${pinOil} ${data.unit} per pin`;
 }
 
 function Verdict({ record }: { record: CardRotatingRecord }) {
