@@ -2,11 +2,20 @@ import Papa from "papaparse";
 import { describe, expect, it } from "vitest";
 import { DEFAULT_SPEC, type Job } from "@/db/jobs";
 import type { PartWeight } from "@/db/weights";
-import { previewWeightsCsv, weightsToCsv } from "@/lib/workshop/csv";
+import { planToCsv, previewWeightsCsv, weightsToCsv } from "@/lib/workshop/csv";
+import { buildWorkshopPlan } from "@/lib/workshop/plan";
 
 const job = { id: 1, spec: { ...DEFAULT_SPEC, layout: "inline-4", cylinders: 4 } } as Job;
 const saved: PartWeight[] = [
-  { cylinder: 1, kind: "piston", phase: "initial", readings: ["400.0"], version: 3, updatedAt: "" },
+  {
+    cylinder: 1,
+    kind: "piston",
+    phase: "initial",
+    readings: ["400.0"],
+    confirmedOutlier: false,
+    version: 3,
+    updatedAt: "",
+  },
 ];
 
 describe("reading weights from a CSV", () => {
@@ -72,6 +81,7 @@ describe("reading weights from a CSV", () => {
         kind: "smallEnd",
         phase: "final",
         readings: ["150.2", "150.3"],
+        confirmedOutlier: false,
         version: 1,
         updatedAt: "",
       },
@@ -86,5 +96,46 @@ describe("reading weights from a CSV", () => {
       unchanged: 1,
       errors: [],
     });
+  });
+});
+
+describe("the removal plan as CSV", () => {
+  it("writes figures by the display rule: readings at the scale, means and worked-out masses one decimal finer", () => {
+    const four = {
+      piston: ["400.0", ["401.1", "401.2", "401.2"], "400.3", "400.2"],
+      wristPin: ["100.0", "100.1", "100.0", "100.2"],
+      smallEnd: ["150.0", "150.4", "150.3", "150.2"],
+      bigEnd: ["400.0", "400.2", "400.4", "400.1"],
+    } as const;
+    const weights: PartWeight[] = Object.entries(four).flatMap(([kind, values]) =>
+      values.map((v, i) => ({
+        cylinder: i + 1,
+        kind: kind as PartWeight["kind"],
+        phase: "initial" as const,
+        readings: typeof v === "string" ? [v] : [...v],
+        confirmedOutlier: false,
+        version: 1,
+        updatedAt: "",
+      })),
+    );
+    const rows = Papa.parse<Record<string, string>>(
+      planToCsv(buildWorkshopPlan(job, weights, []), job),
+      { header: true },
+    ).data;
+    const piston = (c: number) => rows.find((r) => r.part === "piston" && r.cylinder === String(c));
+    // The lightest piston, one reading: at the 0.1 g resolution, left as weighed.
+    expect(piston(1)).toMatchObject({ weighed: "400.0", finished: "400.0", state: "in band" });
+    // Three readings: 1203.5 / 3 = 401.1666… g (by hand), 1.1666… g over the 400.0 g target,
+    // outside the 0.5 g band: machined to the target (common practice).
+    expect(piston(2)).toMatchObject({
+      weighed: "401.17",
+      target: "400.00",
+      finished: "400.00",
+      state: "take off",
+      unit: "g",
+    });
+    expect(Object.values(piston(2)!).join(" ")).toContain("1.17");
+    for (const row of rows)
+      for (const value of Object.values(row)) expect(value).not.toMatch(/\d\.\d{3,}/);
   });
 });
