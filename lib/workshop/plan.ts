@@ -354,6 +354,8 @@ function closeTheLoop(
       if (part.status === "reselect") progress[key] = { state: "reselect", amount: part.excess };
       continue;
     }
+    // Light from the start (under a target set by hand) is the replace banner's, not machining's.
+    if (part.status === "light" && now.status === "light") continue;
     progress[key] = partState(now.status, now.remove, now.excess, now.short);
     if (now.status === "light")
       overMachined.push({ cylinder: part.cylinder, kind: part.kind, short: now.short ?? "0" });
@@ -366,15 +368,12 @@ function closeTheLoop(
       if (!planned || !now) continue;
       const keys = MACHINED_IN_ASSEMBLY.map((kind) => `${cylinder.number}:${kind}`);
       const touched = keys.some((key) => reweighed.has(key));
-      assemblies[cylinder.number] = touched
-        ? partState(now.status, now.remove, now.over, now.short)
-        : planned.status === "remove"
-          ? { state: "to-do", amount: planned.remove }
-          : planned.status === "reselect"
-            ? { state: "reselect", amount: planned.over }
-            : planned.status === "light"
-              ? { state: "over", amount: planned.short }
-              : { state: "done" };
+      if (touched)
+        assemblies[cylinder.number] = partState(now.status, now.remove, now.over, now.short);
+      else if (planned.status === "remove")
+        assemblies[cylinder.number] = { state: "to-do", amount: planned.remove };
+      else if (planned.status === "reselect")
+        assemblies[cylinder.number] = { state: "reselect", amount: planned.over };
       if (touched && now.status === "light")
         overMachined.push({ cylinder: cylinder.number, kind: "assembly", short: now.short ?? "0" });
       for (const key of keys) {

@@ -116,6 +116,17 @@ describe("closing the loop after the re-weigh (by part)", () => {
   });
 });
 
+describe("a part light from the start", () => {
+  it("stays with the replace list, not the over-machined banner, when re-weighed", () => {
+    // Target set by hand at 400.5: piston 1 (400.0) is 0.5 light before any machining.
+    const target = [{ kind: "piston" as const, target: "400.5", version: 1 }];
+    const plan = buildWorkshopPlan(job(), weights(FOUR, [[1, "piston", "400.0"]]), target);
+    expect(plan.removal!.parts[0]).toMatchObject({ status: "light", short: "0.5" });
+    expect(plan.overMachined).toEqual([]);
+    expect(plan.progress["1:piston"]).toBeUndefined();
+  });
+});
+
 describe("matching by cylinder", () => {
   // Reciprocating (piston + pin + small end): 650.0, 651.7, 651.3, 651.3 → target 650.0, band
   // to 650.5; lightest piston 400.0, lightest small end 150.0.
