@@ -174,6 +174,7 @@ interface Marks {
 function figureMark(figure: CardPartFigure, marks: Marks): { text: string; color: string } | null {
   if (figure.status === "light") return { text: "L", color: REPLACE };
   if (figure.status === "remove") return { text: "H", color: MACHINE };
+  if (figure.status === "reselect") return { text: "R", color: REPLACE };
   if (marks.anyReweighed && !figure.reweighed && figure.before !== figure.after)
     return { text: "*", color: MUTED };
   return null;
@@ -223,7 +224,8 @@ function PartsTable({ data }: { data: CardData }) {
       />
       <Text style={[s.note, { marginBottom: 2 }]}>
         {legend} Worked-out figures (means, planned weights, sums, targets) carry one decimal more
-        than the scale. L light: needs a heavier part. H still above the band.
+        than the scale. L light: needs a heavier part. H still above the band. R to re-select
+        (rings, pins, retainers are not machined).
       </Text>
       <View style={s.tableHead} fixed>
         <Text style={s.cNo}>CYL</Text>
