@@ -43,6 +43,17 @@ const EXPORT_NAMES: Record<PartKind, string> = {
 
 const key = (s: string) => s.toLowerCase().replace(/[^a-z]/g, "");
 
+const UNIT_WORDS = { g: "grams", oz: "ounces" } as const;
+
+/** A unit column's value: absent (""), grams, ounces, or something else. */
+function unitOf(text: string | undefined): "g" | "oz" | "unknown" | null {
+  const k = key(text ?? "");
+  if (k === "") return null;
+  if (["g", "gram", "grams", "gr"].includes(k)) return "g";
+  if (["oz", "ounce", "ounces"].includes(k)) return "oz";
+  return "unknown";
+}
+
 export interface CsvRowError {
   /** The line in the file, counting the heading as line 1. */
   line: number;
@@ -98,6 +109,7 @@ export function previewWeightsCsv(
   const partCol = find("part", "kind", "item");
   const weightCol = find("weight", "reading", "mass", "grams", "g", "oz", "value");
   const phaseCol = find("phase", "stage", "when");
+  const unitCol = find("unit", "units");
   const cylinders = job.spec.cylinders ?? 0;
   const collected = new Map<
     string,
@@ -110,9 +122,25 @@ export function previewWeightsCsv(
     kind: PartKind,
     phase: WeighPhase,
     value: string | undefined,
+    unitText?: string,
   ) => {
     const weight = (value ?? "").trim();
     if (weight === "") return;
+    const rowUnit = unitOf(unitText);
+    if (rowUnit === "unknown") {
+      errors.push({
+        line,
+        message: `Unit "${unitText ?? ""}" is neither grams (g) nor ounces (oz).`,
+      });
+      return;
+    }
+    if (rowUnit && rowUnit !== job.spec.massUnit) {
+      errors.push({
+        line,
+        message: `This weight is in ${UNIT_WORDS[rowUnit]}, but the job is weighed in ${UNIT_WORDS[job.spec.massUnit]}: convert it, or change the job's unit before weighing.`,
+      });
+      return;
+    }
     const cylinder = Number((cylinderText ?? "").trim());
     if (!Number.isInteger(cylinder) || cylinder < 1 || cylinder > cylinders) {
       errors.push({
@@ -160,13 +188,13 @@ export function previewWeightsCsv(
           message: `"${row[partCol] ?? ""}" is not a part we weigh.`,
         });
       const phase = phaseOf(line, phaseCol ? row[phaseCol] : undefined);
-      if (phase) add(line, row[cylinderCol], kind, phase, row[weightCol]);
+      if (phase) add(line, row[cylinderCol], kind, phase, row[weightCol], unitCol && row[unitCol]);
     });
   } else {
     format = "one row per cylinder";
     const partCols = headers.filter((h) => KIND_NAMES[key(h)] && h !== cylinderCol);
     const unknown = headers.filter(
-      (h) => h !== cylinderCol && h !== phaseCol && !KIND_NAMES[key(h)],
+      (h) => h !== cylinderCol && h !== phaseCol && h !== unitCol && !KIND_NAMES[key(h)],
     );
     if (partCols.length === 0)
       errors.push({
@@ -179,7 +207,8 @@ export function previewWeightsCsv(
       const line = i + 2;
       const phase = phaseOf(line, phaseCol ? row[phaseCol] : undefined);
       if (phase)
-        for (const h of partCols) add(line, row[cylinderCol], KIND_NAMES[key(h)]!, phase, row[h]);
+        for (const h of partCols)
+          add(line, row[cylinderCol], KIND_NAMES[key(h)]!, phase, row[h], unitCol && row[unitCol]);
     });
   }
 
@@ -208,17 +237,19 @@ export function previewWeightsCsv(
   return { format, unit: job.spec.massUnit, changes, unchanged, errors };
 }
 
-/** The weigh-in as saved, one row per reading. */
-export function weightsToCsv(weights: PartWeight[]): string {
+/** The weigh-in as saved, one row per reading; with the job's unit named on every row when given. */
+export function weightsToCsv(weights: PartWeight[], unit?: Job["spec"]["massUnit"]): string {
   const rows = weights.flatMap((w) =>
     w.readings.map((r) => ({
       cylinder: w.cylinder,
       part: EXPORT_NAMES[w.kind],
       phase: w.phase === "initial" ? "first" : "final",
       weight: r,
+      ...(unit ? { unit } : {}),
     })),
   );
-  return Papa.unparse(rows, { columns: ["cylinder", "part", "phase", "weight"] });
+  const columns = ["cylinder", "part", "phase", "weight", ...(unit ? ["unit"] : [])];
+  return Papa.unparse(rows, { columns });
 }
 
 /**

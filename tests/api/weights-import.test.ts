@@ -124,10 +124,11 @@ describe("importing weights from a CSV", () => {
     const res = await weightsCsv(jsonRequest("GET", "/x"), params({ id: String(job.id) }));
     expect(res.headers.get("content-type")).toBe("text/csv; charset=utf-8");
     expect(res.headers.get("content-disposition")).toContain(`weigh-in-${job.number}.csv`);
-    expect(await res.text()).toContain("2,piston,first,401.2");
+    // Every row names the job's unit, so a file read elsewhere cannot be taken for ounces.
+    expect(await res.text()).toContain("2,piston,first,401.2,g");
     const plan = await planCsv(jsonRequest("GET", "/x"), params({ id: String(job.id) }));
-    expect((await plan.text()).split("\r\n")[0]).toContain(
-      "cylinder,part,weighed,target,remove,finished,state",
+    expect((await plan.text()).split("\r\n")[0]).toBe(
+      "cylinder,part,weighed,target,remove,how,finished,state,after_reweigh,unit",
     );
   });
 });

@@ -139,3 +139,29 @@ describe("the removal plan as CSV", () => {
       for (const value of Object.values(row)) expect(value).not.toMatch(/\d\.\d{3,}/);
   });
 });
+
+describe("the unit goes with the weights", () => {
+  it("names the job's unit on every exported row and reads it back", () => {
+    const csv = weightsToCsv(saved, "g");
+    expect(Papa.parse(csv, { header: true }).data).toEqual([
+      { cylinder: "1", part: "piston", phase: "first", weight: "400.0", unit: "g" },
+    ]);
+    expect(previewWeightsCsv(csv, job, saved, "initial")).toMatchObject({
+      unchanged: 1,
+      errors: [],
+    });
+  });
+
+  it("refuses weights in ounces for a job weighed in grams, naming the line", () => {
+    const csv = ["cylinder,part,weight,unit", "1,piston,14.110,oz", "2,piston,401.2,g"].join("\n");
+    const p = previewWeightsCsv(csv, job, [], "initial");
+    expect(p.errors).toEqual([
+      {
+        line: 2,
+        message:
+          "This weight is in ounces, but the job is weighed in grams: convert it, or change the job's unit before weighing.",
+      },
+    ]);
+    expect(p.changes.map((c) => c.next)).toEqual([["401.2"]]);
+  });
+});

@@ -6,12 +6,12 @@ import { parseId, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
 import { weightsToCsv } from "@/lib/workshop/csv";
 
-/** The weigh-in as CSV, one row per reading. */
+/** The weigh-in as CSV, one row per reading, in the job's unit (named on every row). */
 export const GET = route<{ id: string }>(async (_req, { params }) => {
   const user = await requireApiUser(ALL_ROLES);
   const job = await findJobForUser(getDb(), parseId((await params).id), user);
   return csvResponse(
-    weightsToCsv(await listPartWeights(getDb(), job.id)),
+    weightsToCsv(await listPartWeights(getDb(), job.id), job.spec.massUnit),
     `weigh-in-${job.number}.csv`,
   );
 });
