@@ -1,18 +1,23 @@
 "use client";
 
+import { useQuery } from "@tanstack/react-query";
 import { type FormEvent, useState } from "react";
 import type { CardPageSize } from "@/db/cards-schema";
 import { ApiError, apiFetch } from "@/lib/api-client";
 import type { CardSendResult } from "@/lib/cards/send";
 import type { CardMailSummary, CardSummary } from "@/lib/cards/summary";
+import { cardsKey, useCardsIssued } from "./card-queries";
+import { IssueCardForm } from "./issue-card-form";
 
 export interface CardsPanelProps {
   jobId: number;
   initialCards: CardSummary[];
   canIssue: boolean;
   canSend: boolean;
-  /** Why a card cannot be issued yet (the weigh-in is not complete), or null. */
+  /** Why a card cannot be issued yet (the weigh-in is not complete, a weight is held), or null. */
   blocker: string | null;
+  /** Parts the next card would carry only with a reason (lib/cards/exceptions.ts). */
+  exceptions: string[];
   customerEmail: string | null;
   defaultPageSize: CardPageSize;
 }
@@ -41,34 +46,15 @@ function StatusLine({ status, testId }: { status: Status; testId: string }) {
 /** The job's balance cards: every revision, issuing the next one, e-mailing one to the customer. */
 export function CardsPanel(props: CardsPanelProps) {
   const { jobId, canIssue, canSend, blocker, customerEmail, defaultPageSize } = props;
-  const [cards, setCards] = useState(props.initialCards);
-  const [pageSize, setPageSize] = useState<CardPageSize>(defaultPageSize);
-  const [status, setStatus] = useState<Status>({ kind: "idle" });
-
-  async function refresh() {
-    const { cards: fresh } = await apiFetch<{ cards: CardSummary[] }>(`/api/jobs/${jobId}/cards`);
-    setCards(fresh);
-  }
-
-  async function issue() {
-    setStatus({
-      kind: "busy",
-      text: "Issuing the card: working out the figures and making the PDF…",
-    });
-    try {
-      const { card } = await apiFetch<{ card: CardSummary }>(`/api/jobs/${jobId}/cards`, {
-        method: "POST",
-        body: { pageSize },
-      });
-      await refresh().catch(() => setCards((list) => [card, ...list]));
-      setStatus({
-        kind: "done",
-        text: `Revision ${card.revision} issued, verification code ${card.verificationCode}.`,
-      });
-    } catch (error) {
-      setStatus({ kind: "failed", text: messageOf(error) });
-    }
-  }
+  const { data } = useQuery({
+    queryKey: cardsKey(jobId),
+    queryFn: async () =>
+      (await apiFetch<{ cards: CardSummary[] }>(`/api/jobs/${jobId}/cards`)).cards,
+    initialData: props.initialCards,
+  });
+  const cards = data ?? props.initialCards;
+  const issued = useCardsIssued(jobId);
+  const refresh = () => issued().then(() => undefined);
 
   const current = cards.find((c) => c.current);
   return (
@@ -94,46 +80,21 @@ export function CardsPanel(props: CardsPanelProps) {
 
       {canIssue ? (
         <div className="space-y-2 border-t border-graphite-200 pt-4">
-          {blocker ? (
-            <p className="text-sm text-machine" data-testid="card-blocker">
-              {blocker}
-            </p>
-          ) : null}
-          <div className="flex flex-wrap items-end gap-3">
-            <div>
-              <label htmlFor={`card-paper-${jobId}`} className="mb-1 block text-sm font-semibold">
-                Paper
-              </label>
-              <select
-                id={`card-paper-${jobId}`}
-                className="field-input w-auto"
-                value={pageSize}
-                onChange={(e) => setPageSize(e.target.value as CardPageSize)}
-              >
-                <option value="A4">A4</option>
-                <option value="LETTER">US Letter</option>
-              </select>
-            </div>
-            <button
-              type="button"
-              className="btn-primary"
-              onClick={issue}
-              disabled={status.kind === "busy" || blocker !== null}
-            >
-              {status.kind === "busy"
-                ? "Issuing…"
-                : current
-                  ? `Issue balance card (revision ${current.revision + 1})`
-                  : "Issue balance card"}
-            </button>
-          </div>
+          <IssueCardForm
+            jobId={jobId}
+            nextRevision={(cards[0]?.revision ?? 0) + 1}
+            blocker={blocker}
+            exceptions={props.exceptions}
+            defaultPageSize={defaultPageSize}
+            choosePaper
+            onIssued={() => refresh().catch(() => undefined)}
+          />
           {current ? (
             <p className="text-xs text-graphite-500">
               Issuing again makes a new revision with today&apos;s figures; revision{" "}
               {current.revision} stays on file and is marked as replaced.
             </p>
           ) : null}
-          <StatusLine status={status} testId="card-issue-status" />
         </div>
       ) : null}
     </div>

@@ -2,6 +2,7 @@ import { getDb } from "@/db/client";
 import { findCustomerById } from "@/db/customers";
 import type { User } from "@/db/users";
 import { cardBlocker } from "@/lib/cards/blocker";
+import { cardExceptions } from "@/lib/cards/exceptions";
 import { listJobCards } from "@/lib/cards/list";
 import { env } from "@/lib/env";
 import { findJobForUser } from "@/lib/jobs/access";
@@ -38,6 +39,7 @@ export async function JobCards({ jobId, user }: { jobId: number; user: User }) {
         canIssue={canIssue}
         canSend={canSend}
         blocker={workshop ? cardBlocker(workshop) : null}
+        exceptions={workshop ? cardExceptions(workshop).map((e) => e.text) : []}
         customerEmail={customer?.email ?? null}
         defaultPageSize={env().CARD_PAGE_SIZE}
       />

@@ -1,3 +1,5 @@
+import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
+import { createElement } from "react";
 import { renderToStaticMarkup } from "react-dom/server";
 import { beforeEach, describe, expect, it } from "vitest";
 import { JobCards } from "@/components/cards/job-cards";
@@ -5,9 +7,14 @@ import type { DB } from "@/db/client";
 import { createJob } from "@/db/jobs";
 import type { Role } from "@/db/schema";
 import type { User } from "@/db/users";
+import { savePartTarget } from "@/db/weights";
 import { issueCard } from "@/lib/cards/issue";
 import { addOneOfEachRole, freshDb } from "../../helpers/db";
-import { createFourCylinderJob } from "../../api/cards/fixtures";
+import {
+  createFourCylinderJob,
+  createWeighedJob,
+  FOUR_CYL_WEIGHTS,
+} from "../../api/cards/fixtures";
 
 let db: DB;
 let users: Record<Role, User>;
@@ -17,8 +24,15 @@ beforeEach(async () => {
   users = await addOneOfEachRole(db);
 });
 
+// The panel reads the card list through TanStack Query, as the app's providers give it.
 const html = async (jobId: number, user: User) =>
-  renderToStaticMarkup(await JobCards({ jobId, user }));
+  renderToStaticMarkup(
+    createElement(
+      QueryClientProvider,
+      { client: new QueryClient() },
+      await JobCards({ jobId, user }),
+    ),
+  );
 
 describe("the job page's balance card panel", () => {
   it("lists every revision, current and replaced, with downloads, for the machinist to issue the next", async () => {
@@ -60,5 +74,24 @@ describe("the job page's balance card panel", () => {
     expect(page).toContain("No balance card has been issued for this job yet.");
     expect(page).toContain("The weigh-in is not complete: 4 parts have no weight yet");
     expect(page).toMatch(/<button[^>]*disabled=""[^>]*>Issue balance card<\/button>/);
+  });
+
+  it("lists the parts a card would carry only with a reason, with the override to tick", async () => {
+    // Pistons 400.0, 401.2, 400.3, 400.9 with a set target of 400.2: cylinder 1's 400.0 is light.
+    const job = await createWeighedJob(
+      db,
+      users.customer.customerId!,
+      { layout: "inline-4", cylinders: 4 },
+      FOUR_CYL_WEIGHTS,
+    );
+    await savePartTarget(
+      db,
+      { jobId: job.id, kind: "piston", target: "400.2", baseVersion: 0 },
+      null,
+    );
+    const page = await html(job.id, users.machinist);
+    expect(page).toContain("cylinder 1 piston light (400.0 g against the target 400.20 g)");
+    expect(page).toContain("Issue with these parts");
+    expect(page).toContain("Reason (printed on the card)");
   });
 });

@@ -1,6 +1,10 @@
 import type { ReactNode } from "react";
+import { CardStaleBanner } from "@/components/cards/card-stale-banner";
 import { JobTabs } from "@/components/jobs/job-tabs";
 import { StatusBadge } from "@/components/jobs/status-badge";
+import { getDb } from "@/db/client";
+import { findCardStatus } from "@/lib/cards/status";
+import { env } from "@/lib/env";
 import { loadPageJob } from "@/lib/jobs/page-job";
 
 export default async function JobLayout({
@@ -12,6 +16,8 @@ export default async function JobLayout({
 }) {
   const { id } = await params;
   const { job, user } = await loadPageJob(id, `/jobs/${id}`);
+  // Shop staff see when the job has moved on from its balance card, on every page of the job.
+  const cardStatus = user.role === "customer" ? null : await findCardStatus(getDb(), job.id, user);
   return (
     <div>
       <header className="mb-4 flex flex-wrap items-baseline gap-x-4 gap-y-1">
@@ -22,6 +28,14 @@ export default async function JobLayout({
         </p>
       </header>
       <JobTabs jobId={job.id} role={user.role} />
+      {cardStatus ? (
+        <CardStaleBanner
+          jobId={job.id}
+          initial={cardStatus}
+          canIssue={user.role === "machinist" || user.role === "owner"}
+          defaultPageSize={env().CARD_PAGE_SIZE}
+        />
+      ) : null}
       {children}
     </div>
   );
