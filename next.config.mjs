@@ -18,7 +18,6 @@ const contentSecurityPolicy = [
 ].join("; ");
 
 export const securityHeaders = [
-  { key: "Content-Security-Policy", value: contentSecurityPolicy },
   { key: "X-Content-Type-Options", value: "nosniff" },
   { key: "Referrer-Policy", value: "strict-origin-when-cross-origin" },
   { key: "X-Frame-Options", value: "DENY" },
@@ -29,13 +28,33 @@ export const securityHeaders = [
   },
 ];
 
+/** Paths (without the leading slash) whose answers carry their own Content-Security-Policy. */
+export const OWN_POLICY_PATHS = ["api/uploads/", "api/settings/logo$"];
+
+/** next-auth's session cookie, over http and (with the __Secure- prefix) over https. */
+const SESSION_COOKIES = ["next-auth.session-token", "__Secure-next-auth.session-token"];
+
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   serverExternalPackages: ["better-sqlite3", "sharp"],
   poweredByHeader: false,
   typedRoutes: false,
   async headers() {
-    return [{ source: "/:path*", headers: securityHeaders }];
+    return [
+      { source: "/:path*", headers: securityHeaders },
+      // A header set here replaces the route's own, so the routes that serve stored files with a
+      // stricter policy of their own (`sandbox`: lib/uploads/serve.ts, the logo) are left out.
+      {
+        source: `/:path((?!${OWN_POLICY_PATHS.join("|")}).*)`,
+        headers: [{ key: "Content-Security-Policy", value: contentSecurityPolicy }],
+      },
+      // What a signed-in browser is sent depends on its session cookie: caches must key on it.
+      ...SESSION_COOKIES.map((key) => ({
+        source: "/:path*",
+        has: [{ type: "cookie", key }],
+        headers: [{ key: "Vary", value: "Cookie" }],
+      })),
+    ];
   },
 };
 

@@ -11,10 +11,21 @@ const schema = z.object({
       .regex(/^postgres(ql)?:\/\/\S+$/, "DATABASE_URL must be a postgres:// address")
       .optional(),
   ),
-  NEXTAUTH_SECRET: z.string().min(16).optional(),
+  // Its length is checked by startupProblems() (32 characters in production), not here: a bad
+  // value must stop the server at start, not turn every signed-in page into a 500 later.
+  NEXTAUTH_SECRET: z.string().min(1).optional(),
   NEXTAUTH_URL: z.string().url().optional(),
+  // Sign-in throttling (lib/auth/throttle.ts): failed tries allowed before each wait, per client
+  // address and per e-mail, and the longest wait, in minutes.
   SIGN_IN_MAX_FAILURES: z.coerce.number().int().positive().default(5),
-  SIGN_IN_LOCKOUT_MINUTES: z.coerce.number().int().positive().default(15),
+  SIGN_IN_MAX_FAILURES_PER_EMAIL: z.coerce.number().int().positive().default(20),
+  SIGN_IN_MAX_FAILURES_PER_ADDRESS: z.coerce.number().int().positive().default(100),
+  SIGN_IN_MAX_DELAY_MINUTES: z.coerce.number().positive().max(1440).default(15),
+  // Strict-Transport-Security on every answer: turn on where the app is reached over https only.
+  HSTS: z.preprocess(
+    (v) => (typeof v === "string" ? v.trim().toLowerCase() : v),
+    z.enum(["on", "off"]).default("off"),
+  ),
   NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
   // Uploads and e-mail. UPLOAD_MAX_MB is the per-file limit in MiB.
   UPLOADS_DIR: z.string().min(1).default("data/uploads"),
@@ -53,12 +64,58 @@ export function resetEnvCache(): void {
   cached = undefined;
 }
 
+/** The shortest session secret accepted in production: 32 characters (256 bits as hex is 64). */
+export const MIN_SECRET_LENGTH = 32;
+
 /** The signing secret; required outside development and tests. */
 export function authSecret(): string {
   const { NEXTAUTH_SECRET, NODE_ENV } = env();
-  if (NEXTAUTH_SECRET) return NEXTAUTH_SECRET;
-  if (NODE_ENV === "production") {
-    throw new Error("NEXTAUTH_SECRET must be set (at least 16 characters) to run in production.");
+  if (NODE_ENV === "production" && (NEXTAUTH_SECRET ?? "").length < MIN_SECRET_LENGTH) {
+    throw new Error(secretProblem(NEXTAUTH_SECRET));
   }
+  if (NEXTAUTH_SECRET) return NEXTAUTH_SECRET;
   return "counterpoise-development-secret-not-for-production";
+}
+
+function secretProblem(secret: string | undefined): string {
+  const said = secret ? `is ${secret.length} characters long` : "is not set";
+  return `NEXTAUTH_SECRET ${said}: production needs at least ${MIN_SECRET_LENGTH} random characters (for example \`openssl rand -hex 32\`).`;
+}
+
+/**
+ * The origins the app is reached at (APP_URL and NEXTAUTH_URL), e.g. "https://shop.example.test".
+ * Requests that change something must come from a page of one of these (lib/http/origin.ts).
+ */
+export function appOrigins(): string[] {
+  const { APP_URL, NEXTAUTH_URL } = env();
+  const origins = [APP_URL, NEXTAUTH_URL].flatMap((u) => (u ? [new URL(u).origin] : []));
+  return [...new Set(origins.length ? origins : ["http://localhost:3000"])];
+}
+
+/**
+ * Everything in the environment that would make the server fail later rather than now: an
+ * unreadable setting, a missing or short session secret in production. Empty when all is well.
+ * The server refuses to start on any of them (instrumentation.ts).
+ */
+export function startupProblems(source: NodeJS.ProcessEnv = process.env): string[] {
+  const parsed = schema.safeParse(source);
+  if (!parsed.success) {
+    return parsed.error.issues.map((i) => `${i.path.join(".") || "environment"}: ${i.message}`);
+  }
+  const problems: string[] = [];
+  const { NODE_ENV, NEXTAUTH_SECRET } = parsed.data;
+  if (NODE_ENV === "production" && (NEXTAUTH_SECRET ?? "").length < MIN_SECRET_LENGTH) {
+    problems.push(secretProblem(NEXTAUTH_SECRET));
+  }
+  return problems;
+}
+
+/** Stops the process with the problems listed, if there are any (called at server start). */
+export function exitOnStartupProblems(): void {
+  const problems = startupProblems();
+  if (problems.length === 0) return;
+  console.error(
+    `Counterpoise cannot start with these settings:\n${problems.map((p) => `  - ${p}`).join("\n")}`,
+  );
+  process.exit(1);
 }

@@ -4,6 +4,7 @@ import { getDb } from "@/db/client";
 import { authSecret } from "@/lib/env";
 import { signInSchema } from "@/lib/validation/users";
 import { signInWithPassword } from "./sign-in";
+import { clientAddress } from "./throttle";
 
 /** Sessions last a working day; after that the sign-in page says the session expired. */
 export const SESSION_MAX_AGE_SECONDS = 12 * 60 * 60;
@@ -17,10 +18,16 @@ export function authOptions(): NextAuthOptions {
       Credentials({
         name: "E-mail and password",
         credentials: { email: { type: "email" }, password: { type: "password" } },
-        async authorize(credentials) {
+        async authorize(credentials, req) {
           const parsed = signInSchema.safeParse(credentials);
           if (!parsed.success) throw new Error("Enter your e-mail and password.");
-          const result = await signInWithPassword(getDb(), parsed.data.email, parsed.data.password);
+          const result = await signInWithPassword(
+            getDb(),
+            parsed.data.email,
+            parsed.data.password,
+            new Date(),
+            clientAddress(req?.headers),
+          );
           if (!result.ok) throw new Error(result.message);
           return {
             id: String(result.user.id),

@@ -1,17 +1,9 @@
-import { HttpError } from "@/lib/http/errors";
+import { readOptionalJson } from "@/lib/http/route";
 import { contentDisposition } from "@/lib/uploads/file-names";
 import type { CardFile } from "./list";
 
-/** A JSON body that may be left out entirely (an empty POST); anything present must be JSON. */
-export async function readOptionalJson(req: Request): Promise<unknown> {
-  const text = await req.text();
-  if (text.trim() === "") return {};
-  try {
-    return JSON.parse(text) as unknown;
-  } catch {
-    throw new HttpError(400, "bad_json", "The request body is not valid JSON.");
-  }
-}
+// An empty POST issues with the defaults; anything present is JSON read within the route's limits.
+export { readOptionalJson };
 
 /** The issue options: the JSON body, with `?pageSize=` used when the body does not name one. */
 export async function readIssueRequest(req: Request): Promise<unknown> {

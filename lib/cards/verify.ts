@@ -112,7 +112,7 @@ export function findCodesInPdf(bytes: Uint8Array): string[] {
  * Checks an uploaded file against the cards issued: the very file we issued ("genuine"), a PDF
  * that names one of our cards but differs from it by even one byte ("altered"), or neither.
  *
- * @throws HttpError 422 when the file is not a PDF
+ * @throws HttpError 422 when the file is not a PDF, or names more than MAX_CODES_PER_CHECK codes
  */
 export async function checkCardPdf(db: DB, bytes: Uint8Array): Promise<CardCheck> {
   const type = await fileTypeFromBuffer(bytes);
@@ -123,7 +123,30 @@ export async function checkCardPdf(db: DB, bytes: Uint8Array): Promise<CardCheck
   const sha256 = createHash("sha256").update(bytes).digest("hex");
   const exact = await findCardByHash(db, sha256);
   if (exact) return { result: "genuine", sha256, card: toVerifiedCard(exact) };
-  const named = await findCardByAnyCode(db, findCodesInPdf(bytes));
+  const codes = findCodesInPdf(bytes);
+  if (codes.length > MAX_CODES_PER_CHECK) {
+    const message = `This file names ${codes.length} verification codes; a balance card names one. Choose the card PDF itself.`;
+    throw new HttpError(422, "too_many_codes", message, { file: message });
+  }
+  const named = await findFirstCard(db, codes);
   if (named) return { result: "altered", sha256, card: toVerifiedCard(named) };
   return { result: "unknown", sha256 };
+}
+
+/**
+ * The most codes one check looks up. A card carries its own code (in two places); a file naming
+ * hundreds is not a card, and a list of thousands must not reach the database in one query.
+ */
+export const MAX_CODES_PER_CHECK = 200;
+
+/** Codes per query, well under SQLite's limit on bound values in one statement. */
+const CODES_PER_QUERY = 100;
+
+/** The card of the first code (in the order the file names them) that is one of ours. */
+async function findFirstCard(db: DB, codes: string[]): Promise<StoredCard | undefined> {
+  for (let i = 0; i < codes.length; i += CODES_PER_QUERY) {
+    const card = await findCardByAnyCode(db, codes.slice(i, i + CODES_PER_QUERY));
+    if (card) return card;
+  }
+  return undefined;
 }

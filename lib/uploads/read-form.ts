@@ -2,7 +2,7 @@ import { HttpError } from "@/lib/http/errors";
 import { formatMegabytes } from "./limits";
 
 // Room for the multipart boundaries and the category and caption fields around the file.
-const FORM_OVERHEAD_BYTES = 64 * 1024;
+export const FORM_OVERHEAD_BYTES = 64 * 1024;
 
 export function tooLarge(maxBytes: number): HttpError {
   const message = `The file is larger than the ${formatMegabytes(maxBytes)} limit.`;

@@ -1,4 +1,5 @@
 import { expect, test } from "@playwright/test";
+import { SIGN_IN_FAILED } from "@/lib/auth/messages";
 import {
   DEMO_EMAIL,
   navLabels,
@@ -29,9 +30,7 @@ test.describe("signing in", () => {
 
   test("a wrong password is refused with a message and no session", async ({ page, context }) => {
     await submitSignIn(page, DEMO_EMAIL.machinist, "not-the-password");
-    await expect(signInMessage(page)).toHaveText(
-      "That e-mail and password do not match an account.",
-    );
+    await expect(signInMessage(page)).toHaveText(SIGN_IN_FAILED);
     await expect(page).toHaveURL(/\/sign-in/);
     const cookies = await context.cookies();
     expect(cookies.some((c) => c.name.endsWith("next-auth.session-token"))).toBe(false);

@@ -1,4 +1,6 @@
 import { SignInForm } from "@/components/auth/sign-in-form";
+import { safeNextPath } from "@/lib/auth/safe-next";
+import { SIGN_IN_FAILED } from "@/lib/auth/messages";
 
 export const metadata = { title: "Sign in" };
 
@@ -8,7 +10,7 @@ export default async function SignInPage({
   searchParams: Promise<Record<string, string | undefined>>;
 }) {
   const { next, expired, error } = await searchParams;
-  const safeNext = next?.startsWith("/") && !next.startsWith("//") ? next : "/jobs";
+  const safeNext = safeNextPath(next);
   return (
     <main className="flex min-h-screen items-center justify-center bg-graphite-800 p-4">
       <div className="w-full max-w-sm">
@@ -27,10 +29,7 @@ export default async function SignInPage({
               Your session ended. Sign in again to carry on where you were.
             </p>
           ) : null}
-          <SignInForm
-            next={safeNext}
-            initialError={error ? "Sign-in failed. Check your e-mail and password." : undefined}
-          />
+          <SignInForm next={safeNext} initialError={error ? SIGN_IN_FAILED : undefined} />
         </div>
       </div>
     </main>

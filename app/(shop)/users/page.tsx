@@ -1,7 +1,9 @@
+import { SignInNotices } from "@/components/auth/sign-in-notices";
 import { AddUserForm } from "@/components/users/add-user-form";
 import { UserRow } from "@/components/users/user-row";
 import { getDb } from "@/db/client";
 import { listCustomers } from "@/db/customers";
+import { listThrottleNotices } from "@/db/sign-in-failures";
 import { listUsers } from "@/db/users";
 import { requirePageUser } from "@/lib/auth/guard";
 
@@ -10,9 +12,10 @@ export const metadata = { title: "Staff & access" };
 export default async function UsersPage() {
   await requirePageUser(["owner"], "/users");
   const db = getDb();
-  const [users, { customers }] = await Promise.all([
+  const [users, { customers }, notices] = await Promise.all([
     listUsers(db),
     listCustomers(db, { limit: 500 }),
+    listThrottleNotices(db, new Date(Date.now() - 7 * 24 * 60 * 60_000)),
   ]);
   return (
     <section className="space-y-4">
@@ -35,6 +38,7 @@ export default async function UsersPage() {
           </tbody>
         </table>
       </div>
+      <SignInNotices notices={notices} />
       <AddUserForm customers={customers.map((c) => ({ id: c.id, name: c.name }))} />
     </section>
   );

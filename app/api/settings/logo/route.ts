@@ -5,7 +5,7 @@ import { imageResponse } from "@/lib/cards/http";
 import { describeLogo, LOGO_MAX_BYTES, saveLogoUpload } from "@/lib/cards/logo";
 import { HttpError } from "@/lib/http/errors";
 import { json, route } from "@/lib/http/route";
-import { readUploadForm } from "@/lib/uploads/read-form";
+import { FORM_OVERHEAD_BYTES, readUploadForm } from "@/lib/uploads/read-form";
 import { logoFormSchema } from "@/lib/validation/cards";
 
 /** The logo printed on balance cards, as an image. */
@@ -16,8 +16,13 @@ export const GET = route(async () => {
   return imageResponse(logo.content, logo.contentType, logo.sha256);
 });
 
+const LOGO_UPLOAD = {
+  accepts: "multipart",
+  maxBytes: LOGO_MAX_BYTES + FORM_OVERHEAD_BYTES,
+} as const;
+
 /** The owner uploads a new logo (multipart field `file`: PNG or JPEG, at most 2 MB). */
-export const PUT = route(async (req) => {
+export const PUT = route(LOGO_UPLOAD, async (req) => {
   const user = await requireApiUser(["owner"]);
   const form = await readUploadForm(req, LOGO_MAX_BYTES);
   const { file } = logoFormSchema.parse({ file: form.get("file") });

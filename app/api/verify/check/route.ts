@@ -1,14 +1,15 @@
 import { getDb } from "@/db/client";
 import { checkCardPdf } from "@/lib/cards/verify";
 import { json, route } from "@/lib/http/route";
-import { readUploadForm, tooLarge } from "@/lib/uploads/read-form";
+import { FORM_OVERHEAD_BYTES, readUploadForm, tooLarge } from "@/lib/uploads/read-form";
 import { cardCheckFormSchema } from "@/lib/validation/cards";
 
 /** A card PDF is far smaller; anything bigger is not one of ours. */
 const CHECK_MAX_BYTES = 5 * 1024 * 1024;
+const CARD_PDF = { accepts: "multipart", maxBytes: CHECK_MAX_BYTES + FORM_OVERHEAD_BYTES } as const;
 
 /** Public: is this PDF a card we issued ("genuine"), one we issued but changed ("altered"), or neither? */
-export const POST = route(async (req) => {
+export const POST = route(CARD_PDF, async (req) => {
   const form = await readUploadForm(req, CHECK_MAX_BYTES);
   const { file } = cardCheckFormSchema.parse({ file: form.get("file") });
   if (file.size > CHECK_MAX_BYTES) throw tooLarge(CHECK_MAX_BYTES);

@@ -3,7 +3,7 @@ import { ALL_ROLES, requireApiUser, SHOP_ROLES } from "@/lib/auth/guard";
 import { json, parseId, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
 import { uploadLimitBytes } from "@/lib/uploads/limits";
-import { readUploadForm } from "@/lib/uploads/read-form";
+import { FORM_OVERHEAD_BYTES, readUploadForm } from "@/lib/uploads/read-form";
 import { listJobUploads, saveJobUpload } from "@/lib/uploads/save";
 import { uploadFormSchema } from "@/lib/validation/uploads";
 
@@ -15,8 +15,13 @@ export const GET = route<Params>(async (_req, { params }) => {
   return json({ uploads: await listJobUploads(getDb(), jobId, user) });
 });
 
+const UPLOAD = {
+  accepts: "multipart",
+  maxBytes: () => uploadLimitBytes() + FORM_OVERHEAD_BYTES,
+} as const;
+
 /** multipart/form-data: `file`, `category` (arrival-photo | balancer-printout | other), `caption`. */
-export const POST = route<Params>(async (req, { params }) => {
+export const POST = route<Params>(UPLOAD, async (req, { params }) => {
   const actor = await requireApiUser(SHOP_ROLES);
   const jobId = parseId((await params).id);
   await findJobForUser(getDb(), jobId, actor);

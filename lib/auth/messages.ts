@@ -1,0 +1,6 @@
+/**
+ * The one answer to every failed sign-in (wrong password, no such account, a disabled account,
+ * too many tries), so the answer never tells which e-mails have accounts or what state they are in.
+ */
+export const SIGN_IN_FAILED =
+  "Sign-in failed. Check the e-mail and password. After several failed tries, wait a minute before trying again; if it still fails, ask the shop owner.";
