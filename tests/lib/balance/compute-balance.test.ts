@@ -338,6 +338,7 @@ describe("matching", () => {
       remove: "0",
       final: "72.6",
       status: "light",
+      short: "0.4", // 73.0 − 72.6
     });
     expect(result.warnings.map((w) => w.code)).toEqual(["target-above-set", "part-light"]);
     // 73.0 − 72.6 = 0.4, a difference: one decimal more than the 0.1 g scale (display rule).
