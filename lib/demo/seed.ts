@@ -56,8 +56,13 @@ const JOBS: {
     spec: {
       layout: "v8-cross-plane",
       cylinders: 8,
-      boreMm: "102.36",
-      strokeMm: "88.39",
+      // Typed in inches, kept as typed; the engine gets 4.030 × 25.4 = 102.362 mm and so on.
+      lengthUnit: "in",
+      boreEntered: "4.030",
+      boreMm: "102.362",
+      strokeEntered: "3.480",
+      strokeMm: "88.392",
+      rodLengthEntered: "6.000",
       rodLengthMm: "152.4",
       maxRpm: 7000,
       oilAllowancePerRod: "2",
