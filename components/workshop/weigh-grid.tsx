@@ -258,9 +258,14 @@ export function WeighGrid({
       return;
     }
     const next = nextAfter(name, event.shiftKey);
-    if (canEdit && !event.shiftKey && looksHeld(cylinder, kind, parsed.data)) {
+    const input = inputs.current[name];
+    if (input?.readOnly && canEdit) return; // waiting for the server's answer on this part
+    if (canEdit && input && !event.shiftKey && looksHeld(cylinder, kind, parsed.data)) {
       // Stay on the part until the server has answered: it is held, or it was fine after all.
+      // Keys typed meanwhile are not added to the held figure.
+      input.readOnly = true;
       void commit(cylinder, kind, { focusHeld: true }).then((ok) => {
+        input.readOnly = false;
         if (ok && next) inputs.current[next]?.focus();
       });
       return;

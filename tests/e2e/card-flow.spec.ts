@@ -7,9 +7,21 @@ import { jobRows, signInAs, signOut } from "./helpers";
 const DEMO_V8 = "Cross-plane V8, 4.030";
 const DEMO_CUSTOMER_EMAIL = "tobin@ashgrove.example";
 
-/** Issues the next revision from the job overview and answers its number and printed code. */
+/** The job overview's balance card panel (the changed-card banner has its own issue button). */
+const cardPanel = (page: Page) => page.getByRole("region", { name: "Balance card", exact: true });
+
+/**
+ * Issues the next revision from the job overview and answers its number and printed code. The
+ * demo V8 has a wrist pin over the band (to re-select): the card is issued with a stated reason.
+ */
 async function issueCard(page: Page): Promise<{ revision: number; code: string }> {
-  await page.getByRole("button", { name: /^Issue balance card/ }).click();
+  const panel = cardPanel(page);
+  const override = panel.getByLabel("Issue with these parts");
+  if (await override.isVisible()) {
+    await override.check();
+    await panel.getByLabel("Reason (printed on the card)").fill("Spare wrist pin on order");
+  }
+  await panel.getByRole("button", { name: /^Issue balance card/ }).click();
   const status = page.getByTestId("card-issue-status");
   await expect(status).toContainText(/Revision \d+ issued, verification code [0-9A-Z-]+\./, {
     timeout: 30_000,
@@ -86,16 +98,25 @@ test("a balance card is issued, checked, replaced by a second revision and e-mai
   await piston.pressSequentially(corrected);
   await piston.press("Enter");
   await expect(page.getByTestId("cell-note-c1_piston")).toContainText("saved");
+  // The card no longer matches the job: every page of the job says so.
+  const banner = page.getByTestId("card-stale-banner");
+  await expect(banner).toContainText(
+    `Changed since revision ${first.revision} was issued: weights.`,
+  );
 
   // Issued again: the next revision is current, the first is marked replaced.
   await page
     .getByRole("navigation", { name: "Job sections" })
     .getByRole("link", { name: "Overview" })
     .click();
+  await expect(banner).toBeVisible();
   await expect(
-    page.getByRole("button", { name: `Issue balance card (revision ${first.revision + 1})` }),
+    cardPanel(page).getByRole("button", {
+      name: `Issue balance card (revision ${first.revision + 1})`,
+    }),
   ).toBeVisible();
   const second = await issueCard(page);
+  await expect(banner).toHaveCount(0);
   expect(second.revision).toBe(first.revision + 1);
   expect(second.code).not.toBe(first.code);
   const secondRow = page.getByTestId(`card-revision-${second.revision}`);
