@@ -36,8 +36,8 @@ afterAll(async () => {
   await shop.close();
 });
 
-beforeEach(() => {
-  shop.freshCopy();
+beforeEach(async () => {
+  await shop.freshCopy();
   shop.restoreFiles();
   // Handlers log what they could not reach (the mail server, the payment service) on purpose.
   vi.spyOn(console, "error").mockImplementation(() => {});

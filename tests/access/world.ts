@@ -7,6 +7,7 @@ import { NextRequest } from "next/server";
 import sharp from "sharp";
 import type { DB } from "@/db/client";
 import { setDb } from "@/db/client";
+import { isPostgres } from "@/db/dialect";
 import { createInvoice, issueInvoice, listInvoices } from "@/db/invoices";
 import { createJob, listJobs } from "@/db/jobs";
 import { migrateToLatest } from "@/db/migrate";
@@ -21,7 +22,14 @@ import { resetEnvCache } from "@/lib/env";
 import { sendMail } from "@/lib/mail/send";
 import { resetStripeClient } from "@/lib/payments/stripe";
 import { saveJobUpload } from "@/lib/uploads/save";
-import { addTestUser } from "../helpers/db";
+import {
+  addTestUser,
+  fingerprintTables,
+  freshDb,
+  restoreTables,
+  snapshotTables,
+  testEngine,
+} from "../helpers/db";
 import { signInAs } from "../helpers/session";
 import { freePort } from "../lib/mail/fake-mail";
 import { type DiscoveredEndpoint, paramNames } from "./discover";
@@ -60,8 +68,11 @@ export interface ShopIds {
 export interface Shop {
   ids: ShopIds;
   users: Record<Role, User> & { otherCustomer: User };
-  /** A copy of the seeded database, installed as the app's database. */
-  freshCopy(): DB;
+  /**
+   * A copy of the seeded database, installed as the app's database. SQLite: a new in-memory copy
+   * (installed before the promise settles). PostgreSQL: the test database put back as seeded.
+   */
+  freshCopy(): Promise<DB>;
   /** Puts the upload files back (a DELETE in an earlier case removes them). */
   restoreFiles(): void;
   close(): Promise<void>;
@@ -100,7 +111,9 @@ export async function seedShop(): Promise<Shop> {
   resetEnvCache();
   resetStripeClient();
 
-  const { raw, db } = open(":memory:");
+  // PostgreSQL under `npm run test:pg`: the file's test database, emptied and migrated.
+  const onPostgres = testEngine() === "postgres";
+  const { raw, db } = onPostgres ? { raw: null, db: await freshDb() } : open(":memory:");
   setDb(db);
   await migrateToLatest(db);
   await seedDemo(db);
@@ -177,8 +190,9 @@ export async function seedShop(): Promise<Shop> {
   );
   await moveQuote(db, otherQuote.id, "offer", null);
 
-  const snapshot = raw.serialize();
-  await db.destroy();
+  const snapshot = raw?.serialize();
+  const tables = onPostgres ? await snapshotTables(db) : null;
+  if (raw) await db.destroy();
   cpSync(liveFiles, pristineFiles, { recursive: true });
 
   const opened: DB[] = [];
@@ -201,10 +215,15 @@ export async function seedShop(): Promise<Shop> {
       otherInvoice: otherInvoice.id,
     },
     users: { ...demo, otherCustomer },
-    freshCopy() {
+    async freshCopy() {
+      if (tables) {
+        await restoreTables(db, tables);
+        setDb(db);
+        return db;
+      }
       // Copies already used are closed as the next one opens: keeps memory flat over many cases.
       for (const old of opened.splice(0)) void old.destroy();
-      const { db: copy } = open(snapshot);
+      const { db: copy } = open(snapshot!);
       opened.push(copy);
       setDb(copy);
       return copy;
@@ -241,6 +260,8 @@ export function paramsFor(pattern: string, ids: ShopIds): Record<string, string 
 function valueFor(name: string, before: string | undefined, ids: ShopIds, pattern: string) {
   if (name === "revision") return String(ids.cardRevision);
   if (name === "part") return "crankshaft";
+  if (name === "section") return "tdc";
+  if (name === "requestId") return "1";
   if (name === "code") return ids.cardCode;
   if (name === "id") {
     const byCollection: Record<string, number> = {
@@ -308,9 +329,14 @@ export async function callAs(
 
 /** Rows in every table, by name: the footprint a refused request must leave untouched. */
 export async function rowCounts(db: DB): Promise<Record<string, number>> {
-  const tables = await sql<{ name: string }>`
-    select name from sqlite_master where type = 'table' and name not like 'sqlite_%' order by name
-  `.execute(db);
+  const tables = isPostgres(db)
+    ? await sql<{ name: string }>`
+        select table_name as name from information_schema.tables
+        where table_schema = current_schema() and table_type = 'BASE TABLE' order by table_name
+      `.execute(db)
+    : await sql<{ name: string }>`
+        select name from sqlite_master where type = 'table' and name not like 'sqlite_%' order by name
+      `.execute(db);
   const counts: Record<string, number> = {};
   for (const { name } of tables.rows) {
     const row = await sql<{ n: number }>`select count(*) as n from ${sql.table(name)}`.execute(db);
@@ -319,8 +345,12 @@ export async function rowCounts(db: DB): Promise<Record<string, number>> {
   return counts;
 }
 
-/** Rows written, changed or deleted on this connection so far (SQLite's total_changes()). */
-export async function totalChanges(db: DB): Promise<number> {
+/**
+ * Rows written, changed or deleted on this connection so far (SQLite's total_changes()); on
+ * PostgreSQL, where no such count exists, a digest of every row: unchanged when nothing was written.
+ */
+export async function totalChanges(db: DB): Promise<number | string> {
+  if (isPostgres(db)) return fingerprintTables(db);
   const row = await sql<{ n: number }>`select total_changes() as n`.execute(db);
   return Number(row.rows[0]?.n ?? 0);
 }

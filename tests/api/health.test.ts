@@ -1,8 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { GET } from "@/app/api/health/route";
-import { openDatabase, setDb } from "@/db/client";
+import { setDb } from "@/db/client";
 import { latestMigration } from "@/db/migrate";
-import { freshDb } from "../helpers/db";
+import { emptyDb, freshDb } from "../helpers/db";
 
 describe("GET /api/health", () => {
   it("reports the database reachable and at the latest migration", async () => {
@@ -18,7 +18,7 @@ describe("GET /api/health", () => {
   });
 
   it("answers 503 when the database has not been migrated", async () => {
-    setDb(openDatabase(":memory:"));
+    setDb(await emptyDb());
     const res = await GET();
     expect(res.status).toBe(503);
     expect(await res.json()).toMatchObject({ status: "needs-migration", migration: null });

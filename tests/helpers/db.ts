@@ -21,13 +21,16 @@ declare module "vitest" {
   }
 }
 
-/** The tables of a migrated database, and the rows the migrations themselves put in. */
-export interface PgTemplate {
-  name: string;
-  /** Every table the migrations made (not Kysely's own), emptied between tests. */
+/** Every table of a PostgreSQL database (not Kysely's own) and the rows in those that have any. */
+export interface TableSnapshot {
   tables: string[];
-  /** Rows as JSON, put back after each emptying; `identity` when its `id` is numbered. */
+  /** Rows as JSON; `identity` when the table's `id` is numbered by the database. */
   seeds: { table: string; rows: string; identity: boolean }[];
+}
+
+/** The migrated template database: the rows in it are the ones the migrations put in. */
+export interface PgTemplate extends TableSnapshot {
+  name: string;
 }
 
 function provided<K extends "pgServerUrl" | "pgTemplate">(key: K) {
@@ -69,6 +72,7 @@ export async function onServer<T>(server: string, work: (client: pg.Client) => P
 async function ensureDatabase(server: string, name: string, template?: string): Promise<void> {
   await onServer(server, async (client) => {
     const found = await client.query("select 1 from pg_database where datname = $1", [name]);
+    made.add(name);
     if (found.rowCount !== 0) return;
     for (let attempt = 1; ; attempt++) {
       try {
@@ -83,15 +87,17 @@ async function ensureDatabase(server: string, name: string, template?: string): 
   });
 }
 
-// Each vitest worker has its own databases on the server (workers run test files side by side).
-const worker = process.env.VITEST_POOL_ID ?? "1";
+// Each test file has its own databases on the server (files run side by side in several
+// workers; VITEST_WORKER_ID differs for every one, where VITEST_POOL_ID may not).
+const worker = process.env.VITEST_WORKER_ID ?? String(process.pid);
 const opened: DB[] = [];
+const made = new Set<string>();
 let pgTestDb: DB | undefined;
 
 async function pgTestDatabase(server: string, template: PgTemplate): Promise<DB> {
   if (pgTestDb) return pgTestDb;
   const name = `counterpoise_test_${worker}`;
-  // A copy of the template, migrated once by the global setup.
+  // A copy of the template the global setup migrated once.
   await ensureDatabase(server, name, template.name);
   // Several connections, so concurrent requests in a test really run side by side.
   const db = openPostgres(databaseUrl(server, name), { max: 8 });
@@ -101,23 +107,78 @@ async function pgTestDatabase(server: string, template: PgTemplate): Promise<DB>
   return db;
 }
 
-/** Empties every table and puts back what the migrations wrote; ids start again from 1. */
-async function emptyTables(db: DB, template: PgTemplate) {
-  if (template.tables.length === 0) return;
-  const tables = sql.join(template.tables.map((t) => sql.table(t)));
-  await sql`truncate table ${tables} restart identity cascade`.execute(db);
-  for (const seed of template.seeds) {
-    await sql`
-      insert into ${sql.table(seed.table)}
-      select * from json_populate_recordset(null::${sql.table(seed.table)}, ${seed.rows}::json)
+/** The tables of a PostgreSQL database, not Kysely's own. */
+async function pgTableNames(db: DB): Promise<string[]> {
+  const { rows } = await sql<{ name: string }>`
+    select table_name as name from information_schema.tables
+    where table_schema = current_schema() and table_type = 'BASE TABLE'
+      and table_name not like 'kysely_%'
+    order by table_name
+  `.execute(db);
+  return rows.map((r) => r.name);
+}
+
+/** Takes every row of every table of a PostgreSQL database, to be put back by restoreTables. */
+export async function snapshotTables(db: DB): Promise<TableSnapshot> {
+  const snapshot: TableSnapshot = { tables: await pgTableNames(db), seeds: [] };
+  for (const table of snapshot.tables) {
+    const data = await sql<{ rows: string; n: number }>`
+      select coalesce(json_agg(t), '[]')::text as rows, count(*)::int as n from ${sql.table(table)} t
     `.execute(db);
-    if (seed.identity) {
-      await sql`
-        select setval(pg_get_serial_sequence(${seed.table}, 'id'),
-          (select max(id) from ${sql.table(seed.table)}))
-      `.execute(db);
-    }
+    if (!data.rows[0]?.n) continue;
+    const identity = await sql<{ n: number }>`
+      select count(*)::int as n from information_schema.columns
+      where table_schema = current_schema() and table_name = ${table}
+        and column_name = 'id' and is_identity = 'YES'
+    `.execute(db);
+    snapshot.seeds.push({ table, rows: data.rows[0].rows, identity: !!identity.rows[0]?.n });
   }
+  return snapshot;
+}
+
+/**
+ * Empties every table (TRUNCATE … RESTART IDENTITY CASCADE) and puts the snapshot's rows back;
+ * numbering goes on after the highest id put back, or from 1.
+ */
+export async function restoreTables(db: DB, snapshot: TableSnapshot): Promise<void> {
+  if (snapshot.tables.length === 0) return;
+  const tables = sql.join(snapshot.tables.map((t) => sql.table(t)));
+  await db.transaction().execute(async (trx) => {
+    // Rows go back table by table in any order: foreign keys (checked by triggers on PostgreSQL)
+    // are not checked for this transaction. They held when the snapshot was taken.
+    if (snapshot.seeds.length > 0)
+      await sql`set local session_replication_role = replica`.execute(trx);
+    await sql`truncate table ${tables} restart identity cascade`.execute(trx);
+    for (const seed of snapshot.seeds) {
+      await sql`
+        insert into ${sql.table(seed.table)}
+        select * from json_populate_recordset(null::${sql.table(seed.table)}, ${seed.rows}::json)
+      `.execute(trx);
+      if (seed.identity) {
+        await sql`
+          select setval(pg_get_serial_sequence(${seed.table}, 'id'),
+            (select max(id) from ${sql.table(seed.table)}))
+        `.execute(trx);
+      }
+    }
+  });
+}
+
+/**
+ * A digest of every row of every table of a PostgreSQL database: equal before and after means
+ * nothing was written (SQLite tells the same by counting changes).
+ */
+export async function fingerprintTables(db: DB): Promise<string> {
+  const tables = await pgTableNames(db);
+  const parts = tables.map(
+    (t) =>
+      sql<string>`(select ${t} || ':' || coalesce(md5(string_agg(x::text, '|' order by x::text)), '') from ${sql.table(t)} x)`,
+  );
+  if (parts.length === 0) return "";
+  const { rows } = await sql<{ digest: string }>`
+    select md5(concat_ws(',', ${sql.join(parts)})) as digest
+  `.execute(db);
+  return rows[0]?.digest ?? "";
 }
 
 /**
@@ -136,7 +197,7 @@ export async function freshDb(): Promise<DB> {
     return db;
   }
   const db = await pgTestDatabase(server, template);
-  await emptyTables(db, template);
+  await restoreTables(db, template);
   setDb(db);
   return db;
 }
@@ -157,10 +218,20 @@ export async function emptyDb(): Promise<DB> {
   return db;
 }
 
-/** Closes the PostgreSQL pools the helpers opened (the PostgreSQL setup runs it after each file). */
+/**
+ * Closes the PostgreSQL pools the helpers opened and drops this file's databases (the
+ * PostgreSQL setup runs it after each file).
+ */
 export async function closeTestDatabases(): Promise<void> {
   pgTestDb = undefined;
   for (const db of opened.splice(0)) await db.destroy();
+  const server = postgresServerUrl();
+  if (!server || made.size === 0) return;
+  const names = [...made];
+  made.clear();
+  await onServer(server, async (client) => {
+    for (const name of names) await client.query(`drop database if exists "${name}" with (force)`);
+  });
 }
 
 let cachedHash: string | undefined;

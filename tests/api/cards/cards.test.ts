@@ -179,7 +179,7 @@ describe("revisions", () => {
     signInAs(users.machinist);
     await issueOk(job.id);
     await expect(
-      sql`update balance_cards set pdf = x'00' where revision = 1`.execute(db),
+      sql`update balance_cards set pdf = ${Buffer.from([0])} where revision = 1`.execute(db),
     ).rejects.toThrow(/never changes/);
     await expect(sql`update balance_cards set data_json = '{}'`.execute(db)).rejects.toThrow(
       /never changes/,
