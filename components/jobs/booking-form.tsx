@@ -11,7 +11,7 @@ import { BROUGHT_ITEMS, type Job } from "@/db/jobs";
 import { LAYOUT_PRESETS } from "@/lib/balance";
 import { ApiError, apiFetch } from "@/lib/api-client";
 import { customerSchema } from "@/lib/validation/customers";
-import { bookingSchema } from "@/lib/validation/workshop";
+import { bookingSchema, jobSpecSchema } from "@/lib/validation/workshop";
 import { BROUGHT_ITEM_LABEL } from "./brought-items";
 
 // The booking form's own shape: the engine as typed (inches allowed), the items as a checklist.
@@ -19,20 +19,17 @@ const formSchema = z.object({
   engine: bookingSchema.shape.engine,
   notes: z.string().max(4000).optional(),
   layout: z.string().min(1, "Choose a layout."),
-  cylinders: z.coerce
-    .number()
-    .int()
-    .min(1, "At least one cylinder.")
-    .max(16, "At most 16 cylinders."),
-  rodsPerPin: z.coerce.number().int().min(1).max(4).optional(),
+  // The settings' own rules and messages, so the counter reads what the server would say.
+  cylinders: jobSpecSchema.shape.cylinders,
+  rodsPerPin: jobSpecSchema.shape.rodsPerPin,
   bobweightNeeded: z.boolean().optional(),
   lengthUnit: z.enum(["mm", "in"]),
-  bore: z.string().optional(),
-  stroke: z.string().optional(),
-  rodLength: z.string().optional(),
-  maxRpm: z.string().optional(),
+  bore: jobSpecSchema.shape.bore,
+  stroke: jobSpecSchema.shape.stroke,
+  rodLength: jobSpecSchema.shape.rodLength,
+  maxRpm: jobSpecSchema.shape.maxRpm,
   condition: z.string().max(2000).optional(),
-  promisedDate: z.string().optional(),
+  promisedDate: jobSpecSchema.shape.promisedDate,
   items: z.record(
     z.string(),
     z.object({ brought: z.boolean(), quantity: z.string(), condition: z.string() }),
@@ -108,12 +105,12 @@ export function BookingForm() {
             : {}),
           // Kept as typed in the unit chosen; the server works out the mm for the engine.
           lengthUnit: v.lengthUnit,
-          bore: v.bore?.trim() || null,
-          stroke: v.stroke?.trim() || null,
-          rodLength: v.rodLength?.trim() || null,
-          maxRpm: v.maxRpm?.trim() ? Number(v.maxRpm) : null,
+          bore: v.bore ?? null,
+          stroke: v.stroke ?? null,
+          rodLength: v.rodLength ?? null,
+          maxRpm: v.maxRpm ?? null,
           condition: v.condition?.trim() || null,
-          promisedDate: v.promisedDate || null,
+          promisedDate: v.promisedDate ?? null,
           items,
         },
       };
