@@ -1,11 +1,11 @@
-// Brings the database at DATABASE_PATH to the latest migration. Exits non-zero on failure.
+// Brings the database (DATABASE_URL on PostgreSQL, else the SQLite file at DATABASE_PATH) to the
+// latest migration. Exits non-zero on failure.
 import { promises as fs } from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { FileMigrationProvider, type MigrationProvider } from "kysely";
-import { openDatabase } from "@/db/client";
+import { openConfiguredDatabase } from "@/db/client";
 import { migrateToLatest } from "@/db/migrate";
-import { env } from "@/lib/env";
 
 const folder = path.join(path.dirname(fileURLToPath(import.meta.url)), "..", "migrations");
 const provider = new FileMigrationProvider({ fs, path, migrationFolder: folder });
@@ -19,7 +19,7 @@ const files: MigrationProvider = {
   },
 };
 
-const db = openDatabase(env().DATABASE_PATH);
+const db = openConfiguredDatabase();
 try {
   const { results } = await migrateToLatest(db, files);
   for (const r of results ?? [])

@@ -4,6 +4,14 @@ import { BackupError, restoreDatabase } from "@/db/backup";
 import { latestMigration } from "@/db/migrate";
 import { env } from "@/lib/env";
 
+if (env().DATABASE_URL) {
+  console.error(
+    "DATABASE_URL is set: the database is PostgreSQL, which this command does not copy. " +
+      "Use PostgreSQL's own tools (pg_dump and pg_restore, or your host's backups).",
+  );
+  process.exit(2);
+}
+
 const file = process.argv[2];
 if (!file) {
   console.error("usage: npm run db:restore -- <backup file>");

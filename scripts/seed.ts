@@ -1,10 +1,9 @@
 // Fills an empty database with the demo shop (npm run db:seed). Leaves a used database alone.
-import { openDatabase } from "@/db/client";
+import { openConfiguredDatabase } from "@/db/client";
 import { migrateToLatest } from "@/db/migrate";
 import { seedDemo } from "@/lib/demo/seed";
-import { env } from "@/lib/env";
 
-const db = openDatabase(env().DATABASE_PATH);
+const db = openConfiguredDatabase();
 try {
   await migrateToLatest(db);
   console.log((await seedDemo(db)) ? "demo shop seeded" : "database already has data: not seeded");
