@@ -20,6 +20,26 @@ import {
 } from "./schemas";
 import { type BuildSettings, buildSettingsSchema, EMPTY_BUILD_SETTINGS } from "./settings-schema";
 
+/** Whether this user may see the job's build record now (customers: once the job is ready). */
+export function recordShownTo(job: Pick<Job, "status">, user: Pick<User, "role">): boolean {
+  return user.role !== "customer" || CUSTOMER_SEES.includes(job.status);
+}
+
+/**
+ * The build record as the API answers it: the record, or null for a customer whose job is not
+ * ready yet (with the reason), so the customer's own job never looks like someone else's.
+ */
+export async function buildRecordFor(
+  db: Kysely<Database>,
+  job: Job,
+  user: Pick<User, "role">,
+): Promise<{ record: BuildRecordView | null; message?: string }> {
+  if (!recordShownTo(job, user)) {
+    return { record: null, message: "The build record is shown once the job is ready." };
+  }
+  return { record: await loadBuildRecord(db, job, user) };
+}
+
 /** Who writes the build record; the counter reads it; a customer reads their own once ready. */
 export const WRITE_ROLES = ["machinist", "owner"] as const;
 const CUSTOMER_SEES = ["ready", "collected"];
@@ -58,8 +78,8 @@ export async function loadBuildSettings(
 }
 
 /**
- * A job's build record with what it works out to. A customer sees their own job's record only
- * once the job is ready or collected (403 before); the job itself was found for this user.
+ * A job's build record with what it works out to, for the shop. A customer sees their own job's
+ * record only once the job is ready or collected: see {@link buildRecordFor}.
  *
  * @throws HttpError 403 for a customer before the job is ready
  */
@@ -68,7 +88,7 @@ export async function loadBuildRecord(
   job: Job,
   user: Pick<User, "role">,
 ): Promise<BuildRecordView> {
-  if (user.role === "customer" && !CUSTOMER_SEES.includes(job.status)) {
+  if (!recordShownTo(job, user)) {
     throw new HttpError(403, "forbidden", "The build record is shown once the job is ready.");
   }
   const stored = await listBuildSections(db, job.id);

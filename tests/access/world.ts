@@ -262,6 +262,8 @@ function valueFor(name: string, before: string | undefined, ids: ShopIds, patter
   if (name === "part") return "crankshaft";
   if (name === "section") return "tdc";
   if (name === "requestId") return "1";
+  if (name === "section") return "tdc";
+  if (name === "requestId") return "1";
   if (name === "code") return ids.cardCode;
   if (name === "id") {
     const byCollection: Record<string, number> = {
