@@ -20,6 +20,7 @@ import {
   formatUnbalance,
   MATERIAL_DENSITIES,
   type LengthUnit,
+  type MassUnit,
   type MaterialId,
   type MovedCorrection,
   type SplitCorrection,
@@ -33,6 +34,7 @@ import {
 } from "@/lib/validation/balance";
 import type { DrillAnswer, PlugAnswer } from "@/lib/workshop/hole-helpers";
 import type { Workshop } from "@/lib/workshop/load";
+import { unbalanceIn, unbalanceUnit } from "@/lib/workshop/rotating";
 
 /** Metals a crank, flywheel, clutch cover or damper is made of. */
 const PART_METALS: MaterialId[] = ["steel", "ductileIron", "greyCastIron"];
@@ -62,11 +64,16 @@ const inputClass = "w-28 rounded border border-graphite-300 px-2 py-1.5 font-mon
  */
 export function CorrectionHelpers({ part, workshop }: { part: RotatingPart; workshop: Workshop }) {
   const spec = workshop.job.spec;
-  // Computed masses carry one decimal more than the job's scale shows (the display rule), in grams.
-  const resolution =
-    spec.massUnit === "g" ? spec.scaleResolution : convertMass(spec.scaleResolution, "oz", "g");
+  // Figures are typed in the job's units and the answers (grams, mm) shown in them: computed
+  // masses with one decimal more than the job's scale shows (the display rule).
+  const massUnit: "g" | "oz" = spec.massUnit === "oz" ? "oz" : "g";
   const lengthUnit: LengthUnit = spec.lengthUnit ?? "mm";
-  const grams = (v: string) => `${formatDerivedMass(v, resolution)} g`;
+  const units: Units = { mass: massUnit, length: lengthUnit };
+  const grams = (v: string) => {
+    const negative = v.startsWith("-");
+    const shown = convertMass(negative ? v.slice(1) : v, "g", massUnit);
+    return `${formatDerivedMass(negative ? `-${shown}` : shown, spec.scaleResolution)} ${massUnit}`;
+  };
   return (
     <section className="panel space-y-4 p-4" aria-labelledby={`helpers-${part}`}>
       <div>
@@ -81,16 +88,19 @@ export function CorrectionHelpers({ part, workshop }: { part: RotatingPart; work
         </p>
       </div>
       <div className="grid gap-4 xl:grid-cols-2">
-        <DrillHelper lengthUnit={lengthUnit} drillSize={spec.drillSize ?? ""} />
-        <PlugHelper grams={grams} drillSize={spec.drillSize ?? ""} />
-        <SplitHelper grams={grams} />
-        <MoveHelper grams={grams} />
+        <DrillHelper units={units} drillSize={spec.drillSize ?? ""} />
+        <PlugHelper units={units} grams={grams} drillSize={spec.drillSize ?? ""} />
+        <SplitHelper units={units} grams={grams} />
+        <MoveHelper units={units} grams={grams} />
       </div>
     </section>
   );
 }
 
+/** A computed mass given in grams, shown in the job's mass unit with its symbol. */
 type Grams = (value: string) => string;
+/** The job's units: what the helpers' boxes are typed in. */
+type Units = { mass: Extract<MassUnit, "g" | "oz">; length: LengthUnit };
 
 /** A helper's form: the shared zod schema on the client, the same route on the server. */
 function useHelper<S extends z.ZodType<FieldValues>, A>(schema: S, defaults: z.input<S>) {
@@ -234,9 +244,12 @@ function MaterialSelect({
   );
 }
 
-function DrillHelper({ lengthUnit, drillSize }: { lengthUnit: LengthUnit; drillSize: string }) {
+function DrillHelper({ units, drillSize }: { units: Units; drillSize: string }) {
+  const lengthUnit = units.length;
   const { form, ask, submit } = useHelper<typeof drillHoleSchema, DrillAnswer>(drillHoleSchema, {
     kind: "drill",
+    massUnit: units.mass,
+    lengthUnit: units.length,
     mass: "",
     diameter: drillSize,
     density: MATERIAL_DENSITIES.steel.density,
@@ -261,7 +274,7 @@ function DrillHelper({ lengthUnit, drillSize }: { lengthUnit: LengthUnit; drillS
           <div className="space-y-1">
             <p className="font-semibold">
               Drill {a.drill.entered} ({formatLengthIn(a.drill.diameterMm, "mm", "0.01")}) to{" "}
-              {depth(a.tipDepth)} at the tip to take out {ask.variables?.mass} g.
+              {depth(a.tipDepth)} at the tip to take out {ask.variables?.mass} {units.mass}.
             </p>
             <p className="text-graphite-600">
               {a.shallow
@@ -283,7 +296,7 @@ function DrillHelper({ lengthUnit, drillSize }: { lengthUnit: LengthUnit; drillS
         ) : null
       }
     >
-      <Field form={form} name="mass" label="Mass to take out (g)" />
+      <Field form={form} name="mass" label={`Mass to take out (${units.mass})`} />
       <Field form={form} name="diameter" label="Drill size" hint='8.5 mm, 3/8", #21 or F' wide />
       <MaterialSelect
         label="Metal"
@@ -295,16 +308,25 @@ function DrillHelper({ lengthUnit, drillSize }: { lengthUnit: LengthUnit; drillS
       <Field
         form={form}
         name="availableDepth"
-        label="Metal there is (mm, optional)"
+        label={`Metal there is (${units.length}, optional)`}
         hint="depth before breaking through"
       />
     </HelperCard>
   );
 }
 
-function PlugHelper({ grams, drillSize }: { grams: Grams; drillSize: string }) {
+function PlugHelper({
+  units,
+  grams,
+  drillSize,
+}: {
+  units: Units;
+  grams: Grams;
+  drillSize: string;
+}) {
   const { form, ask, submit } = useHelper<typeof plugHoleSchema, PlugAnswer>(plugHoleSchema, {
     kind: "plug",
+    lengthUnit: units.length,
     diameter: drillSize,
     length: "",
     plugDensity: MATERIAL_DENSITIES.heavyMetalClass3.density,
@@ -337,7 +359,7 @@ function PlugHelper({ grams, drillSize }: { grams: Grams; drillSize: string }) {
       }
     >
       <Field form={form} name="diameter" label="Plug size" hint='12.7 mm or 1/2"' wide />
-      <Field form={form} name="length" label="Plug length (mm)" />
+      <Field form={form} name="length" label={`Plug length (${units.length})`} />
       <MaterialSelect
         label="Heavy metal (ASTM B777)"
         choices={HEAVY_METALS}
@@ -360,10 +382,10 @@ function PlugHelper({ grams, drillSize }: { grams: Grams; drillSize: string }) {
   );
 }
 
-function SplitHelper({ grams }: { grams: Grams }) {
+function SplitHelper({ units, grams }: { units: Units; grams: Grams }) {
   const { form, ask, submit } = useHelper<typeof splitHoleSchema, SplitCorrection>(
     splitHoleSchema,
-    { kind: "split", mass: "", halfAngleDeg: "" },
+    { kind: "split", massUnit: units.mass, mass: "", halfAngleDeg: "" },
   );
   const a = ask.data;
   return (
@@ -383,15 +405,17 @@ function SplitHelper({ grams }: { grams: Grams }) {
         ) : null
       }
     >
-      <Field form={form} name="mass" label="Correction wanted (g)" />
+      <Field form={form} name="mass" label={`Correction wanted (${units.mass})`} />
       <Field form={form} name="halfAngleDeg" label="Each hole off the angle (°)" hint="below 90" />
     </HelperCard>
   );
 }
 
-function MoveHelper({ grams }: { grams: Grams }) {
+function MoveHelper({ units, grams }: { units: Units; grams: Grams }) {
   const { form, ask, submit } = useHelper<typeof moveHoleSchema, MovedCorrection>(moveHoleSchema, {
     kind: "move",
+    massUnit: units.mass,
+    lengthUnit: units.length,
     mass: "",
     fromRadius: "",
     toRadius: "",
@@ -408,17 +432,28 @@ function MoveHelper({ grams }: { grams: Grams }) {
         a ? (
           <p>
             <span className="font-semibold">
-              {grams(a.mass)} at {ask.variables?.toRadius} mm
+              {grams(a.mass)} at {ask.variables?.toRadius} {units.length}
             </span>{" "}
-            does the same as {ask.variables?.mass} g at {ask.variables?.fromRadius} mm (
-            {formatUnbalance(a.unbalance)} g·mm).
+            does the same as {ask.variables?.mass} {units.mass} at {ask.variables?.fromRadius}{" "}
+            {units.length} ({formatUnbalance(unbalanceIn(a.unbalance, units))}{" "}
+            {unbalanceUnit(units)}).
           </p>
         ) : null
       }
     >
-      <Field form={form} name="mass" label="Mass (g)" />
-      <Field form={form} name="fromRadius" label="At radius (mm)" hint="e.g. the balancer's" />
-      <Field form={form} name="toRadius" label="Wanted radius (mm)" hint="where you can drill" />
+      <Field form={form} name="mass" label={`Mass (${units.mass})`} />
+      <Field
+        form={form}
+        name="fromRadius"
+        label={`At radius (${units.length})`}
+        hint="e.g. the balancer's"
+      />
+      <Field
+        form={form}
+        name="toRadius"
+        label={`Wanted radius (${units.length})`}
+        hint="where you can drill"
+      />
     </HelperCard>
   );
 }

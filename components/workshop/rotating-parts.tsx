@@ -12,15 +12,25 @@ import {
 } from "react-hook-form";
 import type { z } from "zod";
 import type { RotatingPart } from "@/db/schema";
-import { BALANCE_GRADES, formatLength, formatUnbalance } from "@/lib/balance";
+import { BALANCE_GRADES, convertMass, formatLength, formatUnbalance } from "@/lib/balance";
 import { ApiError, apiFetch } from "@/lib/api-client";
 import {
   type CorrectionPlanes,
+  ROTATING_UNIT_WORDS,
   type RotatingRecordInput,
-  rotatingRecordSchema,
+  rotatingRecordSchemaIn,
 } from "@/lib/validation/workshop";
 import type { Workshop } from "@/lib/workshop/load";
-import { planesOf, type RotatingCheck } from "@/lib/workshop/rotating";
+import {
+  figuresOf,
+  planesOf,
+  type RotatingCheck,
+  type RotatingUnits,
+  rotorMassUnit,
+  unbalanceIn,
+  unbalanceUnit,
+  unitsOf,
+} from "@/lib/workshop/rotating";
 import { CorrectionHelpers } from "./correction-helpers";
 import { useWorkshop, workshopKey } from "./use-workshop";
 
@@ -38,7 +48,7 @@ const METHODS: { value: string; label: string }[] = [
   { value: "other", label: "Other" },
 ];
 
-type Parsed = z.output<typeof rotatingRecordSchema>;
+type Parsed = z.output<ReturnType<typeof rotatingRecordSchemaIn>>;
 type Reading = { mass: string; angle?: string | null } | null;
 type Correction = {
   plane: "A" | "B";
@@ -47,15 +57,17 @@ type Correction = {
   mass: string;
   angle?: string | null;
 };
-/** What the boxes hold; the schema turns blanks into "not given". */
+/** What the boxes hold, in the record's units; the schema turns blanks into "not given". */
 type Values = {
-  massKg?: string | null;
+  massUnit: RotatingUnits["mass"];
+  lengthUnit: RotatingUnits["length"];
+  rotorMass?: string | null;
   rpm?: number | null;
   grade?: string | null;
-  radiusMm?: string | null;
+  radius?: string | null;
   planes: CorrectionPlanes;
-  planeDistanceAMm?: string | null;
-  planeDistanceBMm?: string | null;
+  planeDistanceA?: string | null;
+  planeDistanceB?: string | null;
   before?: { A?: Reading; B?: Reading };
   after?: { A?: Reading; B?: Reading };
   corrections?: Correction[];
@@ -63,6 +75,18 @@ type Values = {
 };
 
 type Status = { ok: boolean; text: string } | null;
+
+const LENGTH_WORDS = { mm: "millimetres", in: "inches" } as const;
+
+/**
+ * The units a part's record is typed in: a saved record keeps the units it was typed in (one
+ * saved before units were kept is grams and mm); a new one takes the job's.
+ */
+function recordUnits(part: RotatingPart, workshop: Workshop): RotatingUnits {
+  const record = workshop.rotating.find((r) => r.part === part);
+  if (record) return unitsOf((record.data ?? {}) as RotatingRecordInput);
+  return { mass: workshop.job.spec.massUnit, length: workshop.job.spec.lengthUnit ?? "mm" };
+}
 
 /** The crank and the other rotating parts on the balancer: readings, corrections, pass or fail. */
 export function RotatingParts({
@@ -80,6 +104,12 @@ export function RotatingParts({
   // Held here, not in the form: a save remounts the form on the record's new version, and the
   // outcome must outlive that.
   const [status, setStatus] = useState<Status>(null);
+  const units = recordUnits(open, workshop);
+  const jobUnits: RotatingUnits = {
+    mass: workshop.job.spec.massUnit,
+    length: workshop.job.spec.lengthUnit ?? "mm",
+  };
+  const asJob = units.mass === jobUnits.mass && units.length === jobUnits.length;
   return (
     <div className="space-y-4">
       <p className="text-sm text-graphite-600">
@@ -91,7 +121,13 @@ export function RotatingParts({
             : "not noted yet (set it on the overview)"}
         . Permissible residual unbalance per ISO 21940-11 from the part&apos;s mass, the service
         speed and the grade; performance work usually aims at G 2.5 or better (common practice).
-        Balancer readings in grams, radii in millimetres.
+      </p>
+      <p className="text-sm text-graphite-600" data-testid="rotating-units">
+        Balancer readings and corrections in {ROTATING_UNIT_WORDS[units.mass].mass}, the rotor in{" "}
+        {rotorMassUnit(units.mass)}, radii in {LENGTH_WORDS[units.length]}
+        {asJob
+          ? "."
+          : `: this record was typed so and stays as typed (the job is now in ${ROTATING_UNIT_WORDS[jobUnits.mass].mass} and ${LENGTH_WORDS[jobUnits.length]}).`}
       </p>
       <div className="flex flex-wrap gap-2" role="tablist" aria-label="Rotating part">
         {PARTS.map((p) => {
@@ -140,16 +176,21 @@ const blankReading = () => ({ mass: "", angle: "" });
 function initialValues(part: RotatingPart, workshop: Workshop): Values {
   const record = workshop.rotating.find((r) => r.part === part);
   const saved = (record?.data ?? {}) as RotatingRecordInput;
+  const units = recordUnits(part, workshop);
+  // Older records hold kg and mm under their own names: shown (and saved again) as typed.
+  const figures = figuresOf({ ...saved, massUnit: units.mass, lengthUnit: units.length });
   const reading = (r: Reading | undefined) =>
     r ? { mass: r.mass, angle: r.angle ?? "" } : blankReading();
   return {
-    massKg: saved.massKg ?? "",
+    massUnit: units.mass,
+    lengthUnit: units.length,
+    rotorMass: figures.rotorMass?.entered ?? "",
     rpm: saved.rpm ?? workshop.job.spec.maxRpm ?? null,
     grade: (saved.grade ?? "6.3").replace(/^G\s*/i, ""),
-    radiusMm: saved.radiusMm ?? "",
+    radius: figures.radius?.entered ?? "",
     planes: planesOf(part, saved),
-    planeDistanceAMm: saved.planeDistanceAMm ?? "",
-    planeDistanceBMm: saved.planeDistanceBMm ?? "",
+    planeDistanceA: figures.planeDistances?.A.entered ?? saved.planeDistanceA ?? "",
+    planeDistanceB: figures.planeDistances?.B.entered ?? saved.planeDistanceB ?? "",
     before: { A: reading(saved.before?.A), B: reading(saved.before?.B) },
     after: { A: reading(saved.after?.A), B: reading(saved.after?.B) },
     corrections: (saved.corrections ?? []).map((c) => ({ ...c, angle: c.angle ?? "" })),
@@ -187,8 +228,14 @@ function RecordForm({
 }) {
   const client = useQueryClient();
   const record = workshop.rotating.find((r) => r.part === part);
+  const units = recordUnits(part, workshop);
+  const words = ROTATING_UNIT_WORDS[units.mass];
   const form = useForm<Values, unknown, Parsed>({
-    resolver: zodResolver(rotatingRecordSchema) as unknown as Resolver<Values, unknown, Parsed>,
+    resolver: zodResolver(rotatingRecordSchemaIn(units.mass)) as unknown as Resolver<
+      Values,
+      unknown,
+      Parsed
+    >,
     defaultValues: initialValues(part, workshop),
   });
   const corrections = useFieldArray({ control: form.control, name: "corrections" });
@@ -233,8 +280,8 @@ function RecordForm({
       // One plane keeps no plane B figures: nothing hidden may block the save.
       form.setValue("before.B", blankReading());
       form.setValue("after.B", blankReading());
-      form.setValue("planeDistanceAMm", "");
-      form.setValue("planeDistanceBMm", "");
+      form.setValue("planeDistanceA", "");
+      form.setValue("planeDistanceB", "");
       corrections.fields.forEach((_, i) => form.setValue(`corrections.${i}.plane`, "A"));
     }
   };
@@ -265,9 +312,9 @@ function RecordForm({
       <fieldset disabled={!canEdit} className="min-w-0 space-y-4">
         <div className="flex flex-wrap gap-4">
           <label className="text-sm">
-            <span className="block font-semibold">Mass (kg)</span>
-            <input className={input} inputMode="decimal" {...form.register("massKg")} />
-            {err(errors.massKg)}
+            <span className="block font-semibold">Mass ({rotorMassUnit(units.mass)})</span>
+            <input className={input} inputMode="decimal" {...form.register("rotorMass")} />
+            {err(errors.rotorMass)}
           </label>
           <label className="text-sm">
             <span className="block font-semibold">Max service speed (rpm)</span>
@@ -291,9 +338,9 @@ function RecordForm({
             </select>
           </label>
           <label className="text-sm">
-            <span className="block font-semibold">Balancer reading radius (mm)</span>
-            <input className={input} inputMode="decimal" {...form.register("radiusMm")} />
-            {err(errors.radiusMm)}
+            <span className="block font-semibold">Balancer reading radius ({units.length})</span>
+            <input className={input} inputMode="decimal" {...form.register("radius")} />
+            {err(errors.radius)}
           </label>
         </div>
         <fieldset className="flex flex-wrap items-center gap-4 text-sm">
@@ -317,17 +364,17 @@ function RecordForm({
           <div className="flex flex-wrap gap-4">
             <label className="text-sm">
               <span className="block font-semibold">
-                Plane A from centre of mass (mm, optional)
+                Plane A from centre of mass ({units.length}, optional)
               </span>
-              <input className={input} inputMode="decimal" {...form.register("planeDistanceAMm")} />
-              {err(errors.planeDistanceAMm)}
+              <input className={input} inputMode="decimal" {...form.register("planeDistanceA")} />
+              {err(errors.planeDistanceA)}
             </label>
             <label className="text-sm">
               <span className="block font-semibold">
-                Plane B from centre of mass (mm, optional)
+                Plane B from centre of mass ({units.length}, optional)
               </span>
-              <input className={input} inputMode="decimal" {...form.register("planeDistanceBMm")} />
-              {err(errors.planeDistanceBMm)}
+              <input className={input} inputMode="decimal" {...form.register("planeDistanceB")} />
+              {err(errors.planeDistanceB)}
             </label>
           </div>
         ) : null}
@@ -348,11 +395,11 @@ function RecordForm({
                       {planes === "one" ? "Reading" : `Plane ${plane}`}
                     </span>
                     <label>
-                      <span className="block">grams</span>
+                      <span className="block">{words.mass}</span>
                       <input
                         className={input}
                         inputMode="decimal"
-                        aria-label={`${side} ${name} grams`}
+                        aria-label={`${side} ${name} ${words.mass}`}
                         aria-invalid={e?.mass ? true : undefined}
                         {...form.register(`${side}.${plane}.mass`)}
                       />
@@ -416,8 +463,8 @@ function RecordForm({
                     <input
                       className={input}
                       inputMode="decimal"
-                      placeholder="grams"
-                      aria-label={`Correction ${i + 1} grams`}
+                      placeholder={words.mass}
+                      aria-label={`Correction ${i + 1} ${words.mass}`}
                       aria-invalid={e?.mass ? true : undefined}
                       {...form.register(`corrections.${i}.mass`)}
                     />
@@ -484,7 +531,10 @@ function RecordForm({
   );
 }
 
-/** The verdict leads with grams at the balancer radius; g·mm and the ISO terms follow. */
+/**
+ * The verdict leads with the mass at the balancer radius, then the unbalance and the ISO terms,
+ * all in the record's units (g or oz, mm or in); pass or fail is the engine's, in g and mm.
+ */
 function Verdict({ check, data }: { check: RotatingCheck | null; data: RotatingRecordInput }) {
   if (!check)
     return (
@@ -497,10 +547,16 @@ function Verdict({ check, data }: { check: RotatingCheck | null; data: RotatingR
       <aside className="text-sm text-graphite-600">Still needed: {check.missing.join(", ")}.</aside>
     );
   const p = check.permissible;
+  const units = check.units ?? unitsOf(data);
+  const figures = figuresOf(data);
   const single = check.planes === "one";
-  const radius = `${formatLength(check.radiusMm!)} mm`;
+  const radius = `${formatLength(figures.radius?.entered ?? check.radiusMm!)} ${units.length}`;
   const name = (plane: string) => (single ? "" : `Plane ${plane}: `);
   const allowance = new Map(check.allowances.map((a) => [a.plane, a]));
+  // A mass at the radius (g) and an unbalance (g·mm) in the record's units, by the display rule.
+  const mass = (g: string) => `${formatUnbalance(convertMass(g, "g", units.mass))} ${units.mass}`;
+  const unbalance = (gmm: string) =>
+    `${formatUnbalance(unbalanceIn(gmm, units))} ${unbalanceUnit(units)}`;
   return (
     <aside className="space-y-3 text-sm" data-testid="rotating-verdict">
       {(["after", "before"] as const).map((side) => {
@@ -524,13 +580,12 @@ function Verdict({ check, data }: { check: RotatingCheck | null; data: RotatingR
                 const allowed = allowance.get(pl.plane as "A" | "B");
                 return (
                   <li key={pl.plane}>
-                    {name(pl.plane)}Residual {reading} g at {radius} — allowed{" "}
-                    {allowed ? formatUnbalance(allowed.massAtRadius) : "?"} g:{" "}
+                    {name(pl.plane)}Residual {reading} {units.mass} at {radius} — allowed{" "}
+                    {allowed ? mass(allowed.massAtRadius) : "?"}:{" "}
                     <span className="font-semibold">{pl.pass ? "pass" : "fail"}</span>
                     <span className="block font-mono text-xs text-graphite-600">
-                      {formatUnbalance(pl.residual)} of {formatUnbalance(pl.allowed)} g·mm (
-                      {pl.pass ? "margin" : "over by"} {formatUnbalance(pl.margin.replace("-", ""))}{" "}
-                      g·mm)
+                      {formatUnbalance(unbalanceIn(pl.residual, units))} of {unbalance(pl.allowed)}{" "}
+                      ({pl.pass ? "margin" : "over by"} {unbalance(pl.margin.replace("-", ""))})
                       {pl.angle ? `, heavy spot at ${pl.angle}°` : ""}
                     </span>
                   </li>
@@ -547,20 +602,20 @@ function Verdict({ check, data }: { check: RotatingCheck | null; data: RotatingR
         <ul>
           {check.allowances.map((a) => (
             <li key={a.plane}>
-              {single ? "In the one plane" : `Plane ${a.plane}`}: {formatUnbalance(a.massAtRadius)}{" "}
-              g at {radius}
+              {single ? "In the one plane" : `Plane ${a.plane}`}: {mass(a.massAtRadius)} at {radius}
               {a.clamped ? " (share held to 30–70 %)" : ""}
             </li>
           ))}
         </ul>
         <p className="mt-1 font-mono text-xs text-graphite-600">
-          ISO 21940-11: U_per {formatUnbalance(p.uPer)} g·mm for the whole part
+          ISO 21940-11: U_per {unbalance(p.uPer)} for the whole part
           {single
             ? ", all in one plane"
             : p.allocation === "half-each"
               ? ", half each plane"
               : ", shared by distance"}
-          ; e_per {formatUnbalance(p.ePer)} g·mm/kg.
+          ; e_per {formatUnbalance(unbalanceIn(p.ePer, units, true))} {unbalanceUnit(units)}/
+          {rotorMassUnit(units.mass)}.
         </p>
       </div>
     </aside>

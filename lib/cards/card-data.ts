@@ -13,6 +13,7 @@ import {
 import { showLength } from "@/lib/jobs/lengths";
 import type { RotatingRecordInput } from "@/lib/validation/workshop";
 import type { Workshop } from "@/lib/workshop/load";
+import { figuresOf, type RotatingUnits } from "@/lib/workshop/rotating";
 
 /** Bumped whenever the shape below changes, so old snapshots can still be read. */
 export const CARD_DATA_FORMAT = 1;
@@ -68,9 +69,9 @@ export interface CardPlane {
   allowed: string;
   /** The same as a mass at the balancer radius, g. */
   allowedMass: string | null;
-  /** Residual before correction, g·mm, and the balancer reading, g. */
+  /** Residual before correction, g·mm, and the balancer reading as typed (the record's unit). */
   before: { residual: string; mass: string } | null;
-  /** Final residual, g·mm, the balancer reading, g, and whether it is within the allowance. */
+  /** Final residual, g·mm, the reading as typed (the record's unit), and whether it is within. */
   after: { residual: string; mass: string; pass: boolean } | null;
 }
 
@@ -81,10 +82,25 @@ export interface CardRotatingRecord {
   rpm: number | null;
   massKg: string | null;
   radiusMm: string | null;
+  /**
+   * The units the record was typed in: readings, corrections and the plane's masses in g or oz,
+   * the rotor in kg or lb, the radius in mm or in. Absent on older cards: grams and mm.
+   */
+  units?: RotatingUnits;
+  /** The rotor's mass and the balancer radius as typed, in `units`. Absent on older cards. */
+  rotorMass?: string | null;
+  radius?: string | null;
   planes: CardPlane[];
   /** Pass/fail of the final readings against the grade; null when not read yet. */
   pass: boolean | null;
-  corrections: { plane: string; method: string; where: string; mass: string }[];
+  /** Each correction's mass as typed (in `units`) and its angle, degrees, when noted. */
+  corrections: {
+    plane: string;
+    method: string;
+    where: string;
+    mass: string;
+    angle?: string | null;
+  }[];
   notes: string | null;
   /** What is missing to work the allowance out. */
   missing: string[];
@@ -307,6 +323,7 @@ function rotatingRecord(workshop: Workshop, part: RotatingPart): CardRotatingRec
     };
   }
   const data = record.data as RotatingRecordInput;
+  const figures = figuresOf(data);
   const { permissible, before, after, missing } = record.check;
   // The allowance per plane the readings were checked against: the whole U_per for one plane.
   const single = record.check.planes === "one";
@@ -328,8 +345,11 @@ function rotatingRecord(workshop: Workshop, part: RotatingPart): CardRotatingRec
     recorded: true,
     grade: permissible?.grade ?? data.grade ?? null,
     rpm: data.rpm ?? null,
-    massKg: data.massKg ?? null,
-    radiusMm: data.radiusMm ?? null,
+    massKg: figures.rotorMass?.kg ?? null,
+    radiusMm: figures.radius?.mm ?? null,
+    units: figures.units,
+    rotorMass: figures.rotorMass?.entered ?? null,
+    radius: figures.radius?.entered ?? null,
     planes,
     pass: after ? after.pass : null,
     corrections: (data.corrections ?? []).map((c) => ({
@@ -337,6 +357,7 @@ function rotatingRecord(workshop: Workshop, part: RotatingPart): CardRotatingRec
       method: c.method,
       where: c.where,
       mass: c.mass,
+      angle: c.angle ?? null,
     })),
     notes: data.notes ?? null,
     missing,

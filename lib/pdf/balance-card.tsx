@@ -1,6 +1,7 @@
 import { Document, Image, Page, renderToBuffer, StyleSheet, Text, View } from "@react-pdf/renderer";
 import QRCode from "qrcode";
 import type { ReactNode } from "react";
+import { convertMass } from "@/lib/balance";
 import type {
   CardCylinder,
   CardData,
@@ -22,6 +23,12 @@ import {
   toleranceWording,
 } from "@/lib/cards/format";
 import { CARD_CAUTIONS, NO_BOBWEIGHT_TEXT } from "@/lib/cards/wording";
+import {
+  rotorMassUnit,
+  type RotatingUnits,
+  unbalanceIn,
+  unbalanceUnit,
+} from "@/lib/workshop/rotating";
 import { PDF_FONTS, registerPdfFonts } from "./fonts";
 
 const INK = "#17191d";
@@ -356,14 +363,20 @@ function Verdict({ record }: { record: CardRotatingRecord }) {
 }
 
 function RotatingRecordBlock({ record }: { record: CardRotatingRecord }) {
+  // In the units the record was typed in (older cards: grams and mm); the engine's g·mm converted.
+  const units: RotatingUnits = record.units ?? { mass: "g", length: "mm" };
+  const rotor = record.rotorMass ?? record.massKg;
+  const radius = record.radius ?? record.radiusMm;
   const facts = [
     record.grade ? `${showGrade(record.grade)}` : null,
     record.rpm ? `service speed ${record.rpm} rpm` : null,
-    record.massKg ? `rotor ${showEntered(record.massKg)} kg` : null,
-    record.radiusMm ? `balancer radius ${showEntered(record.radiusMm)} mm` : null,
+    rotor ? `rotor ${showEntered(rotor)} ${rotorMassUnit(units.mass)}` : null,
+    radius ? `balancer radius ${showEntered(radius)} ${units.length}` : null,
   ].filter(Boolean);
+  const u = unbalanceUnit(units);
+  const unbalance = (gmm: string) => showUnbalance(unbalanceIn(gmm, units));
   const residual = (side: { residual: string; mass: string } | null) =>
-    side ? `${showUnbalance(side.residual)} (${showEntered(side.mass)} g)` : "—";
+    side ? `${unbalance(side.residual)} (${showEntered(side.mass)} ${units.mass})` : "—";
   return (
     <View wrap={false} style={{ marginBottom: 3 }}>
       <View style={s.recordHead}>
@@ -377,9 +390,9 @@ function RotatingRecordBlock({ record }: { record: CardRotatingRecord }) {
         <>
           <View style={s.tableHead}>
             <Text style={{ width: 50 }}>PLANE</Text>
-            <Text style={s.hFig}>PERMISSIBLE, g·mm (g at radius)</Text>
-            <Text style={s.hFig}>BEFORE, g·mm (reading)</Text>
-            <Text style={s.hFig}>FINAL RESIDUAL, g·mm (reading)</Text>
+            <Text style={s.hFig}>{`PERMISSIBLE, ${u} (${units.mass} at radius)`}</Text>
+            <Text style={s.hFig}>{`BEFORE, ${u} (reading)`}</Text>
+            <Text style={s.hFig}>{`FINAL RESIDUAL, ${u} (reading)`}</Text>
             <Text style={[s.hFig, { flexGrow: 0.5 }]}>RESULT</Text>
           </View>
           {record.planes.map((p) => (
@@ -387,7 +400,7 @@ function RotatingRecordBlock({ record }: { record: CardRotatingRecord }) {
               <Text style={{ width: 50 }}>{p.plane}</Text>
               <View style={s.cFig}>
                 <Fig>
-                  {`${showUnbalance(p.allowed)}${p.allowedMass ? ` (${showUnbalance(p.allowedMass)} g)` : ""}`}
+                  {`${unbalance(p.allowed)}${p.allowedMass ? ` (${showUnbalance(convertMass(p.allowedMass, "g", units.mass))} ${units.mass})` : ""}`}
                 </Fig>
               </View>
               <View style={s.cFig}>
@@ -417,7 +430,7 @@ function RotatingRecordBlock({ record }: { record: CardRotatingRecord }) {
           {record.corrections
             .map(
               (c) =>
-                `plane ${c.plane}, ${METHOD_LABELS[c.method] ?? c.method} ${showEntered(c.mass)} g${c.where ? ` (${c.where})` : ""}`,
+                `plane ${c.plane}, ${METHOD_LABELS[c.method] ?? c.method} ${showEntered(c.mass)} ${units.mass}${c.angle ? ` at ${showEntered(c.angle)}°` : ""}${c.where ? ` (${c.where})` : ""}`,
             )
             .join("; ")}
           .

@@ -111,17 +111,23 @@ const pointAngle = z
   )
   .optional();
 
+/** The job's units a helper's figures are typed in: grams unless "oz", mm unless "in". */
+const helperMassUnit = z.enum(["g", "oz"], { message: "Weights in: grams or ounces." }).optional();
+const helperLengthUnit = z.enum(["mm", "in"], { message: "Lengths in: mm or inches." }).optional();
+
 /** Drill depth for a mass (the drill helper). */
 export const drillHoleSchema = z
   .object({
     kind: z.literal("drill"),
-    /** Mass to take out, g. */
+    massUnit: helperMassUnit,
+    lengthUnit: helperLengthUnit,
+    /** Mass to take out, in massUnit (g). */
     mass: positiveDecimal,
     /** Drill size (see drillSizeText); a bare number is mm. */
     diameter: drillSizeText,
     density: positiveDecimal,
     pointAngle,
-    /** Depth of metal there is to drill into, mm: the answer says whether the hole fits. */
+    /** Depth of metal there is to drill into, in lengthUnit (mm): the answer says whether the hole fits. */
     availableDepth: z.preprocess(blankToUndefined, positiveDecimal.optional()).optional(),
   })
   .strict();
@@ -130,8 +136,10 @@ export const drillHoleSchema = z
 export const plugHoleSchema = z
   .object({
     kind: z.literal("plug"),
+    lengthUnit: helperLengthUnit,
     /** Plug and hole size (see drillSizeText); a bare number is mm. */
     diameter: drillSizeText,
+    /** Plug length, in lengthUnit (mm). */
     length: positiveDecimal,
     plugDensity: positiveDecimal,
     hostDensity: positiveDecimal,
@@ -144,6 +152,9 @@ export const plugHoleSchema = z
 export const moveHoleSchema = z
   .object({
     kind: z.literal("move"),
+    massUnit: helperMassUnit,
+    lengthUnit: helperLengthUnit,
+    /** In massUnit (g); the radii in lengthUnit (mm). */
     mass: positiveDecimal,
     fromRadius: positiveDecimal,
     toRadius: positiveDecimal,
@@ -154,6 +165,8 @@ export const moveHoleSchema = z
 export const splitHoleSchema = z
   .object({
     kind: z.literal("split"),
+    massUnit: helperMassUnit,
+    /** In massUnit (g). */
     mass: positiveDecimal,
     halfAngleDeg: decimalString.refine(
       (v) => Number(v) < 90,

@@ -224,43 +224,57 @@ const dialAngle = z.preprocess(
   decimalString.refine((v) => Number(v) <= 360, "An angle from 0 to 360°.").nullable(),
 );
 
-/** A balancer reading in one plane: grams at the balancer radius, and where the heavy spot is. */
-const planeReading = z.preprocess(
-  (v) => {
-    // Both boxes left empty: the plane was not read. An angle alone still needs its grams.
-    if (!v || typeof v !== "object") return v;
-    const { mass, angle } = v as { mass?: unknown; angle?: unknown };
-    return (mass === "" || mass === undefined || mass === null) &&
-      (angle === "" || angle === undefined || angle === null)
-      ? null
-      : v;
-  },
-  z
-    .object({
-      mass: z
-        .string({ message: "Enter the grams the balancer reads, like 0.4." })
-        .trim()
-        .min(1, "Enter the grams the balancer reads, like 0.4.")
-        .pipe(decimalString),
-      angle: dialAngle.optional(),
-    })
-    .nullable(),
-);
+/**
+ * The units a rotating record is typed in: readings and corrections in grams or ounces (the
+ * rotor's mass then in kg or lb), radius and plane distances in mm or inches. A record saved
+ * without them is grams and millimetres.
+ */
+export const ROTATING_MASS_UNITS = ["g", "oz"] as const;
+export type RotatingMassUnit = (typeof ROTATING_MASS_UNITS)[number];
+export const ROTATING_LENGTH_UNITS = ["mm", "in"] as const;
+export type RotatingLengthUnit = (typeof ROTATING_LENGTH_UNITS)[number];
+
+/** How a record's units are named in the machinist's words. */
+export const ROTATING_UNIT_WORDS = {
+  g: { mass: "grams", reading: "0.4", correction: "4.2", rotor: "kg" },
+  oz: { mass: "ounces", reading: "0.015", correction: "0.15", rotor: "lb" },
+} as const;
+
+/** A balancer reading in one plane, in the record's mass unit, and where the heavy spot is. */
+function planeReadingIn(unit: RotatingMassUnit) {
+  const words = `Enter the ${ROTATING_UNIT_WORDS[unit].mass} the balancer reads, like ${ROTATING_UNIT_WORDS[unit].reading}.`;
+  return z.preprocess(
+    (v) => {
+      // Both boxes left empty: the plane was not read. An angle alone still needs its mass.
+      if (!v || typeof v !== "object") return v;
+      const { mass, angle } = v as { mass?: unknown; angle?: unknown };
+      return (mass === "" || mass === undefined || mass === null) &&
+        (angle === "" || angle === undefined || angle === null)
+        ? null
+        : v;
+    },
+    z
+      .object({
+        mass: z.string({ message: words }).trim().min(1, words).pipe(decimalString),
+        angle: dialAngle.optional(),
+      })
+      .nullable(),
+  );
+}
 
 /** Correction methods on a crank, flywheel, clutch cover or damper. */
 export const CORRECTION_METHODS = ["drilled", "heavy-metal", "added", "other"] as const;
 
-const correction = z.object({
-  plane: z.enum(["A", "B"], { message: "Choose plane A or B." }),
-  method: z.enum(CORRECTION_METHODS, { message: "Choose how the correction was made." }),
-  where: z.string().trim().max(120, "At most 120 characters."),
-  mass: z
-    .string({ message: "Enter the grams of this correction, like 4.2." })
-    .trim()
-    .min(1, "Enter the grams of this correction, like 4.2.")
-    .pipe(positiveDecimal),
-  angle: dialAngle.optional(),
-});
+function correctionIn(unit: RotatingMassUnit) {
+  const words = `Enter the ${ROTATING_UNIT_WORDS[unit].mass} of this correction, like ${ROTATING_UNIT_WORDS[unit].correction}.`;
+  return z.object({
+    plane: z.enum(["A", "B"], { message: "Choose plane A or B." }),
+    method: z.enum(CORRECTION_METHODS, { message: "Choose how the correction was made." }),
+    where: z.string().trim().max(120, "At most 120 characters."),
+    mass: z.string({ message: words }).trim().min(1, words).pipe(positiveDecimal),
+    angle: dialAngle.optional(),
+  });
+}
 
 /**
  * How many correction planes the part is balanced in: a crankshaft in two; a flexplate,
@@ -269,33 +283,90 @@ const correction = z.object({
 export const CORRECTION_PLANES = ["one", "two"] as const;
 export type CorrectionPlanes = (typeof CORRECTION_PLANES)[number];
 
-/** The record of one rotating part on the balancer: readings before and after, and corrections. */
-export const rotatingRecordSchema = z
-  .object({
-    massKg: optionalPositive,
-    rpm: z
-      .preprocess(
-        blankToNull,
-        z
-          .number({ message: "Service speed: a whole number of rpm, like 7000." })
-          .int("Service speed: a whole number of rpm, like 7000.")
-          .min(100, "At least 100 rpm.")
-          .max(30_000, "At most 30 000 rpm.")
-          .nullable(),
-      )
-      .optional(),
-    grade: z.string().max(10).nullable().optional(),
-    radiusMm: optionalPositive,
-    planes: z.enum(CORRECTION_PLANES, { message: "One plane or two." }).optional(),
-    planeDistanceAMm: optionalPositive,
-    planeDistanceBMm: optionalPositive,
-    before: z.object({ A: planeReading, B: planeReading }).partial().optional(),
-    after: z.object({ A: planeReading, B: planeReading }).partial().optional(),
-    corrections: z.array(correction).max(40).optional(),
-    notes: z.string().trim().max(2000).nullable().optional(),
-  })
-  .strict();
-export type RotatingRecordInput = z.infer<typeof rotatingRecordSchema>;
+/** The same figure sent twice, as typed and under its older millimetre/kilogram name. */
+const TWICE: [typed: string, older: string, words: string][] = [
+  ["rotorMass", "massKg", "Rotor mass"],
+  ["radius", "radiusMm", "Balancer reading radius"],
+  ["planeDistanceA", "planeDistanceAMm", "Plane A from centre of mass"],
+  ["planeDistanceB", "planeDistanceBMm", "Plane B from centre of mass"],
+];
+
+/**
+ * The record of one rotating part on the balancer, typed in one mass unit (the messages name
+ * it): readings before and after, corrections, the rotor and where it is read. The form uses
+ * this for the job's unit; the server picks it by the record's `massUnit`.
+ */
+export function rotatingRecordSchemaIn(unit: RotatingMassUnit) {
+  const reading = planeReadingIn(unit);
+  return z
+    .object({
+      massUnit: z.enum(ROTATING_MASS_UNITS, { message: "Weights in: grams or ounces." }).optional(),
+      lengthUnit: z
+        .enum(ROTATING_LENGTH_UNITS, { message: "Lengths in: mm or inches." })
+        .optional(),
+      /** The rotor's mass as typed: kg with grams, lb with ounces. */
+      rotorMass: optionalPositive,
+      /** Older callers: the rotor's mass in kg, whatever the unit. */
+      massKg: optionalPositive,
+      rpm: z
+        .preprocess(
+          blankToNull,
+          z
+            .number({ message: "Service speed: a whole number of rpm, like 7000." })
+            .int("Service speed: a whole number of rpm, like 7000.")
+            .min(100, "At least 100 rpm.")
+            .max(30_000, "At most 30 000 rpm.")
+            .nullable(),
+        )
+        .optional(),
+      grade: z.string().max(10).nullable().optional(),
+      /** Balancer reading radius as typed, in the record's length unit. */
+      radius: optionalPositive,
+      /** Older callers: the radius in mm. */
+      radiusMm: optionalPositive,
+      planes: z.enum(CORRECTION_PLANES, { message: "One plane or two." }).optional(),
+      /** Plane distances from the centre of mass as typed, in the record's length unit. */
+      planeDistanceA: optionalPositive,
+      planeDistanceB: optionalPositive,
+      /** Older callers: the plane distances in mm. */
+      planeDistanceAMm: optionalPositive,
+      planeDistanceBMm: optionalPositive,
+      before: z.object({ A: reading, B: reading }).partial().optional(),
+      after: z.object({ A: reading, B: reading }).partial().optional(),
+      corrections: z.array(correctionIn(unit)).max(40).optional(),
+      notes: z.string().trim().max(2000).nullable().optional(),
+    })
+    .strict()
+    .superRefine((record, ctx) => {
+      const values = record as Record<string, unknown>;
+      for (const [typed, older, words] of TWICE)
+        if (values[typed] && values[older])
+          ctx.addIssue({
+            code: "custom",
+            path: [typed],
+            message: `${words}: give it once (${typed} in the record's unit, or ${older}).`,
+          });
+    });
+}
+
+const RECORD_SCHEMAS = { g: rotatingRecordSchemaIn("g"), oz: rotatingRecordSchemaIn("oz") };
+
+/**
+ * The record of one rotating part, read in the unit it says it was typed in (`massUnit`,
+ * grams when absent), so a refusal names grams or ounces as the machinist typed them.
+ */
+export const rotatingRecordSchema = z.unknown().transform((value, ctx) => {
+  const unit: RotatingMassUnit =
+    value && typeof value === "object" && (value as { massUnit?: unknown }).massUnit === "oz"
+      ? "oz"
+      : "g";
+  const parsed = RECORD_SCHEMAS[unit].safeParse(value);
+  if (parsed.success) return parsed.data;
+  for (const issue of parsed.error.issues)
+    ctx.addIssue({ code: "custom", message: issue.message, path: issue.path });
+  return z.NEVER;
+});
+export type RotatingRecordInput = z.output<ReturnType<typeof rotatingRecordSchemaIn>>;
 
 export const rotatingWriteSchema = z
   .object({ data: rotatingRecordSchema, version: z.number().int().min(0) })

@@ -1,5 +1,8 @@
+import Decimal from "decimal.js";
 import {
   checkResidual,
+  convertLength,
+  convertMass,
   isBalanceInputError,
   permissibleUnbalance,
   type PermissibleUnbalance,
@@ -7,7 +10,12 @@ import {
 } from "@/lib/balance";
 import type { RotatingPart } from "@/db/schema";
 import type { RotatingRecord } from "@/db/weights";
-import type { CorrectionPlanes, RotatingRecordInput } from "@/lib/validation/workshop";
+import type {
+  CorrectionPlanes,
+  RotatingLengthUnit,
+  RotatingMassUnit,
+  RotatingRecordInput,
+} from "@/lib/validation/workshop";
 
 type Plane = "A" | "B";
 
@@ -24,7 +32,107 @@ export interface PlaneAllowanceAtRadius {
   clamped: boolean;
 }
 
+/** The units a record was typed in: grams and mm unless it says otherwise. */
+export interface RotatingUnits {
+  /** Readings and corrections; the rotor's mass is then in kg (g) or lb (oz). */
+  mass: RotatingMassUnit;
+  /** Balancer radius and plane distances. */
+  length: RotatingLengthUnit;
+}
+
+/** Kilograms in one pound, exact (1 lb = 453.59237 g, NIST SP 811 App. B.8). */
+export const KILOGRAMS_PER_POUND = "0.45359237";
+
+/** The rotor's mass unit that goes with a reading unit: kg with grams, lb with ounces. */
+export function rotorMassUnit(unit: RotatingMassUnit): "kg" | "lb" {
+  return unit === "oz" ? "lb" : "kg";
+}
+
+/** A record's units: what it says it was typed in, else grams and millimetres (older records). */
+export function unitsOf(data: RotatingRecordInput): RotatingUnits {
+  return { mass: data.massUnit ?? "g", length: data.lengthUnit ?? "mm" };
+}
+
+/** A record's figures as typed, each with the engine's (g, mm, kg) beside it. */
+export interface RotatingFigures {
+  units: RotatingUnits;
+  /** The rotor's mass as typed (kg or lb) and in kg. */
+  rotorMass: { entered: string; kg: string } | null;
+  /** The balancer radius as typed and in mm. */
+  radius: { entered: string; mm: string } | null;
+  /** Plane distances from the centre of mass as typed and in mm. */
+  planeDistances: { A: { entered: string; mm: string }; B: { entered: string; mm: string } } | null;
+}
+
+/** A reading or correction typed in the record's mass unit, in grams (exact for ounces). */
+export function gramsOf(mass: string, unit: RotatingMassUnit): string {
+  return unit === "oz" ? convertMass(mass, "oz", "g") : mass;
+}
+
+/** A length typed in the record's length unit, in mm (1 in = 25.4 mm exactly). */
+export function millimetresOf(length: string, unit: RotatingLengthUnit): string {
+  return unit === "in" ? convertLength(length, "in", "mm") : length;
+}
+
+/** A rotor mass typed in kg or lb (with ounce readings), in kg (1 lb = 0.45359237 kg exactly). */
+export function kilogramsOf(mass: string, unit: RotatingMassUnit): string {
+  return unit === "oz" ? new Decimal(mass).times(KILOGRAMS_PER_POUND).toFixed() : mass;
+}
+
+/**
+ * A record's rotor mass, radius and plane distances as typed, converted exactly for the engine.
+ * Older records keep kg and mm under their own names (massKg, radiusMm, planeDistanceAMm…),
+ * which hold whatever the record's units.
+ */
+export function figuresOf(data: RotatingRecordInput): RotatingFigures {
+  const units = unitsOf(data);
+  const length = (typed: string | null | undefined, mm: string | null | undefined) =>
+    typed
+      ? { entered: typed, mm: millimetresOf(typed, units.length) }
+      : mm
+        ? { entered: units.length === "mm" ? mm : convertLength(mm, "mm", "in"), mm }
+        : null;
+  const rotorMass = data.rotorMass
+    ? { entered: data.rotorMass, kg: kilogramsOf(data.rotorMass, units.mass) }
+    : data.massKg
+      ? {
+          entered:
+            units.mass === "oz"
+              ? new Decimal(data.massKg).div(KILOGRAMS_PER_POUND).toSignificantDigits(10).toFixed()
+              : data.massKg,
+          kg: data.massKg,
+        }
+      : null;
+  const a = length(data.planeDistanceA, data.planeDistanceAMm);
+  const b = length(data.planeDistanceB, data.planeDistanceBMm);
+  return {
+    units,
+    rotorMass,
+    radius: length(data.radius, data.radiusMm),
+    planeDistances: a && b ? { A: a, B: b } : null,
+  };
+}
+
+/**
+ * An unbalance in g·mm (or a specific unbalance in g·mm/kg) in the record's units: g·mm, g·in,
+ * oz·mm or oz·in (g·mm/kg or oz·in/lb). Exact factors (NIST SP 811 App. B.8); the sign kept.
+ */
+export function unbalanceIn(gmm: string, units: RotatingUnits, perMass = false): string {
+  const negative = gmm.trim().startsWith("-");
+  const size = negative ? gmm.trim().slice(1) : gmm.trim();
+  let out = convertLength(convertMass(size, "g", units.mass), "mm", units.length);
+  if (perMass && units.mass === "oz") out = new Decimal(out).times(KILOGRAMS_PER_POUND).toFixed();
+  return negative && !/^0(\.0*)?$/.test(out) ? `-${out}` : out;
+}
+
+/** The symbol of an unbalance in a record's units: "g·mm", "oz·in"… */
+export function unbalanceUnit(units: RotatingUnits): string {
+  return `${units.mass}·${units.length}`;
+}
+
 export interface RotatingCheck {
+  /** The units the record was typed in (figures below stay g, mm, kg). */
+  units: RotatingUnits;
   /** One correction plane (the whole U_per there) or two (shared per ISO 21940-11 §7.2). */
   planes: CorrectionPlanes;
   permissible: PermissibleUnbalance | null;
@@ -59,23 +167,36 @@ export function checkRotatingRecord(record: RotatingRecord): RotatingCheck {
   const data = record.data as RotatingRecordInput;
   const planes = planesOf(record.part, data);
   const planeNames: Plane[] = planes === "one" ? ["A"] : ["A", "B"];
-  const empty = { planes, permissible: null, allowances: [], before: null, after: null };
+  const units = unitsOf(data);
+  const empty = { units, planes, permissible: null, allowances: [], before: null, after: null };
+  let figures: RotatingFigures;
+  try {
+    figures = figuresOf(data);
+  } catch (error) {
+    if (isBalanceInputError(error)) return { ...empty, radiusMm: null, missing: [error.message] };
+    throw error;
+  }
   const missing = [
-    !data.massKg && "mass",
+    !figures.rotorMass && "mass",
     !data.rpm && "service speed",
     !data.grade && "balance grade",
-    !data.radiusMm && "balancer radius",
+    !figures.radius && "balancer radius",
   ].filter((m): m is string => Boolean(m));
-  if (missing.length > 0) return { ...empty, radiusMm: data.radiusMm ?? null, missing };
-  const radius = data.radiusMm!;
+  if (missing.length > 0) return { ...empty, radiusMm: figures.radius?.mm ?? null, missing };
+  const radius = figures.radius!.mm;
   try {
     const permissible = permissibleUnbalance({
       grade: data.grade!,
-      rotorMassKg: data.massKg!,
+      rotorMassKg: figures.rotorMass!.kg,
       rpm: String(data.rpm),
       correctionRadius: radius,
-      ...(planes === "two" && data.planeDistanceAMm && data.planeDistanceBMm
-        ? { planes: { distanceA: data.planeDistanceAMm, distanceB: data.planeDistanceBMm } }
+      ...(planes === "two" && figures.planeDistances
+        ? {
+            planes: {
+              distanceA: figures.planeDistances.A.mm,
+              distanceB: figures.planeDistances.B.mm,
+            },
+          }
         : {}),
     });
     const allowances: PlaneAllowanceAtRadius[] =
@@ -103,13 +224,15 @@ export function checkRotatingRecord(record: RotatingRecord): RotatingCheck {
         permissible: { planes: allowances },
         readings: planeNames.map((plane, i) => ({
           plane,
-          mass: readings[i]!.mass,
+          // Typed in ounces: converted here, exactly, from the figure as typed.
+          mass: gramsOf(readings[i]!.mass, units.mass),
           radius,
           ...(readings[i]!.angle ? { angle: readings[i]!.angle } : {}),
         })),
       });
     };
     return {
+      units,
       planes,
       permissible,
       allowances,
