@@ -7,17 +7,17 @@ import type { Database } from "./schema";
 export type Dialect = "sqlite" | "postgres";
 
 /** Which engine a database (or a transaction on one) runs on. */
-export function dialectOf(db: Kysely<any>): Dialect {
+export function dialectOf(db: Kysely<Database>): Dialect {
   // PostgreSQL numbers its placeholders ($1); SQLite writes "?".
   return sql`${0}`.compile(db).sql === "$1" ? "postgres" : "sqlite";
 }
 
-export function isPostgres(db: Kysely<any>): boolean {
+export function isPostgres(db: Kysely<Database>): boolean {
   return dialectOf(db) === "postgres";
 }
 
 /** True when the table exists (in the current schema on PostgreSQL). */
-export async function tableExists(db: Kysely<any>, name: string): Promise<boolean> {
+export async function tableExists(db: Kysely<Database>, name: string): Promise<boolean> {
   const { rows } = isPostgres(db)
     ? await sql<{ n: number }>`
         select count(*)::int as n from information_schema.tables
@@ -38,7 +38,7 @@ export async function tableExists(db: Kysely<any>, name: string): Promise<boolea
  *
  * @example await trx.selectFrom("jobs").selectAll().where("id", "=", id).$call(forUpdate(trx))
  */
-export function forUpdate<TB extends string = never>(db: Kysely<any>, of?: TB) {
+export function forUpdate<TB extends string = never>(db: Kysely<Database>, of?: TB) {
   const lock = isPostgres(db);
   return <DB, T extends keyof DB, O>(
     qb: SelectQueryBuilder<DB, T, O>,
@@ -65,7 +65,11 @@ export type LockableTable = "jobs" | "invoices" | "quotes" | "price_items";
  * then reads what the first wrote, so a version check or a running total cannot be based on a
  * row someone is changing. Take it before reading the row.
  */
-export async function lockRow(db: Kysely<any>, table: LockableTable, id: number): Promise<void> {
+export async function lockRow(
+  db: Kysely<Database>,
+  table: LockableTable,
+  id: number,
+): Promise<void> {
   if (!isPostgres(db)) return;
   await sql`select id from ${sql.table(table)} where id = ${id} for update`.execute(db);
 }

@@ -123,6 +123,7 @@ describe(`migrations (${testEngine()})`, () => {
         sha256: "a".repeat(64),
         data_json: "{}",
         verification_code: "ABCD-EFGH",
+        issued_at: "2026-12-01T10:00:00.000Z",
       })
       .execute();
     const stored = await db.selectFrom("balance_cards").select("pdf").executeTakeFirstOrThrow();
