@@ -104,3 +104,99 @@ describe("a flywheel balanced in one plane", () => {
     expect(check.before!.pass).toBe(false);
   });
 });
+
+describe("a record typed in ounces, pounds and inches", () => {
+  // An invented flexplate: 26.5 lb, read at 5 in. By hand (NIST SP 811 App. B.8, exact):
+  // 26.5 lb × 0.45359237 = 12.020197805 kg; 5 in × 25.4 = 127 mm; 0.25 oz × 28.349523125 =
+  // 7.08738078125 g.
+  const IN_OUNCES = {
+    massUnit: "oz",
+    lengthUnit: "in",
+    rotorMass: "26.5",
+    rpm: 6000,
+    grade: "6.3",
+    radius: "5.000",
+    before: { A: { mass: "0.250", angle: "100" } },
+    after: { A: { mass: "0.010", angle: "300" } },
+    corrections: [
+      { plane: "A", method: "drilled", where: "outer rim", mass: "0.24", angle: "280" },
+    ],
+  };
+
+  async function workshop() {
+    return (await (
+      await getWorkshop(jsonRequest("GET", "/x"), params({ id: String(job.id) }))
+    ).json()) as Workshop;
+  }
+
+  it("keeps every figure as typed with its units, and checks it in g, mm and kg", async () => {
+    const res = await save("flywheel", IN_OUNCES);
+    expect(res.status).toBe(200);
+    const record = (await workshop()).rotating.find((r) => r.part === "flywheel")!;
+    // Shown again as typed: no converted strings stored in their place.
+    expect(record.data).toMatchObject(IN_OUNCES);
+    const check = record.check;
+    expect(check.units).toEqual({ mass: "oz", length: "in" });
+    expect(check.radiusMm).toBe("127");
+    // U_per = 9549.3 × 6.3 × 12.020197805 / 6000 = 120.52 g·mm (DOMAIN §5); at 127 mm: 0.94899 g.
+    expect(Number(check.allowances[0]!.uPer)).toBeCloseTo(120.52, 1);
+    expect(Number(check.allowances[0]!.massAtRadius)).toBeCloseTo(0.949, 3);
+    // After: 0.010 oz = 0.28349523125 g × 127 mm = 36.00389436875 g·mm: within.
+    expect(check.after).toMatchObject({ pass: true, planes: [{ residual: "36.00389436875" }] });
+    // Before: 0.25 oz = 7.08738078125 g × 127 mm = 900.09735921875 g·mm: over.
+    expect(check.before).toMatchObject({ pass: false, planes: [{ residual: "900.09735921875" }] });
+  });
+
+  it("gives the same verdict as the same flexplate typed in g, kg and mm", async () => {
+    await save("flywheel", IN_OUNCES);
+    // 0.010 oz is 0.28349523125 g: more decimals than a typed figure may have, so the gram
+    // record carries the nearest figure a scale could show at 0.001 g resolution (0.283 g).
+    await save("clutch", {
+      rotorMass: "12.020197805",
+      rpm: 6000,
+      grade: "6.3",
+      radius: "127",
+      after: { A: { mass: "0.283" } },
+      before: { A: { mass: "7.087" } },
+    });
+    const rotating = (await workshop()).rotating;
+    const oz = rotating.find((r) => r.part === "flywheel")!.check;
+    const g = rotating.find((r) => r.part === "clutch")!.check;
+    expect(g.units).toEqual({ mass: "g", length: "mm" });
+    expect(oz.allowances).toEqual(g.allowances);
+    expect(oz.after!.pass).toBe(g.after!.pass);
+    expect(oz.before!.pass).toBe(g.before!.pass);
+  });
+
+  it("refuses by field, naming ounces, an unknown unit and a figure given twice", async () => {
+    const fields = await refusal("flywheel", {
+      ...IN_OUNCES,
+      lengthUnit: "ft",
+      after: { A: { mass: "", angle: "90" } },
+      corrections: [{ plane: "A", method: "drilled", where: "", mass: "" }],
+    });
+    expect(Object.keys(fields).sort()).toEqual([
+      "data.after.A.mass",
+      "data.corrections.0.mass",
+      "data.lengthUnit",
+    ]);
+    expect(fields["data.after.A.mass"]).toMatch(/ounces the balancer reads/);
+    expect(fields["data.corrections.0.mass"]).toMatch(/ounces of this correction/);
+    expect(fields["data.lengthUnit"]).toMatch(/mm or inches/);
+    // The rotor's mass sent as typed and under its older kg name: which one is meant?
+    const twice = await refusal("flywheel", { ...IN_OUNCES, massKg: "12" });
+    expect(twice).toEqual({ "data.rotorMass": expect.stringMatching(/Rotor mass: give it once/) });
+  });
+
+  it("reads a record saved before units were kept as grams and mm", async () => {
+    await save("flywheel", {
+      ...BASE,
+      before: { A: { mass: "4.5" } },
+      after: { A: { mass: "0.15" } },
+    });
+    const check = (await workshop()).rotating.find((r) => r.part === "flywheel")!.check;
+    expect(check.units).toEqual({ mass: "g", length: "mm" });
+    // 0.15 g × 150 mm = 22.5 g·mm, as before units were kept.
+    expect(check.after).toMatchObject({ pass: true, planes: [{ residual: "22.5" }] });
+  });
+});

@@ -118,3 +118,66 @@ describe("POST /api/balance/hole: split and moved corrections", () => {
     ).toEqual({ mass: "8", unbalance: "600" });
   });
 });
+
+describe("POST /api/balance/hole: figures typed in the job's ounces and inches", () => {
+  it("moves 1 oz at 3 in to 2 in: 1.5 oz, 3 oz·in, answered in g and g·mm", async () => {
+    const res = await hole({
+      kind: "move",
+      massUnit: "oz",
+      lengthUnit: "in",
+      mass: "1",
+      fromRadius: "3",
+      toRadius: "2",
+    });
+    expect(res.status).toBe(200);
+    // By hand: 1 oz × 3 in / 2 in = 1.5 oz = 1.5 × 28.349523125 = 42.5242846875 g;
+    // 3 oz·in = 3 × 720.077887375 = 2160.233662125 g·mm (NIST SP 811 exact factors).
+    expect(res.body).toEqual({ mass: "42.5242846875", unbalance: "2160.233662125" });
+    expect(res.body.mass).toBe(math.evaluate("1.5 oz").toNumeric("g").toString());
+  });
+
+  it("splits 0.5 oz over two holes at ±30° as the same grams", async () => {
+    const oz = await hole({ kind: "split", massUnit: "oz", mass: "0.5", halfAngleDeg: "30" });
+    expect(oz.status).toBe(200);
+    // By hand: 0.5 oz = 14.1747615625 g (exact); in both holes 14.1747615625 / cos 30°
+    // = 16.36763 g, each 14.1747615625 / (2 cos 30°) = 14.1747615625 / 1.7320508 = 8.18381 g.
+    expect(Number(oz.body.massEach)).toBeCloseTo(8.18381, 4);
+    expect(Number(oz.body.totalMass)).toBeCloseTo(16.36763, 4);
+  });
+
+  it("takes the mass in ounces and the metal there is in inches for a drill depth", async () => {
+    const inches = await hole({
+      kind: "drill",
+      massUnit: "oz",
+      lengthUnit: "in",
+      mass: "0.25",
+      diameter: "3/8",
+      density: "7.85",
+      availableDepth: "0.5",
+    });
+    expect(inches.status).toBe(200);
+    // By hand: 0.25 oz = 7.08738078125 g; 7.08738 g / 7.85 g/cm³ = 902.85 mm³; / (π × 4.7625²) = 12.6706 mm + 2/3 × 2.8616
+    // = 14.578 mm at the tip: deeper than 0.5 in = 12.7 mm of metal.
+    expect(Number(inches.body.tipDepth)).toBeCloseTo(14.578, 2);
+    expect(inches.body).toMatchObject({ availableDepth: "12.7", fits: false });
+  });
+
+  it("takes a plug length in inches", async () => {
+    const base = { kind: "plug", diameter: '1/2"', plugDensity: "18.0", hostDensity: "7.85" };
+    const inches = await hole({ ...base, lengthUnit: "in", length: "1" });
+    const mm = await hole({ ...base, length: "25.4" });
+    expect(inches.body).toEqual(mm.body);
+  });
+
+  it("refuses a unit it does not know with 422 naming the field", async () => {
+    const res = await hole({
+      kind: "move",
+      massUnit: "lb",
+      mass: "1",
+      fromRadius: "3",
+      toRadius: "2",
+    });
+    expect(res.status).toBe(422);
+    expect(res.body.error.fields).toEqual({ massUnit: "Weights in: grams or ounces." });
+  });
+});
