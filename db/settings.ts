@@ -23,6 +23,11 @@ export interface ShopSettings {
    * Jobs already booked keep their own figure.
    */
   oilAllowancePerRodG: string;
+  /**
+   * Percent of the median of its kind a weight may sit from before the weigh-in holds it as a
+   * likely slip (lib/balance/plausibility.ts); "5" unless the owner changes it.
+   */
+  outlierPercent: string;
   version: number;
   updatedAt: string | null;
 }
@@ -40,6 +45,8 @@ export const DEFAULT_SETTINGS: ShopSettings = {
   // 2 g per rod: the low end of the 2–5 g per rod of common practice (DOMAIN §3), and the same as
   // the 4 g per two-rod crankpin some shops use. The owner changes it on the settings screen.
   oilAllowancePerRodG: "2",
+  // 5 %: a matched set sits within a percent or two, a slipped decimal point is 10× (common practice).
+  outlierPercent: "5",
   version: 0,
   updatedAt: null,
 };
@@ -55,6 +62,7 @@ function toSettings(row: ShopSettingsRow): ShopSettings {
     invoiceFooter: row.invoice_footer,
     maxUploadMb: row.max_upload_mb,
     oilAllowancePerRodG: row.oil_allowance_per_rod_g,
+    outlierPercent: row.outlier_percent,
     version: row.version,
     updatedAt: row.updated_at,
   };
@@ -73,9 +81,9 @@ export async function findShopSettings(db: Kysely<Database>): Promise<ShopSettin
 /** The settings to save; a field left out keeps its saved value (for callers that predate it). */
 export type ShopSettingsInput = Omit<
   ShopSettings,
-  "version" | "updatedAt" | "oilAllowancePerRodG"
+  "version" | "updatedAt" | "oilAllowancePerRodG" | "outlierPercent"
 > &
-  Partial<Pick<ShopSettings, "oilAllowancePerRodG">>;
+  Partial<Pick<ShopSettings, "oilAllowancePerRodG" | "outlierPercent">>;
 
 /**
  * Replaces the settings if the stored version is the one the caller read (0 before the first
@@ -101,6 +109,7 @@ export async function updateShopSettings(
       invoice_footer: input.invoiceFooter,
       max_upload_mb: input.maxUploadMb,
       oil_allowance_per_rod_g: input.oilAllowancePerRodG ?? before.oilAllowancePerRodG,
+      outlier_percent: input.outlierPercent ?? before.outlierPercent,
       version: before.version + 1,
       updated_at: now.toISOString(),
     };

@@ -114,6 +114,20 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
           fresh shop starts at 2 g. Jobs already booked keep their own figure.
         </p>
       </div>
+      <div>
+        <Field
+          label="Hold a weight this far from the median of its kind (%)"
+          name="outlierPercent"
+          inputMode="decimal"
+          required
+          defaultValue={current.outlierPercent}
+          error={fields?.outlierPercent}
+        />
+        <p className="mt-1 text-xs text-graphite-600">
+          The weigh-in asks to confirm or retype a weight further than this from the other parts of
+          its kind (a missed decimal point is 10×). 5 % is common practice for a matched set.
+        </p>
+      </div>
       <TextArea
         label="Invoice footer: payment terms, bank details"
         name="invoiceFooter"

@@ -77,6 +77,12 @@ export const settingsSchema = z
     oilAllowancePerRodG: decimalText(2, 2, "2 or 2.5")
       .refine((v) => Number(v) <= 20, { message: "Oil allowance per rod: at most 20 g." })
       .optional(),
+    /** How far from its kind a weight may sit before the weigh-in holds it; left out: unchanged. */
+    outlierPercent: decimalText(2, 1, "5")
+      .refine((v) => Number(v) >= 1 && Number(v) <= 50, {
+        message: "Weight check: from 1 to 50 % of the median.",
+      })
+      .optional(),
   })
   .strict();
 export type SettingsInput = z.infer<typeof settingsSchema>;

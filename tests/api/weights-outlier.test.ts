@@ -1,5 +1,6 @@
 import { beforeEach, describe, expect, it } from "vitest";
 import { PUT as putWeight } from "@/app/api/jobs/[id]/weights/route";
+import { PUT as putSettings } from "@/app/api/settings/route";
 import { GET as getWorkshop } from "@/app/api/jobs/[id]/workshop/route";
 import type { DB } from "@/db/client";
 import { createJob, type Job } from "@/db/jobs";
@@ -8,7 +9,7 @@ import type { User } from "@/db/users";
 import { listPartWeights, savePartWeight } from "@/db/weights";
 import type { Workshop } from "@/lib/workshop/load";
 import { addOneOfEachRole, freshDb } from "../helpers/db";
-import { jsonRequest, params } from "../helpers/http";
+import { jsonRequest, noParams, params } from "../helpers/http";
 import { signInAs } from "../helpers/session";
 
 let db: DB;
@@ -203,5 +204,40 @@ describe("the plan waits for a held weight", () => {
       (p: { cylinder: number; kind: string }) => p.cylinder === 2 && p.kind === "piston",
     );
     expect(part).toMatchObject({ remove: "1.2" });
+  });
+});
+
+describe("the shop's own percentage", () => {
+  const settingsBody = (outlierPercent: string) => ({
+    version: 0,
+    shopName: "Test shop",
+    taxRate: "0",
+    currency: "USD",
+    maxUploadMb: "10",
+    outlierPercent,
+  });
+
+  it("is what the weigh-in holds against", async () => {
+    await weighSet(FOUR, (c, k) => k === "piston" && c === 4);
+    signInAs(users.owner);
+    const saved = await putSettings(jsonRequest("PUT", "/x", settingsBody("10")), noParams);
+    expect(saved.status).toBe(200);
+    expect((await saved.json()).settings.outlierPercent).toBe("10");
+    signInAs(users.machinist);
+    // 430.0 is 7.3 % above the median 400.75 (hand-worked above): held at 5 %, not at 10 %.
+    const res = await put({ cylinder: 4, kind: "piston", readings: ["430.0"] });
+    expect(res.status).toBe(200);
+    // 441.0: (441 − 400.75) / 400.75 = 10.04 % > 10 %: held.
+    const far = await put({ cylinder: 4, kind: "piston", readings: ["441.0"], version: 1 });
+    expect((await far.json()).error.code).toBe("outlier");
+  });
+
+  it("is refused outside 1 to 50 %, naming the field", async () => {
+    signInAs(users.owner);
+    for (const bad of ["0", "60", "five"]) {
+      const res = await putSettings(jsonRequest("PUT", "/x", settingsBody(bad)), noParams);
+      expect(res.status).toBe(422);
+      expect((await res.json()).error.fields).toHaveProperty("outlierPercent");
+    }
   });
 });
