@@ -36,13 +36,16 @@ const emptyPlan = {
   error: null,
 } as unknown as Workshop["plan"];
 
-function workshopWith(records: { part: "flywheel" | "crankshaft"; data: RotatingRecordInput }[]) {
+function workshopWith(
+  records: { part: "flywheel" | "crankshaft"; data: RotatingRecordInput }[],
+  forJob: Job = job,
+) {
   const rotating = records.map((r) => {
     const record = { ...r, version: 1, updatedAt: "2026-12-02T00:00:00Z" };
     return { ...record, check: checkRotatingRecord(record) };
   });
   return {
-    job,
+    job: forJob,
     weights: [],
     targets: [],
     rotating,
@@ -228,5 +231,112 @@ describe("the correction helpers", () => {
     expect(screen.getByTestId("helper-plug").textContent).toContain(
       "of which 1.26 g is the 118° point's cone",
     );
+  });
+});
+
+describe("a job weighed in ounces with lengths in inches", () => {
+  const ozJob = {
+    ...job,
+    spec: { ...job.spec, massUnit: "oz", scaleResolution: "0.01", lengthUnit: "in" },
+  } as Job;
+  // An invented crank: 50 lb, 6000 rpm, G 6.3, read at 3 in, two planes half each. By hand
+  // (ISO 21940-11, NIST SP 811 factors): 50 lb = 22.6796185 kg, e_per = 6.3 / 628.3185 × 1000
+  // = 10.0268 g·mm/kg, U_per = 227.40 g·mm = 227.40 / 720.0779 = 0.3158 oz·in; each plane
+  // 0.1579 oz·in, at 3 in 0.05263 oz. A reading of 0.05 oz at 3 in is 0.15 oz·in: within.
+  const crank: RotatingRecordInput = {
+    massUnit: "oz",
+    lengthUnit: "in",
+    rotorMass: "50",
+    rpm: 6000,
+    grade: "6.3",
+    radius: "3",
+    planes: "two",
+    after: { A: { mass: "0.05" }, B: { mass: "0.02" } },
+    corrections: [{ plane: "A", method: "drilled", where: "front", mass: "0.45", angle: "90" }],
+  };
+
+  it("asks for ounces, pounds and inches and sends the figures as typed with their units", async () => {
+    const user = renderScreen(workshopWith([], ozJob));
+    expect(screen.getByTestId("rotating-units").textContent).toContain(
+      "Balancer readings and corrections in ounces, the rotor in lb, radii in inches.",
+    );
+    await user.type(screen.getByLabelText("Mass (lb)"), "50");
+    await user.type(screen.getByLabelText("Balancer reading radius (in)"), "3.000");
+    await user.type(screen.getByLabelText("after plane A ounces"), "0.05");
+    await user.type(screen.getByLabelText("after plane B ounces"), "0.015");
+    await user.click(screen.getByRole("button", { name: "Save record" }));
+    await waitFor(() => expect(puts()).toHaveLength(1));
+    expect(puts()[0]!.body).toMatchObject({
+      data: {
+        massUnit: "oz",
+        lengthUnit: "in",
+        rotorMass: "50",
+        radius: "3.000",
+        after: { A: { mass: "0.05" }, B: { mass: "0.015" } },
+      },
+    });
+  });
+
+  it("names ounces when a correction has none", async () => {
+    const user = renderScreen(workshopWith([], ozJob));
+    await user.click(screen.getByRole("button", { name: "Add a correction" }));
+    await user.click(screen.getByRole("button", { name: "Save record" }));
+    expect((await screen.findByTestId("correction-0-error")).textContent).toContain(
+      "Correction 1: Enter the ounces of this correction",
+    );
+  });
+
+  it("shows the verdict in ounces at the radius and oz·in, the figures as typed", async () => {
+    renderScreen(workshopWith([{ part: "crankshaft", data: crank }], ozJob));
+    const verdict = screen.getByTestId("rotating-verdict");
+    expect(verdict.textContent).toContain(
+      "Plane A: Residual 0.05 oz at 3 in — allowed 0.053 oz: pass",
+    );
+    expect(verdict.textContent).toContain("0.15 of 0.16 oz·in");
+    expect(verdict.textContent).toContain("U_per 0.32 oz·in for the whole part");
+    expect(verdict.textContent).not.toMatch(/g·mm| g /);
+    expect((screen.getByLabelText("Mass (lb)") as HTMLInputElement).value).toBe("50");
+    expect((screen.getByLabelText("Correction 1 ounces") as HTMLInputElement).value).toBe("0.45");
+  });
+
+  it("keeps a record typed in grams and mm as typed, and says so", async () => {
+    const legacy: RotatingRecordInput = {
+      massKg: "10",
+      rpm: 3000,
+      grade: "6.3",
+      radiusMm: "100",
+      after: { A: { mass: "1.9" } },
+    };
+    const user = renderScreen(workshopWith([{ part: "flywheel", data: legacy }], ozJob));
+    await user.click(screen.getByRole("tab", { name: /Flywheel/ }));
+    expect(screen.getByTestId("rotating-units").textContent).toContain(
+      "stays as typed (the job is now in ounces and inches)",
+    );
+    expect((screen.getByLabelText("Mass (kg)") as HTMLInputElement).value).toBe("10");
+    expect(screen.getByTestId("rotating-verdict").textContent).toContain(
+      "Residual 1.9 g at 100 mm — allowed 2.0 g: pass",
+    );
+  });
+
+  it("moves 1 oz at 3 in to 2 in: 1.500 oz, in the job's units", async () => {
+    const user = renderScreen(workshopWith([], ozJob));
+    const move = within(screen.getByTestId("helper-move"));
+    await user.type(move.getByLabelText("Mass (oz)"), "1");
+    await user.type(move.getByLabelText("At radius (in)"), "3");
+    await user.type(move.getByLabelText("Wanted radius (in)"), "2");
+    await user.click(move.getByRole("button", { name: "Work it out" }));
+    // By hand: 1 oz × 3 in / 2 in = 1.5 oz (a computed mass: one decimal finer than 0.01 oz);
+    // 1 oz × 3 in = 3 oz·in.
+    await waitFor(() =>
+      expect(screen.getByTestId("helper-move").textContent).toContain(
+        "1.500 oz at 2 in does the same as 1 oz at 3 in (3.0 oz·in).",
+      ),
+    );
+    expect(calls.find((c) => c.url === "/api/balance/hole")!.body).toMatchObject({
+      kind: "move",
+      massUnit: "oz",
+      lengthUnit: "in",
+      mass: "1",
+    });
   });
 });
