@@ -82,6 +82,35 @@ function secretProblem(secret: string | undefined): string {
   return `NEXTAUTH_SECRET ${said}: production needs at least ${MIN_SECRET_LENGTH} random characters (for example \`openssl rand -hex 32\`).`;
 }
 
+/** The demo's address, used only when neither APP_URL nor NEXTAUTH_URL is set. */
+const LOCAL_DEMO_URL = "http://localhost:3000";
+
+/**
+ * The app's public address, without a trailing slash: APP_URL, else NEXTAUTH_URL, else the
+ * address the current request came to (when there is one), else the local demo. The one source of
+ * every link people follow from outside a page: card QR codes and printed addresses, e-mail
+ * links, the payment page's way back.
+ */
+export function appBaseUrl(requestUrl?: string): string {
+  const { APP_URL, NEXTAUTH_URL } = env();
+  const fromRequest = requestUrl ? new URL(requestUrl).origin : undefined;
+  return (APP_URL ?? NEXTAUTH_URL ?? fromRequest ?? LOCAL_DEMO_URL).replace(/\/+$/, "");
+}
+
+/**
+ * A warning when links would point at this machine only (localhost, 127.x, ::1) in production: a
+ * customer's phone scanning a card cannot open them. Null when the address is public.
+ */
+export function appBaseUrlWarning(source: NodeJS.ProcessEnv = process.env): string | null {
+  const parsed = schema.safeParse(source);
+  if (!parsed.success || parsed.data.NODE_ENV !== "production") return null;
+  const { APP_URL, NEXTAUTH_URL } = parsed.data;
+  const base = (APP_URL ?? NEXTAUTH_URL ?? LOCAL_DEMO_URL).replace(/\/+$/, "");
+  const host = new URL(base).hostname;
+  if (!/^(localhost|127\.\d+\.\d+\.\d+|\[::1\])$/i.test(host)) return null;
+  return `APP_URL is not set to a public address: card QR codes, e-mail links and the payment page's way back point at ${base}, which customers cannot open. Set APP_URL to the address customers reach the app at.`;
+}
+
 /**
  * The origins the app is reached at (APP_URL and NEXTAUTH_URL), e.g. "https://shop.example.test".
  * Requests that change something must come from a page of one of these (lib/http/origin.ts).
@@ -112,6 +141,8 @@ export function startupProblems(source: NodeJS.ProcessEnv = process.env): string
 
 /** Stops the process with the problems listed, if there are any (called at server start). */
 export function exitOnStartupProblems(): void {
+  const warning = appBaseUrlWarning();
+  if (warning) console.warn(`Counterpoise: ${warning}`);
   const problems = startupProblems();
   if (problems.length === 0) return;
   console.error(

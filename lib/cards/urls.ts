@@ -1,10 +1,7 @@
-import { env } from "@/lib/env";
+import { appBaseUrl } from "@/lib/env";
 
-/** Where links on cards and in e-mails point: APP_URL, else NEXTAUTH_URL, else the local demo. */
-export function appBaseUrl(): string {
-  const { APP_URL, NEXTAUTH_URL } = env();
-  return (APP_URL ?? NEXTAUTH_URL ?? "http://localhost:3000").replace(/\/+$/, "");
-}
+/** Where links on cards and in e-mails point (one rule for the whole app: lib/env.ts). */
+export { appBaseUrl };
 
 /** The public page a card's QR code and printed address lead to. */
 export function cardVerifyUrl(code: string): string {

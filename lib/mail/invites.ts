@@ -12,7 +12,7 @@ import {
 import type { MailLogEntry } from "@/db/mail";
 import { createUser, findUserByEmail, type User } from "@/db/users";
 import { hashPassword } from "@/lib/auth/password";
-import { env } from "@/lib/env";
+import { appBaseUrl, env } from "@/lib/env";
 import { HttpError } from "@/lib/http/errors";
 import type { AcceptInviteInput, NewInviteInput } from "@/lib/validation/invites";
 import { type SendOptions, sendMail } from "./send";
@@ -21,11 +21,8 @@ export function hashInviteToken(token: string): string {
   return createHash("sha256").update(token, "utf8").digest("hex");
 }
 
-/** Where links in e-mails point: APP_URL, else NEXTAUTH_URL, else the local demo address. */
-export function appBaseUrl(): string {
-  const { APP_URL, NEXTAUTH_URL } = env();
-  return (APP_URL ?? NEXTAUTH_URL ?? "http://localhost:3000").replace(/\/+$/, "");
-}
+/** Where links in e-mails point (one rule for the whole app: lib/env.ts). */
+export { appBaseUrl };
 
 function readableUtc(iso: string): string {
   return `${iso.slice(0, 16).replace("T", " ")} UTC`;

@@ -4,7 +4,7 @@ import type { User } from "@/db/users";
 import { findInvoiceForUser } from "@/lib/billing/access";
 import { BillingInputError } from "@/lib/billing/errors";
 import { compareMoney, subtractMoney, toMinorUnits } from "@/lib/billing/money";
-import { env } from "@/lib/env";
+import { appBaseUrl } from "@/lib/env";
 import { HttpError } from "@/lib/http/errors";
 import { stripeClient } from "./stripe";
 
@@ -18,11 +18,6 @@ export interface CheckoutStart {
   currency: string;
 }
 
-/** Where the payment page sends people back to: the app's public address. */
-function appBaseUrl(requestUrl: string): string {
-  const { APP_URL, NEXTAUTH_URL } = env();
-  return (APP_URL ?? NEXTAUTH_URL ?? new URL(requestUrl).origin).replace(/\/$/, "");
-}
 
 /**
  * Opens a hosted payment page for what is still owed on an issued invoice. A customer may do it
@@ -54,6 +49,7 @@ export async function startCheckout(
       "Too large to pay online: record the payment at the counter.",
     );
   }
+  // The payment page sends people back to the app's public address, where their session cookie is.
   const base = appBaseUrl(requestUrl);
   const back = `${base}/pay/return?invoice=${invoice.id}`;
   let session;

@@ -21,7 +21,10 @@ export default async function PayReturnPage({
   searchParams: Promise<Record<string, string | undefined>>;
 }) {
   const { invoice: raw, result } = await searchParams;
-  const returnTo = `/pay/return?invoice=${encodeURIComponent(raw ?? "")}`;
+  // Signed out on the way back (another browser, an expired session): sign-in returns here.
+  const returnTo = `/pay/return?invoice=${encodeURIComponent(raw ?? "")}${
+    result === "success" || result === "cancelled" ? `&result=${result}` : ""
+  }`;
   const user = await requirePageUser(["owner", "counter", "customer"], returnTo);
   const id = Number(raw);
   if (!raw || !/^\d{1,12}$/.test(raw) || !Number.isSafeInteger(id) || id < 1) notFound();
