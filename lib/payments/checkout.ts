@@ -18,7 +18,6 @@ export interface CheckoutStart {
   currency: string;
 }
 
-
 /**
  * Opens a hosted payment page for what is still owed on an issued invoice. A customer may do it
  * for their own invoices only (anyone else's is a 404); the invoice is marked paid later, by the
