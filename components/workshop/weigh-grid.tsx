@@ -10,7 +10,7 @@ import type { PartKind, WeighPhase } from "@/db/schema";
 import type { PartWeight } from "@/db/weights";
 import { ApiError, apiFetch } from "@/lib/api-client";
 import { formatDerivedMass } from "@/lib/balance";
-import { readingsTextSchema } from "@/lib/validation/readings";
+import { readingsTextSchema, readingsTextSchemaFor } from "@/lib/validation/readings";
 import { checkPartWeight } from "@/lib/workshop/outliers";
 import type { WorkshopPlan } from "@/lib/workshop/plan";
 import type { Workshop } from "@/lib/workshop/load";
@@ -44,8 +44,8 @@ function cellText(weights: PartWeight[], phase: WeighPhase, cylinder: number, ki
   );
 }
 
-function spreadOf(text: string): string | null {
-  const parsed = readingsTextSchema.safeParse(text);
+function spreadOf(text: string, rule = readingsTextSchema): string | null {
+  const parsed = rule.safeParse(text);
   if (!parsed.success || parsed.data.length < 2) return null;
   const values = parsed.data.map((v) => new Decimal(v));
   return Decimal.max(...values)
@@ -90,13 +90,15 @@ export function WeighGrid({
   const held = useRef<Record<string, string>>({});
   const keepButtons = useRef<Record<string, HTMLButtonElement | null>>({});
   const unit = workshop.job.spec.massUnit;
+  // What a keyboard-wedge scale types ("+ 498.6 g") is read too, in the job's unit.
+  const readingRule = useMemo(() => readingsTextSchemaFor(unit), [unit]);
 
   const schema = useMemo(
     () =>
       z.object(
         Object.fromEntries(
           cylinders.flatMap((c) =>
-            WEIGH_COLUMNS.map((col) => [fieldName(c, col.kind), readingsTextSchema]),
+            WEIGH_COLUMNS.map((col) => [fieldName(c, col.kind), readingRule]),
           ),
         ),
       ),
@@ -149,7 +151,7 @@ export function WeighGrid({
   async function commit(cylinder: number, kind: PartKind, options: CommitOptions = {}) {
     const name = fieldName(cylinder, kind);
     const text = form.getValues(name) ?? "";
-    const parsed = readingsTextSchema.safeParse(text);
+    const parsed = readingRule.safeParse(text);
     if (!parsed.success) {
       await form.trigger(name);
       return false;
@@ -252,7 +254,7 @@ export function WeighGrid({
     if (event.key !== "Enter") return;
     event.preventDefault();
     const name = fieldName(cylinder, kind);
-    const parsed = readingsTextSchema.safeParse(form.getValues(name) ?? "");
+    const parsed = readingRule.safeParse(form.getValues(name) ?? "");
     if (!parsed.success) {
       void form.trigger(name);
       return;
@@ -427,7 +429,7 @@ export function WeighGrid({
                   const cell = cells[name];
                   const error = form.formState.errors[name]?.message;
                   const value = form.watch(name) ?? "";
-                  const spread = spreadOf(value);
+                  const spread = spreadOf(value, readingRule);
                   const reg = form.register(name);
                   return (
                     <td key={col.kind} className="px-1 py-1 align-top">
