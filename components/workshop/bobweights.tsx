@@ -97,6 +97,7 @@ export function Bobweights({ jobId, initial }: { jobId: number; initial: Worksho
     return (
       <p className="panel p-4 text-graphite-700">
         The bobweights are worked out once every part is weighed.
+        {plan.error ? <span className="mt-2 block text-replace">{plan.error.message}</span> : null}
       </p>
     );
   }

@@ -70,8 +70,19 @@ export function RemovalPlan({
   if (!plan.complete || !plan.removal) {
     return (
       <div className="panel p-4 text-graphite-700">
-        <p>The plan appears once every part is weighed.</p>
+        <p>
+          {plan.held.length > 0 && plan.missing.length === 0
+            ? "The plan waits for a weight held on the weigh-in: nothing is worked out from it until it is confirmed as read or retyped."
+            : "The plan appears once every part is weighed."}
+        </p>
         {plan.error ? <p className="mt-2 text-replace">{plan.error.message}</p> : null}
+        {plan.held.length > 0 ? (
+          <p className="mt-2 text-sm">
+            <a className="underline" href={`/jobs/${jobId}/weigh`}>
+              Go to the weigh-in to confirm or retype it
+            </a>
+          </p>
+        ) : null}
         {plan.missing.length > 0 ? (
           <p className="mt-2 text-sm">
             Missing:{" "}
