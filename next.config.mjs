@@ -31,9 +31,6 @@ export const securityHeaders = [
 /** Paths (without the leading slash) whose answers carry their own Content-Security-Policy. */
 export const OWN_POLICY_PATHS = ["api/uploads/", "api/settings/logo$"];
 
-/** next-auth's session cookie, over http and (with the __Secure- prefix) over https. */
-const SESSION_COOKIES = ["next-auth.session-token", "__Secure-next-auth.session-token"];
-
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   serverExternalPackages: ["better-sqlite3", "sharp"],
@@ -48,12 +45,6 @@ const nextConfig = {
         source: `/:path((?!${OWN_POLICY_PATHS.join("|")}).*)`,
         headers: [{ key: "Content-Security-Policy", value: contentSecurityPolicy }],
       },
-      // What a signed-in browser is sent depends on its session cookie: caches must key on it.
-      ...SESSION_COOKIES.map((key) => ({
-        source: "/:path*",
-        has: [{ type: "cookie", key }],
-        headers: [{ key: "Vary", value: "Cookie" }],
-      })),
     ];
   },
 };

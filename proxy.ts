@@ -50,7 +50,8 @@ function pass(signedIn: boolean): NextResponse {
   const res = NextResponse.next();
   const hsts = hstsHeader();
   if (hsts) res.headers.set("strict-transport-security", hsts);
-  // (`Vary: Cookie` comes from next.config.mjs: Next.js replaces a Vary set here.)
+  // Next.js sets a page's Vary itself, replacing any set here; `private, no-store` keeps every
+  // cache from storing the page at all. (API answers carry `Vary: Cookie` too: lib/http.)
   if (signedIn) res.headers.set("cache-control", "private, no-store");
   return res;
 }
