@@ -8,6 +8,7 @@ import {
   parseDrillSize,
 } from "@/lib/balance";
 import { PART_NAMES } from "@/lib/workshop/outliers";
+import { customerSchema } from "./customers";
 import { decimalString, positiveDecimal } from "./decimal";
 import { isZeroReading } from "./readings";
 
@@ -134,14 +135,24 @@ export const jobSpecSchema = z
     items: z
       .array(
         z.object({
-          item: z.enum(BROUGHT_ITEMS),
-          quantity: z.coerce.number().int().min(0).max(64),
-          condition: z.string().trim().max(200).nullable(),
+          item: z.enum(BROUGHT_ITEMS, { message: "What came in: choose from the list." }),
+          // A count of parts: "abc", 2.5 or nothing is refused, never booked as 0.
+          quantity: z.preprocess(textToNumber, wholeNumber("Quantity", 1, 64, "8")),
+          condition: z
+            .string()
+            .trim()
+            .max(200, "Condition of a part: at most 200 characters.")
+            .nullable(),
         }),
       )
       .max(BROUGHT_ITEMS.length)
       .optional(),
-    condition: z.string().trim().max(2000).nullable().optional(),
+    condition: z
+      .string()
+      .trim()
+      .max(2000, "Condition notes: at most 2000 characters.")
+      .nullable()
+      .optional(),
     /** Blank: no date promised. */
     promisedDate: z
       .preprocess(
@@ -164,14 +175,48 @@ export const jobSpecSchema = z
   .strict();
 export type JobSpecInput = z.infer<typeof jobSpecSchema>;
 
+/** Engine description and work asked for, refused in the booking form's own words. */
+export const bookingEngineField = z
+  .string({ message: "Engine: describe it, like cross-plane V8, 4.030 in bore." })
+  .trim()
+  .min(1, "Engine: describe it, like cross-plane V8, 4.030 in bore.")
+  .max(200, "Engine: at most 200 characters.");
+export const bookingNotesField = z
+  .string()
+  .trim()
+  .max(4000, "Work asked for: at most 4000 characters.");
+
+/**
+ * Booking a job in: an existing customer (`customerId`) or one met at the counter (`customer`,
+ * saved with the job in one transaction, so a refused booking leaves no customer behind).
+ */
 export const bookingSchema = z
   .object({
-    customerId: z.coerce.number().int().positive("Choose a customer."),
-    engine: z.string().trim().min(1, "Describe the engine.").max(200),
-    notes: z.string().trim().max(4000).nullable().optional(),
+    customerId: z.coerce
+      .number({ message: "Customer: choose one from the search, or add a new one." })
+      .int("Customer: choose one from the search, or add a new one.")
+      .positive("Customer: choose one from the search, or add a new one.")
+      .optional(),
+    customer: customerSchema.optional(),
+    engine: bookingEngineField,
+    notes: bookingNotesField.nullable().optional(),
     spec: jobSpecSchema,
   })
-  .strict();
+  .strict()
+  .superRefine((booking, ctx) => {
+    if (booking.customerId === undefined && booking.customer === undefined)
+      ctx.addIssue({
+        code: "custom",
+        path: ["customerId"],
+        message: "Customer: choose one from the search, or add a new one.",
+      });
+    if (booking.customerId !== undefined && booking.customer !== undefined)
+      ctx.addIssue({
+        code: "custom",
+        path: ["customerId"],
+        message: "Customer: choose an existing one or add a new one, not both.",
+      });
+  });
 export type BookingInput = z.infer<typeof bookingSchema>;
 
 export const specChangesSchema = z
@@ -355,17 +400,16 @@ const RECORD_SCHEMAS = { g: rotatingRecordSchemaIn("g"), oz: rotatingRecordSchem
  * The record of one rotating part, read in the unit it says it was typed in (`massUnit`,
  * grams when absent), so a refusal names grams or ounces as the machinist typed them.
  */
-export const rotatingRecordSchema = z.unknown().transform((value, ctx) => {
-  const unit: RotatingMassUnit =
-    value && typeof value === "object" && (value as { massUnit?: unknown }).massUnit === "oz"
-      ? "oz"
-      : "g";
-  const parsed = RECORD_SCHEMAS[unit].safeParse(value);
-  if (parsed.success) return parsed.data;
-  for (const issue of parsed.error.issues)
-    ctx.addIssue({ code: "custom", message: issue.message, path: issue.path });
-  return z.NEVER;
-});
+export const rotatingRecordSchema = z.preprocess((value, ctx) => {
+  // A record in ounces is read with the ounce messages; its shape is the same as in grams.
+  if (!value || typeof value !== "object" || (value as { massUnit?: unknown }).massUnit !== "oz")
+    return value;
+  const parsed = RECORD_SCHEMAS.oz.safeParse(value);
+  if (!parsed.success)
+    for (const issue of parsed.error.issues)
+      ctx.addIssue({ code: "custom", message: issue.message, path: issue.path });
+  return value;
+}, RECORD_SCHEMAS.g);
 export type RotatingRecordInput = z.output<ReturnType<typeof rotatingRecordSchemaIn>>;
 
 export const rotatingWriteSchema = z
