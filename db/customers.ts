@@ -53,22 +53,29 @@ export async function createCustomer(
   input: CustomerInput,
   actorId: number | null,
 ): Promise<Customer> {
-  return db.transaction().execute(async (trx) => {
-    const row = await trx
-      .insertInto("customers")
-      .values(columns(input))
-      .returningAll()
-      .executeTakeFirstOrThrow();
-    const customer = toCustomer(row);
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "create",
-      entity: "customer",
-      entityId: row.id,
-      after: customer,
-    });
-    return customer;
+  return db.transaction().execute((trx) => insertCustomer(trx, input, actorId));
+}
+
+/** Saves a customer and its history entry inside the caller's transaction (booking a job in). */
+export async function insertCustomer(
+  trx: Kysely<Database>,
+  input: CustomerInput,
+  actorId: number | null,
+): Promise<Customer> {
+  const row = await trx
+    .insertInto("customers")
+    .values(columns(input))
+    .returningAll()
+    .executeTakeFirstOrThrow();
+  const customer = toCustomer(row);
+  await createAuditEntry(trx, {
+    userId: actorId,
+    action: "create",
+    entity: "customer",
+    entityId: row.id,
+    after: customer,
   });
+  return customer;
 }
 
 export async function updateCustomer(

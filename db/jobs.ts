@@ -1,5 +1,6 @@
 import { type Kysely, sql, type Updateable } from "kysely";
 import { createAuditEntry } from "./audit";
+import { type CustomerInput, insertCustomer } from "./customers";
 import { forUpdate } from "./dialect";
 import { containsText } from "./search";
 import { NotFoundError, StaleWriteError } from "./errors";
@@ -231,6 +232,8 @@ function selectJobs(db: Kysely<Database>) {
 
 export interface NewJob {
   customerId: number;
+  /** A customer first met at this booking: saved with the job, in the same transaction. */
+  newCustomer?: CustomerInput;
   engine: string;
   notes?: string | null;
   status?: JobStatus;
@@ -244,18 +247,20 @@ export async function createJob(
   now = new Date(),
 ): Promise<Job> {
   return db.transaction().execute(async (trx) => {
-    const customer = await trx
-      .selectFrom("customers")
-      .select("id")
-      .where("id", "=", input.customerId)
-      .executeTakeFirst();
+    const customer = input.newCustomer
+      ? await insertCustomer(trx, input.newCustomer, actorId)
+      : await trx
+          .selectFrom("customers")
+          .select("id")
+          .where("id", "=", input.customerId)
+          .executeTakeFirst();
     if (!customer) throw new NotFoundError("customer");
     const number = await takeNextJobNumber(trx, now);
     const inserted = await trx
       .insertInto("jobs")
       .values({
         number,
-        customer_id: input.customerId,
+        customer_id: customer.id,
         engine: input.engine.trim(),
         notes: input.notes?.trim() || null,
         status: input.status ?? "booked",

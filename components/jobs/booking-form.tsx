@@ -3,52 +3,162 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useMutation, useQuery } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
-import { useState } from "react";
-import { type Resolver, useForm } from "react-hook-form";
+import { useId, useState } from "react";
+import { type FieldErrors, type Resolver, useForm } from "react-hook-form";
 import { z } from "zod";
 import type { Customer } from "@/db/customers";
-import { BROUGHT_ITEMS, type Job } from "@/db/jobs";
+import { type BroughtItem, BROUGHT_ITEMS, type Job } from "@/db/jobs";
 import { LAYOUT_PRESETS } from "@/lib/balance";
 import { ApiError, apiFetch } from "@/lib/api-client";
 import { customerSchema } from "@/lib/validation/customers";
-import { bookingSchema, jobSpecSchema } from "@/lib/validation/workshop";
+import {
+  bookingEngineField,
+  bookingNotesField,
+  bookingSchema,
+  jobSpecSchema,
+} from "@/lib/validation/workshop";
 import { BROUGHT_ITEM_LABEL } from "./brought-items";
 
+/** Parts counted one to an engine; the rest default to one per cylinder. */
+const ONE_PER_ENGINE: readonly BroughtItem[] = ["crankshaft", "flywheel", "clutch", "damper"];
+const WHOLE = /^\s*\d{1,2}\s*$/;
+const CUSTOMER_BOX = { name: "Name", company: "Company", email: "E-mail", phone: "Phone" } as const;
+
 // The booking form's own shape: the engine as typed (inches allowed), the items as a checklist.
-const formSchema = z.object({
-  engine: bookingSchema.shape.engine,
-  notes: z.string().max(4000).optional(),
-  layout: z.string().min(1, "Choose a layout."),
-  // The settings' own rules and messages, so the counter reads what the server would say.
-  cylinders: jobSpecSchema.shape.cylinders,
-  rodsPerPin: jobSpecSchema.shape.rodsPerPin,
-  bobweightNeeded: z.boolean().optional(),
-  lengthUnit: z.enum(["mm", "in"]),
-  bore: jobSpecSchema.shape.bore,
-  stroke: jobSpecSchema.shape.stroke,
-  rodLength: jobSpecSchema.shape.rodLength,
-  maxRpm: jobSpecSchema.shape.maxRpm,
-  condition: z.string().max(2000).optional(),
-  promisedDate: jobSpecSchema.shape.promisedDate,
-  items: z.record(
-    z.string(),
-    z.object({ brought: z.boolean(), quantity: z.string(), condition: z.string() }),
-  ),
-});
-type Values = z.input<typeof formSchema>;
-type Parsed = z.output<typeof formSchema>;
+// Every rule and message is the server's (lib/validation/workshop.ts, customers.ts), so a box is
+// refused here in the same words the server would use.
+export const bookingFormSchema = z
+  .object({
+    customerId: z.number().int().positive().optional(),
+    creating: z.boolean(),
+    newCustomer: z.object({
+      name: z.string(),
+      company: z.string(),
+      email: z.string(),
+      phone: z.string(),
+    }),
+    engine: bookingEngineField,
+    notes: bookingNotesField.optional(),
+    layout: z.string().min(1, "Layout: choose one from the list."),
+    cylinders: jobSpecSchema.shape.cylinders,
+    rodsPerPin: jobSpecSchema.shape.rodsPerPin,
+    bobweightNeeded: z.boolean().optional(),
+    lengthUnit: z.enum(["mm", "in"]),
+    bore: jobSpecSchema.shape.bore,
+    stroke: jobSpecSchema.shape.stroke,
+    rodLength: jobSpecSchema.shape.rodLength,
+    maxRpm: jobSpecSchema.shape.maxRpm,
+    condition: jobSpecSchema.shape.condition,
+    promisedDate: jobSpecSchema.shape.promisedDate,
+    items: z.record(
+      z.string(),
+      z.object({ brought: z.boolean(), quantity: z.string(), condition: z.string() }),
+    ),
+  })
+  .superRefine((v, ctx) => {
+    if (v.creating) {
+      const parsed = customerSchema
+        .pick({ name: true, company: true, email: true, phone: true })
+        .safeParse(v.newCustomer);
+      if (!parsed.success)
+        for (const issue of parsed.error.issues)
+          ctx.addIssue({
+            code: "custom",
+            path: ["newCustomer", ...issue.path.map(String)],
+            message: issue.message,
+          });
+    } else if (v.customerId === undefined) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["customerId"],
+        message: "Customer: choose one from the search, or add a new one.",
+      });
+    }
+    for (const item of BROUGHT_ITEMS) {
+      const row = v.items[item];
+      if (!row?.brought || row.quantity.trim() === "") continue;
+      const n = WHOLE.test(row.quantity) ? Number(row.quantity) : NaN;
+      if (!(n >= 1 && n <= 64))
+        ctx.addIssue({
+          code: "custom",
+          path: ["items", item, "quantity"],
+          message: `${BROUGHT_ITEM_LABEL[item]}: a whole number from 1 to 64, like 8.`,
+        });
+    }
+  });
+type Values = z.input<typeof bookingFormSchema>;
+type Parsed = z.output<typeof bookingFormSchema>;
+
+/** The request body the form sends for what was typed (one function, tested on its own). */
+export function bookingBody(v: Parsed): z.input<typeof bookingSchema> {
+  const items = BROUGHT_ITEMS.filter((i) => v.items[i]?.brought).map((i) => ({
+    item: i,
+    quantity: v.items[i]?.quantity.trim() || (ONE_PER_ENGINE.includes(i) ? 1 : v.cylinders),
+    condition: v.items[i]?.condition.trim() || null,
+  }));
+  return {
+    ...(v.creating ? { customer: v.newCustomer } : { customerId: v.customerId }),
+    engine: v.engine,
+    notes: v.notes?.trim() || null,
+    spec: {
+      layout: v.layout,
+      cylinders: v.cylinders,
+      ...(v.layout === "custom"
+        ? { rodsPerPin: v.rodsPerPin ?? 1, bobweightNeeded: v.bobweightNeeded ?? true }
+        : {}),
+      // Kept as typed in the unit chosen; the server works out the mm for the engine.
+      lengthUnit: v.lengthUnit,
+      bore: v.bore ?? null,
+      stroke: v.stroke ?? null,
+      rodLength: v.rodLength ?? null,
+      maxRpm: v.maxRpm ?? null,
+      condition: v.condition?.trim() || null,
+      promisedDate: v.promisedDate ?? null,
+      items,
+    },
+  };
+}
+
+/** Today on this computer's calendar, as YYYY-MM-DD. */
+function localToday(now = new Date()): string {
+  const pad = (n: number) => String(n).padStart(2, "0");
+  return `${now.getFullYear()}-${pad(now.getMonth() + 1)}-${pad(now.getDate())}`;
+}
+
+/** A server refusal's field ("spec.bore", "customer.name", "spec.items.0.quantity") as the box. */
+function boxOf(key: string, sentItems: BroughtItem[]): string {
+  const item = /^spec\.items\.(\d+)\.(\w+)$/.exec(key);
+  if (item) return `items.${sentItems[Number(item[1])] ?? "?"}.${item[2]}`;
+  if (key.startsWith("customer.")) return `newCustomer.${key.slice("customer.".length)}`;
+  return key.replace(/^spec\./, "");
+}
+
+/** The id of the refusal shown under a box, for the box's aria-describedby. */
+function errorId(key: string): string {
+  return `booking-error-${key.replace(/\./g, "-")}`;
+}
+
+function countErrors(errors: FieldErrors): number {
+  let n = 0;
+  for (const value of Object.values(errors)) {
+    if (!value) continue;
+    if (typeof (value as { message?: unknown }).message === "string") n += 1;
+    else n += countErrors(value as FieldErrors);
+  }
+  return n;
+}
 
 /** Booking a job in at the counter: who, what engine, what came in, what is asked, when promised. */
 export function BookingForm() {
   const router = useRouter();
+  const listId = useId();
   const [search, setSearch] = useState("");
   const [customer, setCustomer] = useState<Customer | null>(null);
-  const [creating, setCreating] = useState(false);
-  const [newCustomer, setNewCustomer] = useState({ name: "", company: "", email: "", phone: "" });
-  const [failure, setFailure] = useState<{
-    message: string;
-    fields: Record<string, string>;
-  } | null>(null);
+  const [active, setActive] = useState(-1);
+  const [pastConfirmed, setPastConfirmed] = useState<string | null>(null);
+  const [askPast, setAskPast] = useState<string | null>(null);
+  const [failure, setFailure] = useState<string | null>(null);
+  const [serverFields, setServerFields] = useState<Record<string, string>>({});
 
   const found = useQuery({
     queryKey: ["customers", search],
@@ -58,10 +168,13 @@ export function BookingForm() {
       ),
     enabled: search.trim().length > 0 && !customer,
   });
+  const options = customer || search.trim() === "" ? [] : (found.data?.customers ?? []);
 
   const form = useForm<Values, unknown, Parsed>({
-    resolver: zodResolver(formSchema) as unknown as Resolver<Values, unknown, Parsed>,
+    resolver: zodResolver(bookingFormSchema) as unknown as Resolver<Values, unknown, Parsed>,
     defaultValues: {
+      creating: false,
+      newCustomer: { name: "", company: "", email: "", phone: "" },
       engine: "",
       layout: "v8-cross-plane",
       cylinders: 8,
@@ -72,99 +185,132 @@ export function BookingForm() {
     },
   });
   const layout = form.watch("layout");
+  const [creating, setCreatingState] = useState(false);
+  const setCreating = (value: boolean) => {
+    setCreatingState(value);
+    form.setValue("creating", value);
+  };
   const preset = LAYOUT_PRESETS.find((p) => p.id === layout);
 
   const book = useMutation({
-    mutationFn: async (v: Parsed) => {
-      let customerId = customer?.id;
-      if (!customerId) {
-        const input = customerSchema.parse(newCustomer);
-        customerId = (
-          await apiFetch<{ customer: Customer }>("/api/customers", { method: "POST", body: input })
-        ).customer.id;
-      }
-      const items = BROUGHT_ITEMS.filter((i) => v.items[i]?.brought).map((i) => ({
-        item: i,
-        quantity: Number(
-          v.items[i]?.quantity ||
-            (i === "crankshaft" || i === "flywheel" || i === "clutch" || i === "damper"
-              ? 1
-              : v.cylinders),
-        ),
-        condition: v.items[i]?.condition.trim() || null,
-      }));
-      const body = {
-        customerId,
-        engine: v.engine,
-        notes: v.notes?.trim() || null,
-        spec: {
-          layout: v.layout,
-          cylinders: v.cylinders,
-          ...(v.layout === "custom"
-            ? { rodsPerPin: v.rodsPerPin ?? 1, bobweightNeeded: v.bobweightNeeded ?? true }
-            : {}),
-          // Kept as typed in the unit chosen; the server works out the mm for the engine.
-          lengthUnit: v.lengthUnit,
-          bore: v.bore ?? null,
-          stroke: v.stroke ?? null,
-          rodLength: v.rodLength ?? null,
-          maxRpm: v.maxRpm ?? null,
-          condition: v.condition?.trim() || null,
-          promisedDate: v.promisedDate ?? null,
-          items,
-        },
-      };
-      return apiFetch<{ job: Job }>("/api/jobs", { method: "POST", body });
-    },
+    mutationFn: async (body: ReturnType<typeof bookingBody>) =>
+      apiFetch<{ job: Job }>("/api/jobs", { method: "POST", body }),
     onSuccess: ({ job }) => router.push(`/jobs/${job.id}`),
-    onError: (e) => {
-      if (e instanceof ApiError) setFailure({ message: e.message, fields: e.fields });
-      else if (e instanceof z.ZodError)
-        setFailure({
-          message: "The new customer needs a name.",
-          fields: { name: e.issues[0]?.message ?? "" },
-        });
-      else setFailure({ message: "Not booked: the server could not be reached.", fields: {} });
+    onError: (e, body) => {
+      if (e instanceof ApiError) {
+        const sent = (body.spec.items ?? []).map((i) => i.item as BroughtItem);
+        const fields = Object.fromEntries(
+          Object.entries(e.fields).map(([k, m]) => [boxOf(k, sent), m]),
+        );
+        setServerFields(fields);
+        const count = Object.keys(fields).length;
+        setFailure(
+          count > 0
+            ? `Not booked: ${count === 1 ? "one box needs" : `${count} boxes need`} attention. ${e.message}`
+            : `Not booked: ${e.message}`,
+        );
+      } else {
+        setFailure(
+          "Not booked: the server could not be reached. Nothing was saved; try again when the connection is back.",
+        );
+      }
     },
   });
 
+  const submit = form.handleSubmit(
+    (v) => {
+      setServerFields({});
+      if (v.promisedDate && v.promisedDate < localToday() && pastConfirmed !== v.promisedDate) {
+        setAskPast(v.promisedDate);
+        setFailure(null);
+        return;
+      }
+      setAskPast(null);
+      setFailure(null);
+      book.mutate(bookingBody(v));
+    },
+    (errors) => {
+      const count = countErrors(errors);
+      setFailure(
+        `Not booked: ${count === 1 ? "one box needs" : `${count} boxes need`} attention (marked below).`,
+      );
+    },
+  );
+
   const errors = form.formState.errors;
   const fieldError = (key: string, local?: { message?: string }) => {
-    const message = local?.message ?? failure?.fields[key] ?? failure?.fields[`spec.${key}`];
-    return message ? <span className="mt-1 block text-xs text-replace">{message}</span> : null;
+    const message = local?.message ?? serverFields[key];
+    return message ? (
+      <span className="mt-1 block text-xs text-replace" role="alert" id={errorId(key)}>
+        {message}
+      </span>
+    ) : null;
+  };
+
+  const pick = (c: Customer) => {
+    setCustomer(c);
+    form.setValue("customerId", c.id, { shouldValidate: form.formState.isSubmitted });
+    setActive(-1);
+  };
+
+  const onSearchKey = (e: React.KeyboardEvent<HTMLInputElement>) => {
+    if (e.key === "ArrowDown" && options.length) {
+      e.preventDefault();
+      setActive((a) => (a + 1) % options.length);
+    } else if (e.key === "ArrowUp" && options.length) {
+      e.preventDefault();
+      setActive((a) => (a <= 0 ? options.length - 1 : a - 1));
+    } else if (e.key === "Enter") {
+      // Enter in the search picks the highlighted customer; it never books the job.
+      e.preventDefault();
+      const chosen = options[active] ?? (options.length === 1 ? options[0] : undefined);
+      if (chosen) pick(chosen);
+    } else if (e.key === "Escape") {
+      setActive(-1);
+    }
   };
 
   return (
-    <form onSubmit={form.handleSubmit((v) => book.mutate(v))} className="space-y-6" noValidate>
+    <form onSubmit={submit} className="space-y-6" noValidate>
       <section className="panel p-4" aria-labelledby="who">
         <h2 id="who" className="mb-3 font-semibold">
           Customer
         </h2>
         {customer ? (
-          <p className="flex items-center gap-3">
+          <p className="flex items-center gap-3" data-testid="chosen-customer">
             <span className="font-semibold">{customer.name}</span>
             {customer.company ? (
               <span className="text-graphite-500">{customer.company}</span>
             ) : null}
-            <button type="button" className="text-sm underline" onClick={() => setCustomer(null)}>
+            <button
+              type="button"
+              className="text-sm underline"
+              onClick={() => {
+                setCustomer(null);
+                form.setValue("customerId", undefined);
+              }}
+            >
               Change
             </button>
           </p>
         ) : creating ? (
           <div className="grid gap-3 sm:grid-cols-4">
             {(["name", "company", "email", "phone"] as const).map((k) => (
-              <label key={k} className="text-sm">
-                <span className="mb-1 block font-semibold capitalize">
-                  {k === "email" ? "E-mail" : k}
-                </span>
-                <input
-                  className="field-input"
-                  value={newCustomer[k]}
-                  onChange={(e) => setNewCustomer((c) => ({ ...c, [k]: e.target.value }))}
-                  type={k === "email" ? "email" : "text"}
-                />
-                {fieldError(k)}
-              </label>
+              <div key={k} className="text-sm">
+                <label className="block">
+                  <span className="mb-1 block font-semibold">{CUSTOMER_BOX[k]}</span>
+                  <input
+                    className="field-input"
+                    type={k === "email" ? "email" : k === "phone" ? "tel" : "text"}
+                    aria-describedby={errorId(`newCustomer.${k}`)}
+                    aria-invalid={Boolean(
+                      errors.newCustomer?.[k] ?? serverFields[`newCustomer.${k}`],
+                    )}
+                    {...form.register(`newCustomer.${k}`)}
+                  />
+                </label>
+                {fieldError(`newCustomer.${k}`, errors.newCustomer?.[k])}
+              </div>
             ))}
             <button
               type="button"
@@ -184,28 +330,49 @@ export function BookingForm() {
             <input
               id="customer-search"
               className="field-input max-w-md"
+              role="combobox"
+              aria-expanded={options.length > 0}
+              aria-controls={listId}
+              aria-autocomplete="list"
+              aria-activedescendant={active >= 0 ? `${listId}-${active}` : undefined}
+              aria-describedby={errorId("customerId")}
+              aria-invalid={Boolean(errors.customerId ?? serverFields.customerId)}
               value={search}
-              onChange={(e) => setSearch(e.target.value)}
+              onChange={(e) => {
+                setSearch(e.target.value);
+                setActive(-1);
+              }}
+              onKeyDown={onSearchKey}
               autoComplete="off"
             />
-            <ul className="mt-2 max-w-md divide-y divide-graphite-100 rounded border border-graphite-200 bg-white empty:hidden">
-              {found.data?.customers.map((c) => (
-                <li key={c.id}>
-                  <button
-                    type="button"
-                    className="w-full px-3 py-2 text-left hover:bg-brass-50"
-                    onClick={() => setCustomer(c)}
-                  >
-                    <span className="font-semibold">{c.name}</span>{" "}
-                    <span className="text-sm text-graphite-500">{c.company ?? c.email ?? ""}</span>
-                  </button>
+            <ul
+              id={listId}
+              role="listbox"
+              aria-label="Customers found"
+              className="mt-2 max-w-md divide-y divide-graphite-100 rounded border border-graphite-200 bg-white empty:hidden"
+            >
+              {options.map((c, index) => (
+                <li
+                  key={c.id}
+                  id={`${listId}-${index}`}
+                  role="option"
+                  aria-selected={index === active}
+                  className={`cursor-pointer px-3 py-2 ${index === active ? "bg-brass-100" : "hover:bg-brass-50"}`}
+                  onMouseDown={(e) => e.preventDefault()}
+                  onClick={() => pick(c)}
+                >
+                  <span className="font-semibold">{c.name}</span>{" "}
+                  <span className="text-sm text-graphite-500">{c.company ?? c.email ?? ""}</span>
                 </li>
               ))}
             </ul>
+            {search.trim() && found.isSuccess && options.length === 0 ? (
+              <p className="mt-2 text-sm text-graphite-600">No customer found.</p>
+            ) : null}
             <button type="button" className="btn-secondary mt-2" onClick={() => setCreating(true)}>
               New customer
             </button>
-            {fieldError("customerId")}
+            {fieldError("customerId", errors.customerId)}
           </div>
         )}
       </section>
@@ -217,50 +384,67 @@ export function BookingForm() {
         <h2 id="engine" className="font-semibold sm:col-span-2 lg:col-span-4">
           Engine
         </h2>
-        <label className="text-sm sm:col-span-2">
-          <span className="mb-1 block font-semibold">Description</span>
-          <input
-            className="field-input"
-            placeholder="e.g. cross-plane V8, 4.030 in bore"
-            {...form.register("engine")}
-          />
+        <div className="text-sm sm:col-span-2">
+          <label className="block">
+            <span className="mb-1 block font-semibold">Description</span>
+            <input
+              className="field-input"
+              placeholder="e.g. cross-plane V8, 4.030 in bore"
+              aria-describedby={errorId("engine")}
+              aria-invalid={Boolean(errors.engine ?? serverFields.engine)}
+              {...form.register("engine")}
+            />
+          </label>
           {fieldError("engine", errors.engine)}
-        </label>
-        <label className="text-sm">
-          <span className="mb-1 block font-semibold">Layout</span>
-          <select
-            className="field-input"
-            {...form.register("layout", {
-              onChange: (e) => {
-                const p = LAYOUT_PRESETS.find((x) => x.id === e.target.value);
-                if (p?.cylinders) form.setValue("cylinders", p.cylinders);
-              },
-            })}
-          >
-            {LAYOUT_PRESETS.filter((p) => !("replacedBy" in p && p.replacedBy)).map((p) => (
-              <option key={p.id} value={p.id}>
-                {p.label}
-              </option>
-            ))}
-          </select>
+        </div>
+        <div className="text-sm">
+          <label className="block">
+            <span className="mb-1 block font-semibold">Layout</span>
+            <select
+              className="field-input"
+              {...form.register("layout", {
+                onChange: (e) => {
+                  const p = LAYOUT_PRESETS.find((x) => x.id === e.target.value);
+                  if (p?.cylinders) form.setValue("cylinders", p.cylinders);
+                },
+              })}
+            >
+              {LAYOUT_PRESETS.filter((p) => !("replacedBy" in p && p.replacedBy)).map((p) => (
+                <option key={p.id} value={p.id}>
+                  {p.label}
+                </option>
+              ))}
+            </select>
+          </label>
           {fieldError("layout", errors.layout)}
-        </label>
-        <label className="text-sm">
-          <span className="mb-1 block font-semibold">Cylinders</span>
-          <input
-            className="field-input"
-            inputMode="numeric"
-            readOnly={Boolean(preset?.cylinders)}
-            {...form.register("cylinders")}
-          />
+        </div>
+        <div className="text-sm">
+          <label className="block">
+            <span className="mb-1 block font-semibold">Cylinders</span>
+            <input
+              className="field-input"
+              inputMode="numeric"
+              readOnly={Boolean(preset?.cylinders)}
+              aria-describedby={errorId("cylinders")}
+              aria-invalid={Boolean(errors.cylinders ?? serverFields.cylinders)}
+              {...form.register("cylinders")}
+            />
+          </label>
           {fieldError("cylinders", errors.cylinders)}
-        </label>
+        </div>
         {layout === "custom" ? (
           <>
-            <label className="text-sm">
-              <span className="mb-1 block font-semibold">Rods per crankpin</span>
-              <input className="field-input" inputMode="numeric" {...form.register("rodsPerPin")} />
-            </label>
+            <div className="text-sm">
+              <label className="block">
+                <span className="mb-1 block font-semibold">Rods per crankpin</span>
+                <input
+                  className="field-input"
+                  inputMode="numeric"
+                  {...form.register("rodsPerPin")}
+                />
+              </label>
+              {fieldError("rodsPerPin", errors.rodsPerPin)}
+            </div>
             <label className="flex items-center gap-2 text-sm">
               <input type="checkbox" {...form.register("bobweightNeeded")} defaultChecked />
               Balanced with bobweights
@@ -284,11 +468,19 @@ export function BookingForm() {
             ["maxRpm", "Max service rpm"],
           ] as const
         ).map(([k, label]) => (
-          <label key={k} className="text-sm">
-            <span className="mb-1 block font-semibold">{label}</span>
-            <input className="field-input" inputMode="decimal" {...form.register(k)} />
-            {fieldError(k)}
-          </label>
+          <div key={k} className="text-sm">
+            <label className="block">
+              <span className="mb-1 block font-semibold">{label}</span>
+              <input
+                className="field-input"
+                inputMode={k === "maxRpm" ? "numeric" : "decimal"}
+                aria-describedby={errorId(k)}
+                aria-invalid={Boolean(errors[k] ?? serverFields[k])}
+                {...form.register(k)}
+              />
+            </label>
+            {fieldError(k, errors[k])}
+          </div>
         ))}
       </section>
 
@@ -297,59 +489,126 @@ export function BookingForm() {
           What came in
         </h2>
         <div className="grid gap-2 sm:grid-cols-2 lg:grid-cols-3">
-          {BROUGHT_ITEMS.map((item) => (
-            <div key={item} className="flex items-center gap-2 text-sm">
-              <label className="flex w-40 items-center gap-2">
-                <input type="checkbox" {...form.register(`items.${item}.brought`)} />
-                {BROUGHT_ITEM_LABEL[item]}
-              </label>
-              <input
-                className="w-14 rounded border border-graphite-300 px-2 py-1"
-                aria-label={`${BROUGHT_ITEM_LABEL[item]} quantity`}
-                placeholder="qty"
-                inputMode="numeric"
-                {...form.register(`items.${item}.quantity`)}
-              />
-              <input
-                className="w-36 rounded border border-graphite-300 px-2 py-1"
-                aria-label={`${BROUGHT_ITEM_LABEL[item]} condition`}
-                placeholder="condition"
-                {...form.register(`items.${item}.condition`)}
-              />
-            </div>
-          ))}
+          {BROUGHT_ITEMS.map((item) => {
+            const qty = errors.items?.[item]?.quantity;
+            return (
+              <div key={item} className="text-sm">
+                <div className="flex items-center gap-2">
+                  <label className="flex w-40 items-center gap-2">
+                    <input type="checkbox" {...form.register(`items.${item}.brought`)} />
+                    {BROUGHT_ITEM_LABEL[item]}
+                  </label>
+                  <input
+                    className="w-14 rounded border border-graphite-300 px-2 py-1"
+                    aria-label={`${BROUGHT_ITEM_LABEL[item]} quantity`}
+                    aria-describedby={errorId(`items.${item}.quantity`)}
+                    aria-invalid={Boolean(qty ?? serverFields[`items.${item}.quantity`])}
+                    placeholder="qty"
+                    inputMode="numeric"
+                    {...form.register(`items.${item}.quantity`)}
+                  />
+                  <input
+                    className="w-36 rounded border border-graphite-300 px-2 py-1"
+                    aria-label={`${BROUGHT_ITEM_LABEL[item]} condition`}
+                    placeholder="condition"
+                    {...form.register(`items.${item}.condition`)}
+                  />
+                </div>
+                {fieldError(`items.${item}.quantity`, qty)}
+                {fieldError(`items.${item}.condition`, errors.items?.[item]?.condition)}
+              </div>
+            );
+          })}
         </div>
-        <label className="mt-3 block text-sm">
-          <span className="mb-1 block font-semibold">Condition notes</span>
-          <textarea className="field-input" rows={2} {...form.register("condition")} />
-        </label>
+        <div className="mt-3 block text-sm">
+          <label className="block">
+            <span className="mb-1 block font-semibold">Condition notes</span>
+            <textarea className="field-input" rows={2} {...form.register("condition")} />
+          </label>
+          {fieldError("condition", errors.condition)}
+        </div>
       </section>
 
       <section className="panel grid gap-3 p-4 sm:grid-cols-[1fr_14rem]" aria-labelledby="work">
         <h2 id="work" className="font-semibold sm:col-span-2">
           Work asked for
         </h2>
-        <textarea
-          className="field-input"
-          rows={3}
-          aria-label="Work asked for"
-          {...form.register("notes")}
-        />
-        <label className="text-sm">
-          <span className="mb-1 block font-semibold">Promised for</span>
-          <input type="date" className="field-input" {...form.register("promisedDate")} />
-          {fieldError("promisedDate")}
-        </label>
+        <div>
+          <textarea
+            className="field-input"
+            rows={3}
+            aria-label="Work asked for"
+            {...form.register("notes")}
+          />
+          {fieldError("notes", errors.notes)}
+        </div>
+        <div className="text-sm">
+          <label className="block">
+            <span className="mb-1 block font-semibold">Promised for</span>
+            <input
+              type="date"
+              className="field-input"
+              aria-describedby={errorId("promisedDate")}
+              aria-invalid={Boolean(errors.promisedDate ?? serverFields.promisedDate)}
+              {...form.register("promisedDate", { onChange: () => setAskPast(null) })}
+            />
+          </label>
+          {fieldError("promisedDate", errors.promisedDate)}
+        </div>
       </section>
+
+      {askPast ? (
+        <div
+          className="panel border-amber-400 bg-amber-50 p-4 text-sm"
+          role="alertdialog"
+          aria-labelledby="past-date"
+          data-testid="past-date"
+        >
+          <p id="past-date" className="font-semibold">
+            The promised date {askPast} is already past. Book the job with this date anyway?
+          </p>
+          <div className="mt-2 flex gap-3">
+            <button
+              type="button"
+              className="btn-primary"
+              onClick={() => {
+                setPastConfirmed(askPast);
+                setAskPast(null);
+                void submitAfterConfirm();
+              }}
+            >
+              Book with {askPast}
+            </button>
+            <button
+              type="button"
+              className="btn-secondary"
+              onClick={() => {
+                setAskPast(null);
+                form.setFocus("promisedDate");
+              }}
+            >
+              Change the date
+            </button>
+          </div>
+        </div>
+      ) : null}
 
       <div className="flex items-center gap-4">
         <button type="submit" className="btn-primary" disabled={book.isPending}>
           {book.isPending ? "Booking in…" : "Book the job in"}
         </button>
         <p aria-live="polite" className="text-sm text-replace" data-testid="booking-message">
-          {failure?.message}
+          {failure}
         </p>
       </div>
     </form>
   );
+
+  /** Books after the counter confirmed a past promised date (the state update is not yet read). */
+  async function submitAfterConfirm() {
+    await form.handleSubmit((v) => {
+      setFailure(null);
+      book.mutate(bookingBody(v));
+    })();
+  }
 }

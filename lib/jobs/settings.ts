@@ -1,4 +1,5 @@
 import type { Kysely } from "kysely";
+import type { CustomerInput } from "@/db/customers";
 import { createJob, DEFAULT_SPEC, type Job, type JobSpec, updateJob } from "@/db/jobs";
 import type { Database, JobStatus } from "@/db/schema";
 import { findShopSettings } from "@/db/settings";
@@ -206,12 +207,27 @@ export class CounterFieldsError extends HttpError {
   }
 }
 
-/** Books a job in with its settings resolved the same way as a later change. */
+/**
+ * Books a job in with its settings resolved the same way as a later change. A customer given as
+ * `customer` (met at the counter) is saved with the job in one transaction: a refused booking
+ * leaves no customer behind, and a retry cannot save them twice.
+ */
 export async function bookJob(
   db: Kysely<Database>,
-  input: { customerId: number; engine: string; notes?: string | null; spec: SpecInput },
+  input: {
+    customerId?: number;
+    customer?: CustomerInput;
+    engine: string;
+    notes?: string | null;
+    spec: SpecInput;
+  },
   actorId: number,
 ): Promise<{ job: Job; notices: string[] }> {
+  if (input.customerId === undefined && input.customer === undefined) {
+    throw new HttpError(422, "invalid_input", "Choose a customer, or add a new one.", {
+      customerId: "Customer: choose one from the search, or add a new one.",
+    });
+  }
   const mismatch = specMismatch(input.spec);
   if (mismatch) {
     const [field, message] = Object.entries(mismatch)[0]!;
@@ -224,6 +240,16 @@ export async function bookJob(
   const oilAllowancePerRod = byPin ? null : (await findShopSettings(db)).oilAllowancePerRodG;
   const base: JobSpec = { ...DEFAULT_SPEC, oilAllowancePerRod };
   const { spec, notices } = resolveSpecChanges(base, input.spec);
-  const job = await createJob(db, { ...input, spec: { oilAllowancePerRod, ...spec } }, actorId);
+  const { customer, customerId, ...rest } = input;
+  const job = await createJob(
+    db,
+    {
+      ...rest,
+      customerId: customerId ?? 0,
+      newCustomer: customer,
+      spec: { oilAllowancePerRod, ...spec },
+    },
+    actorId,
+  );
   return { job, notices };
 }
