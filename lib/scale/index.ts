@@ -14,3 +14,9 @@ export {
 } from "./to-job-unit";
 export { convertScaleMass, GRAMS_PER_UNIT, readScaleUnit, type ScaleMassUnit } from "./units";
 export { readWedgeReadings, type WedgeResult } from "./wedge";
+export {
+  createReadingGate,
+  EMPTY_PAN_DIVISIONS,
+  type GateDecision,
+  PRINT_PAUSE_MS,
+} from "./reading-gate";

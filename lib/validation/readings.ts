@@ -1,5 +1,6 @@
 import { z } from "zod";
-import { type JobMassUnit, readWedgeReadings } from "@/lib/scale/wedge";
+import type { JobMassUnit } from "@/lib/scale/to-job-unit";
+import { readWedgeReadings } from "@/lib/scale/wedge";
 import { decimalString } from "./decimal";
 
 // Its own small module: the weigh-in grid loads it in the browser, without the rest of the schemas.

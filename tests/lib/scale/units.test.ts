@@ -1,11 +1,12 @@
-import { all, create } from "mathjs";
+import { all, type BigNumber, create, type FactoryFunctionMap } from "mathjs";
 import { describe, expect, it } from "vitest";
 import { convertScaleMass, GRAMS_PER_UNIT, readingInJobUnit } from "@/lib/scale";
 
 // mathjs' own unit table, in exact decimal arithmetic, is the outside reference.
-const math = create(all, { number: "BigNumber", precision: 64 });
-const inGrams = (value: string, unit: string) =>
-  math.unit(math.bignumber(value), unit).toNumeric("g").toString();
+const math = create(all as FactoryFunctionMap, { number: "BigNumber", precision: 64 });
+const inUnit = (value: string | BigNumber, unit: string, to: string) =>
+  math.unit(math.bignumber(value), unit).toNumeric(to) as BigNumber;
+const inGrams = (value: string, unit: string) => inUnit(value, unit, "g").toString();
 
 describe("scale units to grams", () => {
   it("ounce, grain, pound, kilogram and milligram agree with mathjs (NIST Handbook 44 App. C)", () => {
@@ -28,7 +29,7 @@ describe("scale units to grams", () => {
 
   it("grams to ounces divides by the exact factor (mathjs to 30 significant figures)", () => {
     const ours = convertScaleMass("498.6", "g", "oz");
-    const theirs = math.unit(math.bignumber("498.6"), "g").toNumeric("oz");
+    const theirs = inUnit("498.6", "g", "oz");
     expect(math.bignumber(ours).minus(theirs).abs().lessThan(math.bignumber("1e-30"))).toBe(true);
   });
 });
@@ -61,16 +62,10 @@ describe("a reading in the job's unit", () => {
     ] as const) {
       const res = readingInJobUnit(value, unit, "oz");
       if (!res.ok) throw new Error(res.message);
-      const exact = math
-        .unit(math.bignumber(value), unit === "gn" ? "grain" : unit === "lb" ? "lbm" : unit)
-        .toNumeric("oz");
+      const mathUnit = unit === "gn" ? "grain" : unit === "lb" ? "lbm" : unit;
+      const exact = inUnit(value, mathUnit, "oz");
       const decimals = value.split(".")[1]!.length;
-      const step = math
-        .unit(
-          math.bignumber(10).pow(-decimals),
-          unit === "gn" ? "grain" : unit === "lb" ? "lbm" : unit,
-        )
-        .toNumeric("oz");
+      const step = inUnit(math.bignumber(10).pow(-decimals), mathUnit, "oz");
       expect(math.bignumber(res.value).minus(exact).abs().lessThanOrEqualTo(step.div(20))).toBe(
         true,
       );
