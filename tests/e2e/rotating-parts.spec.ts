@@ -58,3 +58,66 @@ test("a flexplate balanced in one plane, refusals beside their boxes, and the dr
   await expect(drill).toContainText('Drill 3/8" (9.53 mm) to 0.427 in (10.8 mm) at the tip');
   await expect(page.getByText("Wear eye protection when drilling")).toBeVisible();
 });
+
+test("a crank in a job weighed in ounces with inches: typed in oz, lb and in, kept as typed", async ({
+  page,
+  baseURL,
+}) => {
+  test.setTimeout(90_000);
+  const customerId = await createCustomerOverHttp(baseURL!, {
+    name: `Invented customer ${Date.now().toString(36)}`,
+  });
+  const job = await bookJobOverHttp(baseURL!, {
+    customerId,
+    engine: "Invented V8, crank in ounces",
+    spec: {
+      layout: "v8-cross-plane",
+      cylinders: 8,
+      maxRpm: 6000,
+      massUnit: "oz",
+      scaleResolution: "0.01",
+      lengthUnit: "in",
+    },
+  });
+
+  await signInAs(page, "machinist");
+  await page.goto(`${job.path}/rotating`);
+  await expect(page.getByTestId("rotating-units")).toContainText(
+    "Balancer readings and corrections in ounces, the rotor in lb, radii in inches.",
+  );
+  // Invented crank: 50 lb, 6000 rpm, G 6.3, read at 3 in, two planes half each. By hand
+  // (ISO 21940-11, NIST SP 811 factors): U_per = 10.0268 g·mm/kg × 22.6796185 kg = 227.40 g·mm
+  // = 0.3158 oz·in; each plane 0.1579 oz·in, at 3 in 0.053 oz.
+  await page.getByLabel("Mass (lb)").fill("50");
+  await page.getByLabel("Balancer reading radius (in)").fill("3.00");
+  await page.getByLabel("after plane A ounces").fill("0.05");
+  await page.getByLabel("after plane B ounces").fill("0.02");
+  await page.getByRole("button", { name: "Add a correction" }).click();
+  await page.getByRole("button", { name: "Save record" }).click();
+  await expect(page.getByTestId("correction-0-error")).toContainText(
+    "Enter the ounces of this correction",
+  );
+  await page.getByLabel("Correction 1 ounces").fill("0.55");
+  await page.getByLabel("Correction 1 angle").fill("95");
+  await page.getByRole("button", { name: "Save record" }).click();
+  await expect(page.getByTestId("rotating-save-status")).toContainText("Saved.");
+  const verdict = page.getByTestId("rotating-verdict");
+  await expect(verdict).toContainText(
+    "Plane A: Residual 0.05 oz at 3.00 in — allowed 0.053 oz: pass",
+  );
+  await expect(verdict).toContainText("U_per 0.32 oz·in for the whole part");
+
+  // Shown again as typed after a reload.
+  await page.reload();
+  await expect(page.getByLabel("Mass (lb)")).toHaveValue("50");
+  await expect(page.getByLabel("Balancer reading radius (in)")).toHaveValue("3.00");
+  await expect(page.getByLabel("Correction 1 ounces")).toHaveValue("0.55");
+
+  // The helpers in the job's units: 1 oz at 3 in is 1.5 oz at 2 in (3 oz·in), by hand.
+  const move = page.getByTestId("helper-move");
+  await move.getByLabel("Mass (oz)").fill("1");
+  await move.getByLabel("At radius (in)").fill("3");
+  await move.getByLabel("Wanted radius (in)").fill("2");
+  await move.getByRole("button", { name: "Work it out" }).click();
+  await expect(move).toContainText("1.500 oz at 2 in does the same as 1 oz at 3 in (3.0 oz·in).");
+});
