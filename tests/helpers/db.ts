@@ -229,8 +229,19 @@ export async function closeTestDatabases(): Promise<void> {
   if (!server || made.size === 0) return;
   const names = [...made];
   made.clear();
+  // Not forced: a connection still closing would be cut off and report it. A database that stays
+  // busy is left for the next run's global setup to drop.
   await onServer(server, async (client) => {
-    for (const name of names) await client.query(`drop database if exists "${name}" with (force)`);
+    for (const name of names) {
+      for (let attempt = 1; attempt <= 10; attempt++) {
+        try {
+          await client.query(`drop database if exists "${name}"`);
+          break;
+        } catch {
+          await new Promise((r) => setTimeout(r, 200));
+        }
+      }
+    }
   });
 }
 
