@@ -1,6 +1,7 @@
 "use client";
 
 import { useState } from "react";
+import { ConnectScale } from "@/components/scale/connect-scale";
 import type { Workshop } from "@/lib/workshop/load";
 import { CsvImport } from "./csv-import";
 import { WeighGrid } from "./weigh-grid";
@@ -18,6 +19,12 @@ export function WeighBench({
   const [imports, setImports] = useState(0);
   return (
     <div className="space-y-6">
+      {canEdit ? (
+        <ConnectScale
+          unit={initial.job.spec.massUnit}
+          resolution={initial.job.spec.scaleResolution}
+        />
+      ) : null}
       <WeighGrid key={imports} jobId={jobId} initial={initial} canEdit={canEdit} />
       {canEdit ? (
         <CsvImport
