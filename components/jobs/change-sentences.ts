@@ -295,6 +295,9 @@ export function describeChange(change: JobChange, unit: "g" | "oz"): string[] {
     const { name, phase } = partLabel(change.subject);
     const was = readingsText(change.before, unit);
     const now = readingsText(change.after, unit);
+    // Keeping a held weight as read saves the same readings again: that is news, not a no-change.
+    if (was === now && now !== null && change.action === "weigh-confirmed")
+      return [`${name} ${now} confirmed as read although far from the rest (${phase})`];
     if (was === now) return [];
     const confirmed =
       change.action === "weigh-confirmed" ? "; confirmed although far from the rest" : "";

@@ -2,6 +2,8 @@ import { beforeEach, describe, expect, it } from "vitest";
 import { PUT as putWeight } from "@/app/api/jobs/[id]/weights/route";
 import { PUT as putSettings } from "@/app/api/settings/route";
 import { GET as getWorkshop } from "@/app/api/jobs/[id]/workshop/route";
+import { describeChange } from "@/components/jobs/change-sentences";
+import { listJobChanges } from "@/db/audit";
 import type { DB } from "@/db/client";
 import { createJob, type Job } from "@/db/jobs";
 import type { PartKind, Role } from "@/db/schema";
@@ -190,6 +192,22 @@ describe("the plan waits for a held weight", () => {
     expect(plan.held).toEqual([]);
     expect(plan.error).toBeNull();
     expect(plan.complete).toBe(true);
+  });
+
+  it("keeps the confirmation in the job's history, even when the readings are unchanged", async () => {
+    await weighSet(FOUR, (c, k) => k === "piston" && c === 2);
+    await plant(2, "piston", "4012");
+    await put({
+      cylinder: 2,
+      kind: "piston",
+      readings: ["4012"],
+      version: 1,
+      confirmOutlier: true,
+    });
+    const sentences = (await listJobChanges(db, job.id)).flatMap((c) => describeChange(c, "g"));
+    expect(sentences).toContain(
+      "Cylinder 2 piston 4012 g confirmed as read although far from the rest (first weigh)",
+    );
   });
 
   it("is worked out once the outlier is retyped", async () => {
