@@ -162,6 +162,16 @@ export interface CardData {
   rotating: CardRotatingRecord[];
   /** What the balance engine flagged (light parts, spread readings, …). */
   notices: string[];
+  /**
+   * Issued although parts were outside the band, light, to re-select or confirmed outliers
+   * (lib/cards/exceptions.ts): those parts as printed and the machinist's reason. Absent otherwise.
+   */
+  override?: CardOverride | null;
+}
+
+export interface CardOverride {
+  parts: string[];
+  reason: string;
 }
 
 export interface CardDataInput {
