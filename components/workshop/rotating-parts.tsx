@@ -127,7 +127,7 @@ export function RotatingParts({
         {rotorMassUnit(units.mass)}, radii in {LENGTH_WORDS[units.length]}
         {asJob
           ? "."
-          : `: this record was typed so and stays as typed (the job is now in ${ROTATING_UNIT_WORDS[jobUnits.mass].mass} and ${LENGTH_WORDS[jobUnits.length]}).`}
+          : `: this record was saved in these units and is shown as typed (the job is now in ${ROTATING_UNIT_WORDS[jobUnits.mass].mass} and ${LENGTH_WORDS[jobUnits.length]}).`}
       </p>
       <div className="flex flex-wrap gap-2" role="tablist" aria-label="Rotating part">
         {PARTS.map((p) => {

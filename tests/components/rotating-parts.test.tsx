@@ -310,7 +310,7 @@ describe("a job weighed in ounces with lengths in inches", () => {
     const user = renderScreen(workshopWith([{ part: "flywheel", data: legacy }], ozJob));
     await user.click(screen.getByRole("tab", { name: /Flywheel/ }));
     expect(screen.getByTestId("rotating-units").textContent).toContain(
-      "stays as typed (the job is now in ounces and inches)",
+      "saved in these units and is shown as typed (the job is now in ounces and inches)",
     );
     expect((screen.getByLabelText("Mass (kg)") as HTMLInputElement).value).toBe("10");
     expect(screen.getByTestId("rotating-verdict").textContent).toContain(
