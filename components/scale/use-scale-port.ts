@@ -45,13 +45,17 @@ export function useScalePort(onReading: (reading: ScaleReading, at: number) => v
     const decoder = createScaleDecoder();
     // After a framing or parity error the port gives a fresh stream; when the scale is
     // unplugged it gives none.
-    while (open.readable && !closing.current) {
+    let ended = false;
+    while (open.readable && !closing.current && !ended) {
       const r = open.readable.getReader();
       reader.current = r;
       try {
         for (;;) {
           const { value, done } = await r.read();
-          if (done) break;
+          if (done) {
+            ended = true;
+            break;
+          }
           for (const reading of decoder.push(value)) handler.current(reading, Date.now());
         }
       } catch {

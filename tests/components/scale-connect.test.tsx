@@ -1,0 +1,216 @@
+// @vitest-environment jsdom
+import { act, cleanup, render, screen, waitFor } from "@testing-library/react";
+import userEvent from "@testing-library/user-event";
+import { type KeyboardEvent, useRef, useState } from "react";
+import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { ConnectScale } from "@/components/scale/connect-scale";
+import { SCALE_SETTINGS_KEY } from "@/components/scale/scale-settings";
+
+/** A serial port whose bytes the test sends; what the page writes is kept. */
+function installFakeSerial() {
+  let feed!: ReadableStreamDefaultController<Uint8Array>;
+  const written: number[][] = [];
+  const port = {
+    readable: new ReadableStream<Uint8Array>({
+      start(c) {
+        feed = c;
+      },
+    }),
+    writable: new WritableStream<Uint8Array>({
+      write(chunk) {
+        written.push([...chunk]);
+      },
+    }),
+    open: vi.fn(async () => undefined),
+    close: vi.fn(async () => undefined),
+  };
+  const serial = { requestPort: vi.fn(async () => port), getPorts: vi.fn(async () => []) };
+  Object.defineProperty(navigator, "serial", { value: serial, configurable: true });
+  const encoder = new TextEncoder();
+  return {
+    port,
+    serial,
+    written,
+    /** Sends text from the scale in the chunks given. */
+    send: async (...chunks: string[]) => {
+      for (const chunk of chunks)
+        await act(async () => {
+          feed.enqueue(encoder.encode(chunk));
+          await new Promise((r) => setTimeout(r, 0));
+        });
+    },
+  };
+}
+
+/** Two weigh boxes that behave like the grid's: a controlled value, Enter saves and moves on. */
+function Bench({ unit = "g" as const }: { unit?: "g" | "oz" }) {
+  const [values, setValues] = useState(["", ""]);
+  const [saved, setSaved] = useState<string[]>([]);
+  const boxes = useRef<(HTMLInputElement | null)[]>([]);
+  const onKeyDown = (i: number) => (e: KeyboardEvent<HTMLInputElement>) => {
+    if (e.key !== "Enter") return;
+    setSaved((s) => [...s, `${i + 1}:${values[i]}`]);
+    boxes.current[i + 1]?.focus();
+  };
+  return (
+    <>
+      <ConnectScale unit={unit} resolution="0.1" />
+      <table data-testid="weigh-grid">
+        <tbody>
+          <tr>
+            {[0, 1].map((i) => (
+              <td key={i}>
+                <input
+                  ref={(el) => {
+                    boxes.current[i] = el;
+                  }}
+                  aria-label={`Cylinder ${i + 1} Piston, ${unit}`}
+                  value={values[i]}
+                  onChange={(e) =>
+                    setValues((v) => v.map((x, j) => (j === i ? e.target.value : x)))
+                  }
+                  onKeyDown={onKeyDown(i)}
+                />
+              </td>
+            ))}
+          </tr>
+        </tbody>
+      </table>
+      <p data-testid="saved">{saved.join(" | ")}</p>
+      <button type="button">Elsewhere</button>
+    </>
+  );
+}
+
+const live = () => screen.getByTestId("scale-live");
+const box = (n: number) => screen.getByLabelText(new RegExp(`Cylinder ${n} Piston`));
+
+beforeEach(() => {
+  Object.defineProperty(window, "isSecureContext", { value: true, configurable: true });
+  window.localStorage.clear();
+});
+afterEach(() => {
+  cleanup();
+  // @ts-expect-error the fake is removed again
+  delete navigator.serial;
+});
+
+describe("Connect scale", () => {
+  it("says why where the browser has no serial port, and typing stays", () => {
+    render(<Bench />);
+    expect(screen.getByTestId("scale-unavailable").textContent).toMatch(/Chromium-based browser/);
+    expect(screen.queryByRole("button", { name: "Connect scale" })).toBeNull();
+    expect(box(1)).not.toHaveProperty("readOnly", true);
+  });
+
+  it("says why on an address that is not secure", () => {
+    installFakeSerial();
+    Object.defineProperty(window, "isSecureContext", { value: false, configurable: true });
+    render(<Bench />);
+    expect(screen.getByTestId("scale-unavailable").textContent).toMatch(/secure address/);
+  });
+
+  it("opens the picked port with the settings this PC remembered", async () => {
+    window.localStorage.setItem(
+      SCALE_SETTINGS_KEY,
+      JSON.stringify({ baudRate: 2400, dataBits: 7, parity: "even", stopBits: 2 }),
+    );
+    const fake = installFakeSerial();
+    render(<Bench />);
+    await userEvent.click(await screen.findByRole("button", { name: "Connect scale" }));
+    await waitFor(() => expect(fake.port.open).toHaveBeenCalled());
+    expect(fake.serial.requestPort).toHaveBeenCalledTimes(1);
+    expect(fake.port.open).toHaveBeenCalledWith({
+      baudRate: 2400,
+      dataBits: 7,
+      parity: "even",
+      stopBits: 2,
+      flowControl: "none",
+    });
+  });
+
+  it("remembers a changed setting on this PC", async () => {
+    installFakeSerial();
+    render(<Bench />);
+    await userEvent.selectOptions(await screen.findByLabelText("Baud rate"), "19200");
+    expect(JSON.parse(window.localStorage.getItem(SCALE_SETTINGS_KEY) ?? "{}")).toMatchObject({
+      baudRate: 19200,
+    });
+  });
+
+  it("shows settling and overload lines without saving them, then types the stable reading once", async () => {
+    const fake = installFakeSerial();
+    render(<Bench />);
+    await userEvent.click(await screen.findByRole("button", { name: "Connect scale" }));
+    await screen.findByText(/Waiting for the scale/);
+    box(1).focus();
+    await fake.send("S D     312.48 g\r\n", "S D     498.71 g\r\n");
+    expect(live().dataset.kind).toBe("settling");
+    expect(live().textContent).toContain("498.71 g");
+    expect(box(1)).toHaveProperty("value", "");
+    await fake.send("S +\r\n");
+    expect(live().textContent).toMatch(/Over the scale's capacity/);
+    expect(box(1)).toHaveProperty("value", "");
+    // The stable line arrives in three chunks, the CRLF itself split.
+    await fake.send("S S     49", "8.60 g\r", "\n");
+    expect(box(1)).toHaveProperty("value", "498.60");
+    expect(live().textContent).toMatch(/stable: in cylinder 1 piston, press Enter to save/);
+    // The scale repeats the weight while the part sits on the pan: entered once.
+    await fake.send("S S     498.60 g\r\n", "S S     498.60 g\r\n");
+    expect(box(1)).toHaveProperty("value", "498.60");
+    expect(live().textContent).toMatch(/already entered: empty the pan/);
+    expect(screen.getByTestId("saved").textContent).toBe("");
+  });
+
+  it("with Enter pressed for the machinist, each part goes in and the cursor moves on", async () => {
+    const fake = installFakeSerial();
+    render(<Bench />);
+    await userEvent.click(await screen.findByLabelText(/Press Enter for me/));
+    await userEvent.click(screen.getByRole("button", { name: "Connect scale" }));
+    await screen.findByText(/Waiting for the scale/);
+    box(1).focus();
+    await fake.send("ST,GS,+00498.60  g\r\n", "ST,GS,+00498.60  g\r\n");
+    await fake.send("US,GS,+00000.20  g\r\n", "ST,GS,+00512.30  g\r\n");
+    expect(screen.getByTestId("saved").textContent).toBe("1:498.60 | 2:512.30");
+  });
+
+  it("converts a reading in ounces for a job in grams (17.500 oz = 496.117 g)", async () => {
+    // By hand: 17.5 × 28.349523125 = 496.1166546875 g (NIST Handbook 44 App. C); the scale's
+    // step 0.001 oz is 0.028 g, a tenth of it keeps 3 decimals → 496.117.
+    const fake = installFakeSerial();
+    render(<Bench />);
+    await userEvent.click(await screen.findByRole("button", { name: "Connect scale" }));
+    await screen.findByText(/Waiting for the scale/);
+    box(1).focus();
+    await fake.send("+   17.500 oz   \r\n");
+    expect(box(1)).toHaveProperty("value", "496.117");
+    expect(live().textContent).toContain("(the scale: 17.500 oz)");
+  });
+
+  it("refuses a count and names it; a reading with no box to go into is not lost", async () => {
+    const fake = installFakeSerial();
+    render(<Bench />);
+    await userEvent.click(await screen.findByRole("button", { name: "Connect scale" }));
+    await screen.findByText(/Waiting for the scale/);
+    await fake.send("S S      12 pcs\r\n");
+    expect(live().textContent).toMatch(/The scale sent "pcs", not a weight/);
+    box(1).focus();
+    screen.getByRole("button", { name: "Elsewhere" }).focus(); // the cursor left the grid
+    await fake.send("S S     498.60 g\r\n");
+    expect(live().textContent).toMatch(/click the weigh box for this part first/);
+    box(2).focus();
+    await fake.send("S S     498.60 g\r\n");
+    expect(box(2)).toHaveProperty("value", "498.60");
+  });
+
+  it("sends the print command on request, control characters written as \\r\\n", async () => {
+    window.localStorage.setItem(SCALE_SETTINGS_KEY, JSON.stringify({ printCommand: "P\\r\\n" }));
+    const fake = installFakeSerial();
+    render(<Bench />);
+    await userEvent.click(await screen.findByRole("button", { name: "Connect scale" }));
+    await userEvent.click(
+      await screen.findByRole("button", { name: "Ask the scale for a reading" }),
+    );
+    await waitFor(() => expect(fake.written).toEqual([[0x50, 0x0d, 0x0a]]));
+  });
+});
