@@ -4,12 +4,15 @@ import Link from "next/link";
 import { usePathname } from "next/navigation";
 import type { Role } from "@/db/schema";
 
+// The bench's screens are the shop's; a customer's job page has its own overview.
+const BENCH_TABS: Role[] = ["owner", "machinist", "counter"];
+
 const SECTIONS: { path: string; label: string; roles?: Role[] }[] = [
   { path: "", label: "Overview" },
-  { path: "/weigh", label: "Scale" },
-  { path: "/plan", label: "Metal to remove" },
-  { path: "/bobweights", label: "Bobweights" },
-  { path: "/rotating", label: "Crank & rotating" },
+  { path: "/weigh", label: "Scale", roles: BENCH_TABS },
+  { path: "/plan", label: "Metal to remove", roles: BENCH_TABS },
+  { path: "/bobweights", label: "Bobweights", roles: BENCH_TABS },
+  { path: "/rotating", label: "Crank & rotating", roles: BENCH_TABS },
   { path: "/billing", label: "Billing", roles: ["owner", "counter", "customer"] },
 ];
 

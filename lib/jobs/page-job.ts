@@ -21,3 +21,17 @@ export const loadPageJob = cache(
     }
   },
 );
+
+/**
+ * The job for a bench page (scale, metal to remove, bobweights, crank & rotating): shop staff
+ * only. A customer gets the not-found page, as for a job that is not theirs; their own view of
+ * the job is its overview page.
+ */
+export async function loadBenchPageJob(
+  rawId: string,
+  path: string,
+): Promise<{ job: Job; user: User }> {
+  const loaded = await loadPageJob(rawId, path);
+  if (loaded.user.role === "customer") notFound();
+  return loaded;
+}

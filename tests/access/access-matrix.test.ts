@@ -158,7 +158,6 @@ describe("customer isolation", () => {
     const keys = reaching.map((e) => e.key);
     for (const key of [
       "GET /api/jobs/[id]",
-      "GET /api/jobs/[id]/workshop",
       "GET /api/jobs/[id]/cards",
       "GET /api/jobs/[id]/cards/[revision]/pdf",
       "GET /api/invoices/[id]",

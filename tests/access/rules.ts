@@ -62,17 +62,19 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "POST /api/invites": { allowed: DESK },
 
   // Jobs: everyone sees (customers their own); the desk books; the bench weighs and balances.
+  // The bench's working (weights, plan, CSVs) is the shop's: a customer is refused (403).
   "GET /api/jobs": { allowed: EVERYONE, customer: "scoped-list" },
   "POST /api/jobs": { allowed: DESK },
   "GET /api/jobs/[id]": { allowed: EVERYONE, customer: "own-job" },
   "PATCH /api/jobs/[id]": { allowed: SHOP },
-  "GET /api/jobs/[id]/workshop": { allowed: EVERYONE, customer: "own-job" },
+  "GET /api/jobs/[id]/workshop": { allowed: SHOP },
   "PUT /api/jobs/[id]/weights": { allowed: BENCH },
   "PUT /api/jobs/[id]/targets": { allowed: BENCH },
   "POST /api/jobs/[id]/pairing": { allowed: BENCH },
-  "GET /api/jobs/[id]/weights/csv": { allowed: EVERYONE, customer: "own-job" },
+  "POST /api/jobs/[id]/pairing/undo": { allowed: BENCH },
+  "GET /api/jobs/[id]/weights/csv": { allowed: SHOP },
   "POST /api/jobs/[id]/weights/import": { allowed: BENCH },
-  "GET /api/jobs/[id]/plan/csv": { allowed: EVERYONE, customer: "own-job" },
+  "GET /api/jobs/[id]/plan/csv": { allowed: SHOP },
   "PUT /api/jobs/[id]/rotating/[part]": { allowed: BENCH },
   "GET /api/jobs/[id]/build": { allowed: EVERYONE, customer: "own-job" },
   "PUT /api/jobs/[id]/build/[section]": { allowed: BENCH },

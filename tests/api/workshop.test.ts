@@ -170,7 +170,7 @@ describe("weigh-in", () => {
     expect(await countRows(db, "jobs")).toBe(1);
   });
 
-  it("lets a customer read only their own job's bench record", async () => {
+  it("keeps the bench record from customers, their own job's too (they read the job's page)", async () => {
     const other = await addTestCustomer(db, "Noor Haddad");
     signInAs(users.owner);
     const res = await postJob(
@@ -185,10 +185,10 @@ describe("weigh-in", () => {
     signInAs(users.customer);
     expect(
       (await getWorkshop(jsonRequest("GET", "/x"), params({ id: String(job.id) }))).status,
-    ).toBe(200);
+    ).toBe(403);
     expect(
       (await getWorkshop(jsonRequest("GET", "/x"), params({ id: String(otherJob.id) }))).status,
-    ).toBe(404);
+    ).toBe(403);
     expect((await weigh(job.id, 1, "piston", ["1"])).status).toBe(403);
   });
 });

@@ -1,3 +1,4 @@
+import { CustomerJob } from "@/components/customer/customer-job";
 import { BuildRequests } from "@/components/build/build-requests";
 import { BROUGHT_ITEM_LABEL } from "@/components/jobs/brought-items";
 import { JobChanges } from "@/components/jobs/job-changes";
@@ -9,12 +10,31 @@ import { listBuildRequests } from "@/db/build-record";
 import { getDb } from "@/db/client";
 import { findLayoutPreset } from "@/lib/balance";
 import { showLength } from "@/lib/jobs/lengths";
+import { loadJobBilling } from "@/lib/billing/job-billing";
+import { customerWorkDone } from "@/lib/jobs/customer-summary";
 import { loadPageJob } from "@/lib/jobs/page-job";
+import { loadWorkshop } from "@/lib/workshop/load";
 
 export default async function JobOverviewPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const { job, user } = await loadPageJob(id, `/jobs/${id}`);
-  const shop = user.role !== "customer";
+  if (user.role === "customer") {
+    // The customer's own page: state, what was done, cards, quote and invoice; no bench screens.
+    const [workshop, billing] = await Promise.all([
+      loadWorkshop(getDb(), job),
+      loadJobBilling(getDb(), job.id, user),
+    ]);
+    return (
+      <CustomerJob
+        job={job}
+        workDone={customerWorkDone(workshop)}
+        billing={billing}
+        promised={job.spec.promisedDate}
+        cards={<JobCards jobId={job.id} user={user} />}
+      />
+    );
+  }
+  const shop = true;
   const changes = shop ? await listJobChanges(getDb(), job.id) : [];
   const requests = await listBuildRequests(getDb(), job.id);
   const preset = job.spec.layout ? findLayoutPreset(job.spec.layout) : undefined;

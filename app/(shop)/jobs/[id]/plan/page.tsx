@@ -1,13 +1,13 @@
 import { RemovalPlan } from "@/components/workshop/removal-plan";
 import { getDb } from "@/db/client";
-import { loadPageJob } from "@/lib/jobs/page-job";
+import { loadBenchPageJob } from "@/lib/jobs/page-job";
 import { loadWorkshop } from "@/lib/workshop/load";
 
 export const metadata = { title: "Metal to remove" };
 
 export default async function PlanPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  const { job, user } = await loadPageJob(id, `/jobs/${id}/plan`);
+  const { job, user } = await loadBenchPageJob(id, `/jobs/${id}/plan`);
   const workshop = await loadWorkshop(getDb(), job);
   return (
     <RemovalPlan

@@ -1,13 +1,13 @@
 import { WeighBench } from "@/components/workshop/weigh-bench";
 import { getDb } from "@/db/client";
-import { loadPageJob } from "@/lib/jobs/page-job";
+import { loadBenchPageJob } from "@/lib/jobs/page-job";
 import { loadWorkshop } from "@/lib/workshop/load";
 
 export const metadata = { title: "Scale" };
 
 export default async function WeighPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  const { job, user } = await loadPageJob(id, `/jobs/${id}/weigh`);
+  const { job, user } = await loadBenchPageJob(id, `/jobs/${id}/weigh`);
   if (!job.spec.layout || !job.spec.cylinders) {
     return (
       <p className="text-graphite-600">

@@ -1,12 +1,13 @@
 import { getDb } from "@/db/client";
-import { ALL_ROLES, requireApiUser } from "@/lib/auth/guard";
+import { requireApiUser, SHOP_ROLES } from "@/lib/auth/guard";
 import { json, parseId, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
 import { loadWorkshop } from "@/lib/workshop/load";
 
 /** The job with its weights, targets, rotating-part records and the worked-out plan. */
 export const GET = route<{ id: string }>(async (_req, { params }) => {
-  const user = await requireApiUser(ALL_ROLES);
+  // The bench's working: shop staff only (a customer reads their job's own page instead).
+  const user = await requireApiUser(SHOP_ROLES);
   const job = await findJobForUser(getDb(), parseId((await params).id), user);
   return json(await loadWorkshop(getDb(), job));
 });
