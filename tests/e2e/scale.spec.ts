@@ -1,0 +1,138 @@
+import { expect, type Page, test } from "@playwright/test";
+import { findJobPath, signInAs } from "./helpers";
+
+// Chromium has no serial port to emulate: the page gets a stand-in `navigator.serial` whose port
+// streams what the test feeds it, recorded lines of an invented status-prefixed scale.
+declare global {
+  interface Window {
+    __scale: {
+      feed: (text: string) => void;
+      opened: unknown[];
+      written: number[][];
+    };
+  }
+}
+
+async function fakeSerialPort(page: Page) {
+  await page.addInitScript(() => {
+    let controller: ReadableStreamDefaultController<Uint8Array> | null = null;
+    const state = {
+      opened: [] as unknown[],
+      written: [] as number[][],
+      feed: (text: string) => controller?.enqueue(new TextEncoder().encode(text)),
+    };
+    const port = {
+      readable: null as ReadableStream<Uint8Array> | null,
+      writable: null as WritableStream<Uint8Array> | null,
+      async open(options: unknown) {
+        state.opened.push(options);
+        port.readable = new ReadableStream<Uint8Array>({
+          start(c) {
+            controller = c;
+          },
+        });
+        port.writable = new WritableStream<Uint8Array>({
+          write(chunk) {
+            state.written.push([...chunk]);
+          },
+        });
+      },
+      async close() {
+        port.readable = null;
+        port.writable = null;
+      },
+      getInfo: () => ({}),
+    };
+    Object.defineProperty(window, "__scale", { value: state });
+    Object.defineProperty(navigator, "serial", {
+      configurable: true,
+      value: {
+        requestPort: async () => port,
+        getPorts: async () => [port],
+        addEventListener() {},
+        removeEventListener() {},
+      },
+    });
+  });
+}
+
+const feed = (page: Page, ...chunks: string[]) =>
+  page.evaluate(async (parts) => {
+    for (const part of parts) {
+      window.__scale.feed(part);
+      await new Promise((r) => setTimeout(r, 20));
+    }
+  }, chunks);
+
+test("the demo in-line four's pistons weighed from a scale on a serial port", async ({
+  page,
+  baseURL,
+}) => {
+  test.setTimeout(120_000);
+  await fakeSerialPort(page);
+  await signInAs(page, "owner");
+  const path = await findJobPath(baseURL!, "In-line four, 86 mm bore");
+  await page.goto(`${path}/weigh`);
+  await expect(page.getByTestId("weigh-grid")).toHaveAttribute("data-ready", "true");
+
+  // Port settings as set on the scale, remembered on this PC; opened with them.
+  const panel = page.getByTestId("connect-scale");
+  await panel.getByLabel("Baud rate").selectOption("4800");
+  await panel.getByLabel("Parity").selectOption("even");
+  await panel.getByLabel("Data bits").selectOption("7");
+  await panel.getByRole("button", { name: "Connect scale" }).click();
+  await expect(panel.getByText(/Waiting for the scale/)).toBeVisible();
+  expect(await page.evaluate(() => window.__scale.opened)).toEqual([
+    { baudRate: 4800, dataBits: 7, parity: "even", stopBits: 1, flowControl: "none" },
+  ]);
+
+  const live = page.getByTestId("scale-live");
+  const piston = (n: number) => page.getByLabel(`Cylinder ${n} Piston, g`);
+  await piston(1).focus();
+
+  // A part set on the pan: settling figures and an overload knock are shown, never entered.
+  await feed(page, "S D     150.20 g\r\n", "S D     401.70 g\r\n", "S D     400.60 g\r\n");
+  await expect(live).toHaveAttribute("data-kind", "settling");
+  await expect(live).toContainText("400.60 g");
+  await feed(page, "S +\r\n");
+  await expect(live).toContainText("Over the scale's capacity");
+  await expect(piston(1)).toHaveValue("");
+
+  // The stable line split across chunks, between its CR and LF too; repeated while it sits.
+  await feed(page, "S S     40", "0.40 g\r", "\nS S     400.40 g\r\n", "S S     400.40 g\r\n");
+  await expect(piston(1)).toHaveValue("400.40");
+  await expect(live).toContainText("already entered");
+  // Not saved until the machinist presses Enter.
+  await expect(page.getByTestId("cell-note-c1_piston")).not.toContainText("saved");
+  await page.keyboard.press("Enter");
+  await expect(piston(2)).toBeFocused();
+  await expect(page.getByTestId("cell-note-c1_piston")).toContainText("saved");
+
+  // Enter pressed for the machinist: each part in turn, the pan emptied between them.
+  await panel.getByLabel(/Press Enter for me/).check();
+  for (const [n, weight] of [
+    [2, "401.10"],
+    [3, "400.70"],
+    [4, "400.90"],
+  ] as const) {
+    await feed(page, "S D       0.10 g\r\n", "S S       0.00 g\r\n");
+    await feed(page, "S D     312.40 g\r\n", `S D     ${weight.slice(0, -1)}7 g\r\n`);
+    await feed(page, `S S     ${weight} g\r\n`, `S S     ${weight} g\r\n`);
+    await expect(page.getByTestId(`cell-note-c${n}_piston`)).toContainText("saved");
+    await expect(piston(n)).toHaveValue(weight);
+  }
+  await expect(page.getByLabel("Cylinder 1 Wrist pin, g")).toBeFocused();
+
+  // A scale that types like a keyboard (sign, spaces, unit, Enter) is read in any box too.
+  await page.keyboard.type("+   100.2 g\n", { delay: 5 });
+  await expect(page.getByTestId("cell-note-c1_wristPin")).toContainText("saved");
+
+  // What was saved is what the scale said.
+  await page.reload();
+  await expect(page.getByTestId("weigh-grid")).toHaveAttribute("data-ready", "true");
+  await expect(piston(1)).toHaveValue("400.40");
+  await expect(piston(4)).toHaveValue("400.90");
+  await expect(page.getByLabel("Cylinder 1 Wrist pin, g")).toHaveValue("100.2");
+  // The port settings were kept on this PC.
+  await expect(page.getByTestId("connect-scale").getByLabel("Baud rate")).toHaveValue("4800");
+});
