@@ -25,6 +25,14 @@ export default async function SettingsPage() {
         </Link>
         .
       </p>
+      <p className="text-sm">
+        Ring gap factors, coil-bind margin and the other figures the engine build record starts
+        from:{" "}
+        <Link href="/settings/build" className="underline">
+          engine build settings
+        </Link>
+        .
+      </p>
     </section>
   );
 }
