@@ -13,6 +13,7 @@ const SECTIONS: { path: string; label: string; roles?: Role[] }[] = [
   { path: "/plan", label: "Metal to remove", roles: BENCH_TABS },
   { path: "/bobweights", label: "Bobweights", roles: BENCH_TABS },
   { path: "/rotating", label: "Crank & rotating", roles: BENCH_TABS },
+  { path: "/build", label: "Build" },
   { path: "/billing", label: "Billing", roles: ["owner", "counter", "customer"] },
 ];
 

@@ -1,0 +1,32 @@
+import { BuildRecordScreen } from "@/components/build/build-record-screen";
+import { getDb } from "@/db/client";
+import { loadBuildRecord, recordShownTo } from "@/lib/build-record/record";
+import { loadPageJob } from "@/lib/jobs/page-job";
+
+export const metadata = { title: "Engine build record" };
+
+export default async function BuildRecordPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const { job, user } = await loadPageJob(id, `/jobs/${id}/build`);
+  if (!recordShownTo(job, user)) {
+    return (
+      <p className="text-sm text-graphite-600">
+        The engine build record is shown here once the job is ready to collect.
+      </p>
+    );
+  }
+  const record = await loadBuildRecord(getDb(), job, user);
+  const s = job.spec;
+  const jobBore =
+    s.boreEntered !== null
+      ? { value: s.boreEntered, unit: s.lengthUnit === "in" ? ("in" as const) : ("mm" as const) }
+      : null;
+  return (
+    <BuildRecordScreen
+      initial={record}
+      cylinders={s.cylinders ?? 8}
+      readOnly={user.role !== "machinist" && user.role !== "owner"}
+      jobBore={jobBore}
+    />
+  );
+}

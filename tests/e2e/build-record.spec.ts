@@ -1,0 +1,121 @@
+import { expect, type Page, test } from "@playwright/test";
+import { signInAs } from "./helpers";
+
+// The engine build record on a demo job, typed by keyboard: figures move on with Enter and are
+// saved on leaving the box. Expected figures are worked by hand beside each check.
+
+async function openDemoV8(page: Page): Promise<string> {
+  await page.goto("/jobs");
+  await page
+    .getByRole("row")
+    .filter({ hasText: "Cross-plane V8" })
+    .getByRole("link")
+    .first()
+    .click();
+  await expect(page).toHaveURL(/\/jobs\/\d+$/);
+  return new URL(page.url()).pathname;
+}
+
+async function typeAndEnter(page: Page, text: string) {
+  await page.keyboard.type(text);
+  await page.keyboard.press("Enter");
+}
+
+test("the customer's requests hold the job back from ready until done or explained", async ({
+  page,
+}) => {
+  await signInAs(page, "machinist");
+  await openDemoV8(page);
+  const request = `Use the supplied rod bolts ${Date.now().toString(36)}`;
+  await page.getByLabel("New request").fill(request);
+  await page.getByRole("button", { name: "Add request" }).click();
+  await expect(page.getByText(request)).toBeVisible();
+
+  await page.getByRole("combobox", { name: "Job state" }).selectOption("ready");
+  await expect(page.getByText(/Not ready yet: .*customer request/)).toBeVisible();
+  await expect(page.getByText(new RegExp(`Not ready yet: .*${request}`))).toBeVisible();
+  await expect(page.getByRole("combobox", { name: "Job state" })).toHaveValue("weighing");
+
+  const row = page.getByRole("listitem").filter({ hasText: request });
+  await row.getByRole("button", { name: "Not done…" }).click();
+  await page.getByLabel("Why not").fill("Customer's bolts were stretched; new ones fitted");
+  await page.getByRole("button", { name: "Save reason" }).click();
+  await expect(row.getByText("Why not: Customer's bolts were stretched")).toBeVisible();
+});
+
+test("ring gaps, TDC and a cam check typed by keyboard, kept after a reload", async ({ page }) => {
+  test.setTimeout(120_000);
+  await signInAs(page, "machinist");
+  const jobUrl = await openDemoV8(page);
+  await page.getByRole("link", { name: "Build" }).click();
+  await expect(page).toHaveURL(`${jobUrl}/build`);
+  await expect(page.getByText(/supports the builder's judgement/)).toBeVisible();
+
+  await page.getByRole("combobox", { name: "Lengths in" }).selectOption("in");
+  await page.getByLabel("Finished bore", { exact: true }).click();
+  await typeAndEnter(page, "4.030");
+  // Enter moved on to the stroke at once.
+  await expect(page.getByLabel("Stroke", { exact: true })).toBeFocused();
+  await typeAndEnter(page, "3.480");
+  await page.getByLabel("Top ring gap factor", { exact: true }).click();
+  await typeAndEnter(page, ".0045");
+  await expect(page.getByTestId("save-specs")).toHaveText("Saved");
+
+  // 0.0045 × 4.030 = 0.018135 in; a 0.015 gap leaves 0.003135 to file (shown to 0.0001 in).
+  await page.getByLabel("Cylinder 1 Top ring gap").click();
+  await typeAndEnter(page, "0.015");
+  await expect(page.getByLabel("Cylinder 1 Second ring gap")).toBeFocused();
+  await expect(page.getByTestId("ring-status-1-top")).toHaveText("File 0.0031");
+  await expect(page.getByRole("checkbox", { name: "Cylinder 1 Top ring done" })).toBeDisabled();
+  await page.getByLabel("Cylinder 1 Top ring gap").fill("0.019");
+  await page.keyboard.press("Enter");
+  await expect(page.getByTestId("ring-status-1-top")).toHaveText("In gap");
+  await page.getByRole("checkbox", { name: "Cylinder 1 Top ring done" }).check();
+  await expect(page.getByTestId("save-rings")).toHaveText("Saved");
+
+  // Piston stop at −18° and 22°: true TDC at (−18 + 22) / 2 = 2° ATDC; each stop 20°.
+  await page.getByLabel("First stop reading", { exact: true }).click();
+  await typeAndEnter(page, "-18");
+  await typeAndEnter(page, "22");
+  await expect(page.getByTestId("tdc-result")).toContainText("wheel reads 2° ATDC");
+  await expect(page.getByTestId("tdc-result")).toContainText("each stop then reads 20°");
+
+  // Card 31/63/73/21: intake duration 274°, centreline 274/2 − 31 = 106° ATDC.
+  await page.getByLabel("Intake opens", { exact: true }).click();
+  for (const v of ["31", "63", "73", "21"]) await typeAndEnter(page, v);
+  await expect(page.getByTestId("cam-card-summary")).toContainText("intake centreline 106° ATDC");
+  await page.getByRole("button", { name: "Add a check" }).click();
+  await expect(page.getByLabel("Check 1 opening side (° ATDC)")).toBeFocused();
+  // (63 + 154) / 2 = 108.5° → 2.5° retarded: advance 2.5 crank degrees, 1.25° at the sprocket.
+  await typeAndEnter(page, "63");
+  await typeAndEnter(page, "154");
+  await expect(page.getByTestId("cam-move-1")).toHaveText(
+    "2.5° retarded: advance the cam 2.5° (1.25° at the sprocket)",
+  );
+  await expect(page.getByTestId("save-cam")).toHaveText("Saved");
+  await expect(page.getByTestId("save-tdc")).toHaveText("Saved");
+
+  await page.reload();
+  await expect(page.getByLabel("Cylinder 1 Top ring gap")).toHaveValue("0.019");
+  await expect(page.getByTestId("ring-1-top")).toContainText("0.015"); // the earlier reading kept
+  await expect(page.getByRole("checkbox", { name: "Cylinder 1 Top ring done" })).toBeChecked();
+  await expect(page.getByTestId("tdc-result")).toContainText("2° ATDC");
+  await expect(page.getByTestId("cam-move-1")).toContainText("advance the cam 2.5°");
+});
+
+test("the demo's complete record reads back to the customer once collected", async ({ page }) => {
+  await signInAs(page, "customer");
+  await page.goto("/jobs");
+  await page
+    .getByRole("row")
+    .filter({ hasText: "Flat-plane V8" })
+    .getByRole("link")
+    .first()
+    .click();
+  await page.getByRole("link", { name: "Build" }).click();
+  // Deck 0.15 mm + gasket 0.80 mm = 0.95 mm of quench on cylinder 1.
+  await expect(page.getByTestId("deck-1")).toContainText("0.95");
+  await expect(page.getByTestId("deck-ratio-1")).toContainText(":1");
+  await expect(page.getByLabel("Cylinder 1 deck clearance")).toHaveAttribute("readonly", "");
+  await expect(page.getByText("Read only")).toBeVisible();
+});
