@@ -1,6 +1,7 @@
 import type { DB } from "@/db/client";
 import { createCustomer } from "@/db/customers";
 import { createJob, type JobSpec, updateJob } from "@/db/jobs";
+import { seedBuildDemo } from "@/lib/build-record/demo";
 import type { JobStatus, PartKind, Role } from "@/db/schema";
 import { savePartWeight } from "@/db/weights";
 import { createUser } from "@/db/users";
@@ -162,6 +163,7 @@ export async function seedDemo(db: DB): Promise<boolean> {
     );
   }
 
+  const jobIds: number[] = [];
   for (const [index, j] of JOBS.entries()) {
     const customerId = customers[j.customer]!.id;
     const job = await createJob(
@@ -171,7 +173,11 @@ export async function seedDemo(db: DB): Promise<boolean> {
     );
     if (j.status !== "booked") await updateJob(db, job.id, job.version, { status: j.status }, null);
     if (index === 0) await weighDemoV8(db, job.id);
+    jobIds.push(job.id);
   }
+  // The engine build record: a complete one on the collected flat-plane V8, an open request on
+  // the V8 being weighed.
+  await seedBuildDemo(db, { complete: jobIds[4]!, openRequest: jobIds[0]! });
   await seedBillingDemo(db);
   return true;
 }
