@@ -5,7 +5,17 @@ import { hstsHeader } from "@/lib/http/response-headers";
 
 // Only redirects (and refuses addresses that cannot be read): every page, handler and action
 // checks the role itself (lib/auth/guard.ts).
-const PUBLIC_PREFIXES = ["/sign-in", "/welcome", "/api/", "/verify", "/_next/", "/favicon"];
+// The web app manifest and its icons are fetched by the browser without the session cookie.
+const PUBLIC_PREFIXES = [
+  "/sign-in",
+  "/welcome",
+  "/api/",
+  "/verify",
+  "/_next/",
+  "/favicon",
+  "/manifest.webmanifest",
+  "/icons/",
+];
 
 /** Whether every %-escape in the path is valid UTF-8 (`/jobs/%C3%28` is not). */
 export function isReadablePath(pathname: string): boolean {
