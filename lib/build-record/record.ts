@@ -118,6 +118,64 @@ export async function loadBuildRecord(
 
 const RING_WORDS = { top: "top ring", second: "second ring", oil: "oil rails" } as const;
 
+const UNIT_WORDS = { in: "inches", mm: "millimetres", lb: "pounds", N: "newtons" } as const;
+
+/** Lengths already in the record, read in its length unit. */
+function recordedLengths(r: BuildRecordData): number {
+  const s = r.specs;
+  const specLengths = [
+    s.bore,
+    s.stroke,
+    s.spring.installedHeight,
+    s.spring.solidHeight,
+    s.spring.lift,
+    s.clearance.main.min,
+    s.clearance.main.max,
+    s.clearance.rod.min,
+    s.clearance.rod.max,
+    s.compression.gasketBore,
+    s.compression.gasketThickness,
+  ].filter((v) => v !== null).length;
+  return (
+    specLengths +
+    r.rings.rows.length +
+    (r.cam.lift !== null ? 1 : 0) +
+    r.springs.rows.filter((x) => x.installedHeight !== null || x.shim !== null).length +
+    r.clearances.rows.length +
+    r.deck.rows.filter((x) => x.deckClearance !== null).length
+  );
+}
+
+/** Loads (and rates) already in the record, read in its load unit. */
+function recordedLoads(r: BuildRecordData): number {
+  const s = r.specs.spring;
+  return (
+    [s.rate, s.seatLoadMin, s.seatLoadMax].filter((v) => v !== null).length +
+    r.springs.rows.filter((x) => x.seatLoad !== null).length
+  );
+}
+
+/**
+ * A unit switch would misread every figure already typed in the old unit: refused (422 naming
+ * the unit box) while the stored record holds any, as the job's grams/ounces switch is.
+ */
+function checkUnitSwitch(stored: BuildRecordData, next: BuildRecordData["specs"]) {
+  const from = stored.specs;
+  if (next.lengthUnit !== from.lengthUnit && recordedLengths(stored) > 0) {
+    const n = recordedLengths(stored);
+    throw new BuildRecordError(
+      "data.lengthUnit",
+      `Lengths in: this record already has ${n} length${n === 1 ? "" : "s"} in ${UNIT_WORDS[from.lengthUnit]}; keep ${UNIT_WORDS[from.lengthUnit]}, or clear them first.`,
+    );
+  }
+  if (next.loadUnit !== from.loadUnit && recordedLoads(stored) > 0) {
+    throw new BuildRecordError(
+      "data.loadUnit",
+      `Spring loads in: this record already has spring loads in ${UNIT_WORDS[from.loadUnit]}; keep ${UNIT_WORDS[from.loadUnit]}, or clear them first.`,
+    );
+  }
+}
+
 /** Refuses what only the job and the rest of the record can tell apart (422 by field). */
 function checkSection(
   job: Job,
@@ -210,6 +268,7 @@ export async function saveSection(
     await lockJob(trx, job.id);
     const current = await loadBuildRecord(trx, job, actor);
     const record = { ...current.data, [section]: write.data } as BuildRecordData;
+    if (section === "specs") checkUnitSwitch(current.data, record.specs);
     checkSection(job, record, section, current.settings);
     await saveBuildSection(
       trx,

@@ -131,6 +131,29 @@ describe("PUT /api/jobs/:id/build/:section", () => {
     });
   });
 
+  it("refuses switching inches to mm while lengths are recorded in inches (422 on the unit)", async () => {
+    await put("specs", SPECS);
+    const res = await put("specs", { ...SPECS, lengthUnit: "mm" }, 1);
+    expect(res.status).toBe(422);
+    const fields = await fieldsOf(res);
+    expect(Object.keys(fields)).toEqual(["data.lengthUnit"]);
+    // The stored figures: bore and stroke (the factors are ratios, not lengths).
+    expect(fields["data.lengthUnit"]).toMatch(/already has 2 lengths in inches/);
+    // A record with no lengths yet may change unit freely.
+    const fresh = await createJob(
+      db,
+      { customerId: users.customer.customerId!, engine: "Invented flat four" },
+      null,
+    );
+    const switched = await put(
+      "specs",
+      { ...emptySection("specs", "mm"), lengthUnit: "in" },
+      0,
+      fresh.id,
+    );
+    expect(switched.status).toBe(200);
+  });
+
   it("works out the pointer correction from the two stop readings", async () => {
     const record = await recordOf(await put("tdc", { firstStop: "-18", secondStop: "22" }));
     // True TDC midway between the stops: (−18 + 22) / 2 = 2°; each stop (22 − (−18)) / 2 = 20°.
