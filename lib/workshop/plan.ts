@@ -155,6 +155,17 @@ export interface WorkshopPlan {
    * while any is held the plan is not worked out and `error` names the first.
    */
   held: OutlierCheck[];
+  /**
+   * True when the plan was worked out without the pairing search (a weight save's answer):
+   * `pairing` is then null whatever the job, and the full plan (GET /api/jobs/:id/workshop) has it.
+   */
+  pairingDeferred?: boolean;
+}
+
+/** How much of the plan to work out: a weight save skips the pairing search. */
+export interface PlanOptions {
+  /** Run the piston-to-rod pairing search (default true). */
+  pairing?: boolean;
 }
 
 function layoutOf(job: Job): BalanceInput["layout"] | null {
@@ -179,7 +190,9 @@ export function buildWorkshopPlan(
   targets: PartTarget[],
   pairingGroups?: number[][],
   outlierPercent?: string,
+  options: PlanOptions = {},
 ): WorkshopPlan {
+  const searchPairing = options.pairing ?? true;
   const cylinders = job.spec.cylinders ?? 0;
   const layout = layoutOf(job);
   const initial = weightMap(weights, "initial");
@@ -276,7 +289,7 @@ export function buildWorkshopPlan(
     // A pairing changes the plan only when whole assemblies are matched, and is chosen before
     // machining starts. Both figures come from this same plan, run on the two numberings.
     let pairing: PlanPairing | null = null;
-    if (job.spec.matching === "by-cylinder" && final.size === 0) {
+    if (searchPairing && job.spec.matching === "by-cylinder" && final.size === 0) {
       const suggestion = suggestPairing({
         unit: job.spec.massUnit,
         tolerance: job.spec.tolerance,
@@ -317,6 +330,7 @@ export function buildWorkshopPlan(
       retarget,
       pairing,
       error: null,
+      ...(searchPairing ? {} : { pairingDeferred: true }),
     };
   } catch (error) {
     if (isBalanceInputError(error))

@@ -1,12 +1,17 @@
 import type { DB } from "@/db/client";
 import type { Job } from "@/db/jobs";
 import type { PartKind, WeighPhase } from "@/db/schema";
-import { findOutlierPercent, listPartWeights, type PartWeight, savePartWeight } from "@/db/weights";
+import {
+  findOutlierPercent,
+  listPartTargets,
+  listPartWeights,
+  type PartWeight,
+  savePartWeight,
+} from "@/db/weights";
 import { DEFAULT_OUTLIER_PERCENT } from "@/lib/balance";
 import { HttpError } from "@/lib/http/errors";
-import { loadWorkshop } from "./load";
 import { checkPartWeight } from "./outliers";
-import type { WorkshopPlan } from "./plan";
+import { buildWorkshopPlan, type WorkshopPlan } from "./plan";
 
 export interface WeighingInput {
   cylinder: number;
@@ -30,6 +35,10 @@ export interface WeighingInput {
  * not an outlier is accepted and stores no mark: there is nothing to confirm. Any later write
  * without it clears the mark, so a changed weight is checked afresh.
  *
+ * The answer is cheap: the saved weight and the plan worked out once, without the rotating-part
+ * records and the piston-to-rod pairing search
+ * (`plan.pairingDeferred`; GET /api/jobs/:id/workshop has the pairing).
+ *
  * @throws HttpError 422 `invalid_input` for a cylinder the engine does not have, 422 `outlier`
  *   for unconfirmed outlying readings; StaleWriteError (409) when the part changed since `version`
  */
@@ -45,12 +54,14 @@ export async function saveWeighing(
     });
   }
   let confirmedOutlier = false;
+  const [weights, percent, targets] = await Promise.all([
+    listPartWeights(db, job.id),
+    findOutlierPercent(db),
+    listPartTargets(db, job.id),
+  ]);
+  const outlierPercent = percent ?? DEFAULT_OUTLIER_PERCENT;
   if (input.readings.length > 0) {
-    const [weights, percent] = await Promise.all([
-      listPartWeights(db, job.id),
-      findOutlierPercent(db),
-    ]);
-    const check = checkPartWeight(job, weights, input, percent ?? DEFAULT_OUTLIER_PERCENT);
+    const check = checkPartWeight(job, weights, input, outlierPercent);
     if (check.outlier && check.message) {
       if (!input.confirmOutlier) {
         throw new HttpError(422, "outlier", check.message, { readings: check.message });
@@ -71,5 +82,14 @@ export async function saveWeighing(
     },
     actorId,
   );
-  return { weight, plan: (await loadWorkshop(db, job)).plan };
+  // Read again: another bench may have saved a part meanwhile, and the plan must show it.
+  const plan = buildWorkshopPlan(
+    job,
+    await listPartWeights(db, job.id),
+    targets,
+    job.spec.pairingGroups ?? undefined,
+    outlierPercent,
+    { pairing: false },
+  );
+  return { weight, plan };
 }

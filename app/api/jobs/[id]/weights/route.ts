@@ -6,7 +6,9 @@ import { weightWriteSchema } from "@/lib/validation/workshop";
 import { saveWeighing } from "@/lib/workshop/save-weight";
 
 /**
- * Saves one part's readings (machinist or owner); answers the saved weight and the new plan.
+ * Saves one part's readings (machinist or owner); answers the saved weight (with its new
+ * version) and the new plan worked out without the pairing search (`plan.pairingDeferred`; the
+ * pairing comes with GET /api/jobs/:id/workshop), so a save stays cheap at the bench.
  * Zero is refused (422 on `readings`). Readings far from the rest of their kind are refused with
  * a 422 of code `outlier` until sent again with `confirmOutlier: true` (lib/workshop/save-weight.ts).
  */
