@@ -171,6 +171,22 @@ export interface Database
   part_weights: PartWeightTable;
   part_targets: PartTargetTable;
   rotating_records: RotatingRecordTable;
+  counter_settings: CounterSettingsTable;
+}
+
+/** The counter's settings, one row (id 1): the shop's e-mails and its time zone. */
+export interface CounterSettingsTable {
+  id: number;
+  sender_name: string | null;
+  reply_to: string | null;
+  signature: string | null;
+  /** Comma list of the kinds of message the owner switched off. */
+  mail_off: ColumnType<string, string | undefined, string>;
+  /** IANA time zone name, e.g. "America/Denver". */
+  time_zone: ColumnType<string, string | undefined, string>;
+  version: ColumnType<number, number | undefined, number>;
+  updated_by: number | null;
+  updated_at: string;
 }
 
 export type UserRow = Selectable<UserTable>;

@@ -10,6 +10,7 @@ import type { Customer } from "@/db/customers";
 import { type BroughtItem, BROUGHT_ITEMS, type Job } from "@/db/jobs";
 import { LAYOUT_PRESETS } from "@/lib/balance";
 import { ApiError, apiFetch } from "@/lib/api-client";
+import { shopToday } from "@/lib/dates/shop-time";
 import { customerSchema } from "@/lib/validation/customers";
 import {
   bookingEngineField,
@@ -149,7 +150,7 @@ function countErrors(errors: FieldErrors): number {
 }
 
 /** Booking a job in at the counter: who, what engine, what came in, what is asked, when promised. */
-export function BookingForm() {
+export function BookingForm({ timeZone }: { timeZone?: string } = {}) {
   const router = useRouter();
   const listId = useId();
   const [search, setSearch] = useState("");
@@ -220,7 +221,11 @@ export function BookingForm() {
   const submit = form.handleSubmit(
     (v) => {
       setServerFields({});
-      if (v.promisedDate && v.promisedDate < localToday() && pastConfirmed !== v.promisedDate) {
+      if (
+        v.promisedDate &&
+        v.promisedDate < (timeZone ? shopToday(timeZone) : localToday()) &&
+        pastConfirmed !== v.promisedDate
+      ) {
         setAskPast(v.promisedDate);
         setFailure(null);
         return;

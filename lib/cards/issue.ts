@@ -16,6 +16,7 @@ import { newVerificationCode } from "./code";
 import { cardExceptions, describeExceptions } from "./exceptions";
 import { jobFingerprint, serializeFingerprint } from "./fingerprint";
 import { type CardSummary, toCardSummary } from "./summary";
+import { tellCardReissued } from "@/lib/mail/events";
 import { cardVerifyUrl } from "./urls";
 
 export interface IssueOptions {
@@ -103,5 +104,7 @@ export async function issueCard(
     },
     actor.id,
   );
+  // A customer who was sent an earlier revision gets this one too (through the outbox).
+  await tellCardReissued(db, job.id, job.number, revision, actor.id);
   return toCardSummary(stored, job.number);
 }

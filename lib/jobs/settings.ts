@@ -7,6 +7,7 @@ import { listPartTargets, listPartWeights } from "@/db/weights";
 import { convertLength, convertMassSetting, findLayoutPreset, parseDrillSize } from "@/lib/balance";
 import { assertRequestsSettled } from "@/lib/build-record/requests";
 import { HttpError } from "@/lib/http/errors";
+import { tellReadyToCollect } from "@/lib/mail/events";
 import { needsBobweight } from "./needs-bobweight";
 import { COUNTER_SPEC_FIELDS } from "@/lib/validation/jobs";
 import { type JobSpecInput, specMismatch } from "@/lib/validation/workshop";
@@ -192,6 +193,9 @@ export async function updateJobSettings(
   // No "ready" (or "collected") while a customer's request is neither done nor explained.
   await assertRequestsSettled(db, job, rest.status);
   const saved = await updateJob(db, job.id, version, { ...rest, spec: resolved.spec }, actor.id);
+  // The customer hears the job is ready when it first moves there (through the outbox).
+  if (saved.status === "ready" && job.status !== "ready")
+    await tellReadyToCollect(db, saved.id, actor.id);
   return { job: saved, notices: resolved.notices };
 }
 

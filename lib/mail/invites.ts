@@ -1,5 +1,6 @@
 import { createHash, randomBytes } from "node:crypto";
 import type { DB } from "@/db/client";
+import { findCounterSettings } from "@/db/counter-settings";
 import { findCustomerById } from "@/db/customers";
 import { ConflictError } from "@/db/errors";
 import {
@@ -12,6 +13,7 @@ import {
 import type { MailLogEntry } from "@/db/mail";
 import { createUser, findUserByEmail, type User } from "@/db/users";
 import { hashPassword } from "@/lib/auth/password";
+import { shopDateTime } from "@/lib/dates/shop-time";
 import { appBaseUrl, env } from "@/lib/env";
 import { HttpError } from "@/lib/http/errors";
 import type { AcceptInviteInput, NewInviteInput } from "@/lib/validation/invites";
@@ -23,10 +25,6 @@ export function hashInviteToken(token: string): string {
 
 /** Where links in e-mails point (one rule for the whole app: lib/env.ts). */
 export { appBaseUrl };
-
-function readableUtc(iso: string): string {
-  return `${iso.slice(0, 16).replace("T", " ")} UTC`;
-}
 
 /**
  * The counter or owner invites a customer: a one-time link (32 random bytes; only the SHA-256 is
@@ -65,6 +63,8 @@ export async function inviteCustomer(
     now,
   );
   const link = `${appBaseUrl()}/welcome?token=${token}`;
+  // The link's end as the shop's clock reads it (its time zone), with the zone named.
+  const until = shopDateTime(expiresAt, (await findCounterSettings(db)).timeZone);
   const mail = await sendMail(
     db,
     {
@@ -77,7 +77,7 @@ export async function inviteCustomer(
         "The shop has opened an account for you on Counterpoise, where you can follow your",
         "balancing jobs, read your balance cards and pay your invoices.",
         "",
-        `Set your password here. The link works once, until ${readableUtc(expiresAt)}:`,
+        `Set your password here. The link works once, until ${until}:`,
         link,
         "",
         "If you did not expect this message you can ignore it: nothing happens unless the link is used.",

@@ -10,6 +10,8 @@ import {
   type MailForSending,
   type MailLogEntry,
 } from "@/db/mail";
+import { findCounterSettings } from "@/db/counter-settings";
+import { findShopSettings } from "@/db/settings";
 import { env } from "@/lib/env";
 import { HttpError } from "@/lib/http/errors";
 import { emailField } from "@/lib/validation/users";
@@ -128,8 +130,10 @@ async function deliver(
   const transport = options.transport ?? createMailTransport();
   const { entry } = stored;
   try {
+    const sender = await shopSender(db);
     const info: SMTPTransport.SentMessageInfo = await transport.sendMail({
-      from: env().MAIL_FROM,
+      from: sender.from,
+      ...(sender.replyTo ? { replyTo: sender.replyTo } : {}),
       to: entry.to,
       subject: entry.subject,
       text: stored.text,
@@ -163,6 +167,25 @@ async function deliver(
   } finally {
     if (!options.transport) transport.close();
   }
+}
+
+/**
+ * Who the shop's e-mails come from: the sender name from the counter settings (else the shop's
+ * name) at MAIL_FROM's address (the one the mail server may send from), and replies to the
+ * counter settings' reply-to (else the shop's e-mail). MAIL_FROM as it is when the shop has no
+ * name of its own yet.
+ */
+export async function shopSender(
+  db: DB,
+): Promise<{ from: string | { name: string; address: string }; replyTo: string | null }> {
+  const [counter, shop] = await Promise.all([findCounterSettings(db), findShopSettings(db)]);
+  const configured = env().MAIL_FROM;
+  const address = /<([^>]+)>\s*$/.exec(configured)?.[1]?.trim() ?? configured.trim();
+  const name = counter.senderName?.trim() || (shop.version > 0 ? shop.shopName.trim() : "");
+  return {
+    from: name ? { name, address } : configured,
+    replyTo: counter.replyTo?.trim() || shop.email?.trim() || null,
+  };
 }
 
 /** nodemailer's errors carry a code (ECONNECTION, EENVELOPE…) and the server's reply. */

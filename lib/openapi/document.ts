@@ -28,6 +28,7 @@ import { acceptInviteSchema, newInviteSchema } from "@/lib/validation/invites";
 import { buildRequestNewSchema, buildRequestStateSchema } from "@/lib/build-record/request-schemas";
 import { BUILD_SECTIONS, sectionWriteSchema } from "@/lib/build-record/schemas";
 import { buildSettingsWriteSchema } from "@/lib/build-record/settings-schema";
+import { counterSettingsSchema } from "@/lib/validation/counter-settings";
 import {
   bookingSchema,
   pairingApplySchema,
@@ -335,6 +336,15 @@ export const API_PATHS: ZodOpenApiPathsObject = {
   "/api/settings/build": {
     get: op("The shop's build settings", undefined, undefined, none),
     put: op("Save the shop's build settings (owner)", buildSettingsWriteSchema, undefined, none),
+  },
+  "/api/settings/counter": {
+    get: op("How the shop's e-mails go out and its time zone", undefined, undefined, none),
+    put: op(
+      "Save the shop's e-mail settings and time zone (owner; with the version read)",
+      counterSettingsSchema,
+      undefined,
+      none,
+    ),
   },
 };
 

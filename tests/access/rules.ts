@@ -126,6 +126,8 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "DELETE /api/settings/logo": { allowed: OWNER },
   "GET /api/settings/build": { allowed: SHOP },
   "PUT /api/settings/build": { allowed: OWNER },
+  "GET /api/settings/counter": { allowed: SHOP },
+  "PUT /api/settings/counter": { allowed: OWNER },
   "GET /api/users": { allowed: OWNER },
   "POST /api/users": { allowed: OWNER },
   "GET /api/users/[id]": { allowed: OWNER },

@@ -24,6 +24,7 @@ describe(`migrations (${testEngine()})`, () => {
       "build_requests",
       "build_sections",
       "build_settings",
+      "counter_settings",
       "customers",
       "invites",
       "invoice_lines",

@@ -1,9 +1,11 @@
 import Link from "next/link";
 import { STATUS_LABEL } from "@/components/jobs/status";
 import { getDb } from "@/db/client";
+import { findCounterSettings } from "@/db/counter-settings";
 import { type Job, listJobs } from "@/db/jobs";
 import type { JobStatus } from "@/db/schema";
 import { requirePageUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { shopToday } from "@/lib/dates/shop-time";
 
 export const metadata = { title: "Bench board" };
 
@@ -38,7 +40,8 @@ function JobCard({ job, today }: { job: Job; today: string }) {
 export default async function BoardPage() {
   const user = await requirePageUser(SHOP_ROLES, "/board");
   const db = getDb();
-  const today = new Date().toISOString().slice(0, 10);
+  // "Today" and "overdue" on the shop's calendar, in its own time zone (not UTC's).
+  const today = shopToday((await findCounterSettings(db)).timeZone);
   const [bench, ready] = await Promise.all([
     listJobs(db, { statuses: BENCH, sort: "promised", limit: 200 }),
     listJobs(db, { status: "ready", sort: "promised", limit: 100 }),

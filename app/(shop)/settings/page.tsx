@@ -33,6 +33,14 @@ export default async function SettingsPage() {
         </Link>
         .
       </p>
+      <p className="text-sm">
+        Who the shop&apos;s e-mails to customers come from, their signature, which ones go out, and
+        the shop&apos;s time zone:{" "}
+        <Link href="/settings/counter" className="underline">
+          e-mails and time zone
+        </Link>
+        .
+      </p>
     </section>
   );
 }

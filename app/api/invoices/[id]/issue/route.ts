@@ -1,3 +1,4 @@
+import { tellInvoiceIssued } from "@/lib/mail/events";
 import { getDb } from "@/db/client";
 import { issueInvoice } from "@/db/invoices";
 import { requireApiUser } from "@/lib/auth/guard";
@@ -5,5 +6,7 @@ import { json, parseId, route } from "@/lib/http/route";
 
 export const POST = route<{ id: string }>(async (_req, { params }) => {
   const actor = await requireApiUser(["owner", "counter"]);
-  return json({ invoice: await issueInvoice(getDb(), parseId((await params).id), actor.id) });
+  const invoice = await issueInvoice(getDb(), parseId((await params).id), actor.id);
+  await tellInvoiceIssued(getDb(), invoice, actor.id); // through the outbox; never throws
+  return json({ invoice });
 });

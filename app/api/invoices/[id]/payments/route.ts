@@ -1,3 +1,4 @@
+import { tellPaymentReceived } from "@/lib/mail/events";
 import { getDb } from "@/db/client";
 import { recordManualPayment } from "@/db/payments";
 import { requireApiUser } from "@/lib/auth/guard";
@@ -17,5 +18,7 @@ export const POST = route<Params>(async (req, { params }) => {
   const actor = await requireApiUser(["owner", "counter"]);
   const id = parseId((await params).id);
   const input = await parseJson(req, manualPaymentSchema);
-  return json(await recordManualPayment(getDb(), id, input, actor.id), 201);
+  const recorded = await recordManualPayment(getDb(), id, input, actor.id);
+  await tellPaymentReceived(getDb(), id, input.amount, actor.id); // through the outbox; never throws
+  return json(recorded, 201);
 });

@@ -1,3 +1,4 @@
+import { tellQuoteOffered } from "@/lib/mail/events";
 import { getDb } from "@/db/client";
 import { moveQuote } from "@/db/quotes";
 import { requireApiUser } from "@/lib/auth/guard";
@@ -6,5 +7,7 @@ import { json, parseId, route } from "@/lib/http/route";
 export const POST = route<{ id: string }>(async (_req, { params }) => {
   const actor = await requireApiUser(["owner", "counter"]);
   const id = parseId((await params).id);
-  return json({ quote: await moveQuote(getDb(), id, "offer", actor.id) });
+  const quote = await moveQuote(getDb(), id, "offer", actor.id);
+  await tellQuoteOffered(getDb(), quote, actor.id); // through the outbox; never throws
+  return json({ quote });
 });
