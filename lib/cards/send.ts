@@ -1,6 +1,7 @@
 import type { DB } from "@/db/client";
 import { createAuditEntry } from "@/db/audit";
 import { findCard, findCardPdf } from "@/db/cards";
+import { findCounterSettings } from "@/db/counter-settings";
 import { findCustomerById } from "@/db/customers";
 import type { MailLogEntry } from "@/db/mail";
 import { findShopSettings } from "@/db/settings";
@@ -8,10 +9,11 @@ import type { User } from "@/db/users";
 import { HttpError } from "@/lib/http/errors";
 import { findJobForUser } from "@/lib/jobs/access";
 import { type SendOptions, sendMail } from "@/lib/mail/send";
+import { renderCustomerMail, signatureOf } from "@/lib/mail/templates";
 import type { SendCardInput } from "@/lib/validation/cards";
 import { formatCode } from "./code";
 import { CARD_MAIL_KIND } from "./list";
-import { cardFileName, cardVerifyUrl } from "./urls";
+import { appBaseUrl, cardFileName, cardVerifyUrl } from "./urls";
 
 export interface CardSendResult {
   /** True only when the SMTP server accepted the message. */
@@ -55,22 +57,23 @@ export async function sendCardByMail(
   }
 
   const code = formatCode(card.verificationCode);
-  const status = card.supersededAt
+  const standing = card.supersededAt
     ? `This is revision ${card.revision}; it has been replaced by revision ${card.supersededByRevision}.`
     : `This is revision ${card.revision}, the current card for the job.`;
-  const text = [
-    `Hello ${customer?.name ?? job.customerName},`,
-    "",
-    ...(input.message ? [input.message, ""] : []),
-    `Attached is the balance card for job ${job.number} (${job.engine}). ${status}`,
-    "",
-    `Anyone can confirm the card is genuine at ${cardVerifyUrl(card.verificationCode)}`,
-    `(verification code ${code}).`,
-    "",
-    "Follow the engine maker's figures and instructions when you assemble and run the engine.",
-    "",
-    settings.shopName,
-  ].join("\n");
+  // The shop's template and signature (lib/mail/templates.ts), with the sender's own words.
+  const content = renderCustomerMail({
+    kind: "balance-card",
+    customerName: customer?.name ?? job.customerName,
+    jobNumber: job.number,
+    engine: job.engine,
+    link: `${appBaseUrl()}/jobs/${job.id}`,
+    shopName: settings.shopName,
+    signature: signatureOf(settings, (await findCounterSettings(db)).signature),
+    note: input.message ?? null,
+    revision: card.revision,
+    verifyUrl: `${cardVerifyUrl(card.verificationCode)} (verification code ${code})`,
+    standing,
+  });
 
   const entry = await sendMail(
     db,
@@ -79,8 +82,7 @@ export async function sendCardByMail(
       jobId: job.id,
       createdBy: actor.id,
       to,
-      subject: `Balance card for job ${job.number} (revision ${card.revision})`,
-      text,
+      ...content,
       attachments: [
         {
           filename: cardFileName(job.number, card.revision),

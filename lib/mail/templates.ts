@@ -40,6 +40,8 @@ interface Common {
   shopName: string;
   /** The closing lines, already worked out from the shop's settings. */
   signature: string;
+  /** A few words from the person sending it, after the greeting. */
+  note?: string | null;
 }
 
 export type MailFacts =
@@ -52,7 +54,13 @@ export type MailFacts =
       owed: string | null;
     })
   | (Common & { kind: "ready-to-collect"; promised: string | null })
-  | (Common & { kind: "balance-card" | "card-reissued"; revision: number; verifyUrl: string });
+  | (Common & {
+      kind: "balance-card" | "card-reissued";
+      revision: number;
+      verifyUrl: string;
+      /** Whether this revision is the current card, or which one replaced it. */
+      standing?: string;
+    });
 
 function escapeHtml(text: string): string {
   return text
@@ -107,7 +115,7 @@ function paragraphs(f: MailFacts): { subject: string; lines: string[]; linkText:
       return {
         subject: `Balance card for job ${f.jobNumber} (revision ${f.revision})`,
         lines: [
-          `Attached is the balance card for ${job}, revision ${f.revision}.`,
+          `Attached is the balance card for ${job}, revision ${f.revision}.${f.standing ? ` ${f.standing}` : ""}`,
           `Anyone can confirm the card is genuine at ${f.verifyUrl}`,
           "Follow the engine maker's figures and instructions when you assemble and run the engine.",
         ],
@@ -138,17 +146,18 @@ function paragraphs(f: MailFacts): { subject: string; lines: string[]; linkText:
 export function renderCustomerMail(facts: MailFacts): MailContent {
   const { subject, lines, linkText } = paragraphs(facts);
   const greeting = `Hello ${facts.customerName},`;
+  const note = facts.note?.trim() ? [facts.note.trim()] : [];
   const text = [
     greeting,
     "",
-    ...lines.flatMap((l) => [l, ""]),
+    ...[...note, ...lines].flatMap((l) => [l, ""]),
     `${linkText}: ${facts.link}`,
     "",
     facts.signature,
   ].join("\n");
   const html = [
     `<p>${escapeHtml(greeting)}</p>`,
-    ...lines.map((l) => `<p>${escapeHtml(l)}</p>`),
+    ...[...note, ...lines].map((l) => `<p>${escapeHtml(l).replace(/\n/g, "<br>")}</p>`),
     `<p><a href="${escapeHtml(facts.link)}">${escapeHtml(linkText)}</a></p>`,
     `<p>${escapeHtml(facts.signature).replace(/\n/g, "<br>")}</p>`,
   ].join("\n");

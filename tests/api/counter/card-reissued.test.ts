@@ -47,6 +47,10 @@ describe("a re-issued balance card reaches the customer who had the earlier one"
 
     const messages = await mail.captured();
     expect(messages).toHaveLength(2);
+    // Revision 1, sent from the counter, goes out in the shop's template: text and HTML alike.
+    const first = messages.find((m) => m.subject?.startsWith("Balance card"))!;
+    expect(first.html).toContain(`Attached is the balance card for job ${job.number}`);
+    expect(first.text).toContain("This is revision 1, the current card for the job.");
     const reissued = messages.find((m) => m.subject?.startsWith("Re-issued"))!;
     expect(reissued.subject).toBe(`Re-issued balance card for job ${job.number} (revision 2)`);
     expect(reissued.text).toContain("replaces the card we sent before");
