@@ -20,3 +20,13 @@ export function useUpdateWorkshop(jobId: number) {
   return (update: (w: Workshop) => Workshop) =>
     client.setQueryData<Workshop>(workshopKey(jobId), (old) => (old ? update(old) : old));
 }
+
+/**
+ * Marks the bench record as needing the full plan again without fetching it now: a weight save
+ * answers the plan without the pairing search, and the next screen that needs the record (the
+ * removal plan with its pairing offer) fetches it when it opens.
+ */
+export function useMarkWorkshopStale(jobId: number) {
+  const client = useQueryClient();
+  return () => void client.invalidateQueries({ queryKey: workshopKey(jobId), refetchType: "none" });
+}

@@ -3,7 +3,7 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useMutation } from "@tanstack/react-query";
 import Decimal from "decimal.js";
-import { type KeyboardEvent, useEffect, useMemo, useRef, useState } from "react";
+import { type KeyboardEvent, useCallback, useEffect, useMemo, useRef, useState } from "react";
 import { useForm } from "react-hook-form";
 import { z } from "zod";
 import type { PartKind, WeighPhase } from "@/db/schema";
@@ -14,11 +14,11 @@ import { readingsTextSchema, readingsTextSchemaFor } from "@/lib/validation/read
 import { checkPartWeight } from "@/lib/workshop/outliers";
 import type { WorkshopPlan } from "@/lib/workshop/plan";
 import type { Workshop } from "@/lib/workshop/load";
-import { WEIGH_COLUMNS } from "./part-kinds";
-import { useUpdateWorkshop, useWorkshop } from "./use-workshop";
+import { KIND_LABEL, WEIGH_COLUMNS } from "./part-kinds";
+import { useMarkWorkshopStale, useUpdateWorkshop, useWorkshop } from "./use-workshop";
 
 type CellState = {
-  state: "saving" | "saved" | "error" | "conflict" | "held";
+  state: "saving" | "saved" | "error" | "conflict" | "held" | "queued";
   message?: string;
   theirs?: string;
   /** For "held": the readings the server would not use until they are confirmed. */
@@ -34,7 +34,78 @@ type CommitOptions = {
 };
 type Order = "by-kind" | "by-cylinder";
 
+/**
+ * A save the server did not receive (the network dropped): kept on this PC and sent again, with
+ * the version it was based on, so a part changed elsewhere meanwhile still gets the conflict view.
+ */
+export interface QueuedSave {
+  name: string;
+  phase: WeighPhase;
+  cylinder: number;
+  kind: PartKind;
+  readings: string[];
+  version: number;
+  confirm?: boolean;
+  /** Set when it came back refused while another weighing was on screen: shown there. */
+  problem?: string;
+}
+
 const fieldName = (cylinder: number, kind: PartKind) => `c${cylinder}_${kind}`;
+const queueId = (phase: WeighPhase, name: string) => `${phase}:${name}`;
+
+/** Where the unsaved weights of one job and weighing are kept between visits (localStorage). */
+export const queueStorageKey = (jobId: number, phase: WeighPhase) =>
+  `counterpoise:weigh-queue:${jobId}:${phase}`;
+const PHASES: WeighPhase[] = ["initial", "final"];
+
+function readQueue(jobId: number): Record<string, QueuedSave> {
+  const queue: Record<string, QueuedSave> = {};
+  for (const phase of PHASES) {
+    try {
+      const raw = window.localStorage.getItem(queueStorageKey(jobId, phase));
+      const entries = raw ? (JSON.parse(raw) as QueuedSave[]) : [];
+      for (const e of Array.isArray(entries) ? entries : [])
+        if (e && e.phase === phase && Array.isArray(e.readings)) queue[queueId(phase, e.name)] = e;
+    } catch {
+      // Unreadable storage (private window, full disk): nothing kept to restore.
+    }
+  }
+  return queue;
+}
+
+function writeQueue(jobId: number, queue: Record<string, QueuedSave>) {
+  for (const phase of PHASES) {
+    const entries = Object.values(queue).filter((e) => e.phase === phase);
+    try {
+      if (entries.length === 0) window.localStorage.removeItem(queueStorageKey(jobId, phase));
+      else window.localStorage.setItem(queueStorageKey(jobId, phase), JSON.stringify(entries));
+    } catch {
+      // Storage refused: the queue still lives in this page and the leave warning still asks.
+    }
+  }
+}
+
+/** The request never reached the server, or a gateway said it was away: worth trying again. */
+function isNetworkFailure(error: unknown) {
+  if (!(error instanceof ApiError)) return true;
+  return [0, 408, 502, 503, 504].includes(error.status);
+}
+
+/**
+ * The parts the re-weigh walks: those the plan has machined (to take metal off, done, still to
+ * take off, over-machined). Empty when there is no plan yet: then every part is walked.
+ */
+function machinedNames(plan: WorkshopPlan): Set<string> {
+  const names = new Set<string>();
+  for (const part of plan.removal?.parts ?? [])
+    if (part.status === "remove") names.add(fieldName(part.cylinder, part.kind));
+  for (const [key, progress] of Object.entries(plan.progress ?? {})) {
+    if (progress.state === "reselect") continue;
+    const [cylinder, kind] = key.split(":");
+    names.add(fieldName(Number(cylinder), kind as PartKind));
+  }
+  return names;
+}
 
 function cellText(weights: PartWeight[], phase: WeighPhase, cylinder: number, kind: PartKind) {
   return (
@@ -61,34 +132,53 @@ function spreadOf(text: string, rule = readingsTextSchema): string | null {
  * (422 "outlier") until it is confirmed. When the grid sees one coming on Enter it stays on the
  * part, sends it, and puts the server's answer with a "Keep" button in front of the machinist:
  * Enter keeps the readings as read (sent again with `confirmOutlier`), Escape goes back to retype.
+ *
+ * On the shop floor: the grid opens in the first part still to weigh; after machining, Enter walks
+ * only the parts the plan machined. A save the network drops is kept on this PC (localStorage, by
+ * job and weighing, with the version it was based on) and sent again with a growing wait, the
+ * count of unsaved weights on screen; leaving with any asks first. At phone width each cylinder is
+ * a card, with the same boxes in the same order.
  */
 export function WeighGrid({
   jobId,
   initial,
   canEdit,
+  retryBaseMs = 2000,
 }: {
   jobId: number;
   initial: Workshop;
   canEdit: boolean;
+  /** The first wait before a save the network dropped is sent again; it doubles up to 30 s. */
+  retryBaseMs?: number;
 }) {
   const { data } = useWorkshop(jobId, initial);
   const workshop = data ?? initial;
   const update = useUpdateWorkshop(jobId);
+  const markStale = useMarkWorkshopStale(jobId);
   const cylinders = Array.from({ length: workshop.job.spec.cylinders ?? 0 }, (_, i) => i + 1);
   const [phase, setPhase] = useState<WeighPhase>("initial");
+  // The phase on screen, for answers that arrive after the machinist switched.
+  const phaseRef = useRef<WeighPhase>("initial");
   const [order, setOrder] = useState<Order>(workshop.job.spec.benchOrder);
   const [cells, setCells] = useState<Record<string, CellState>>({});
   const [announce, setAnnounce] = useState("");
   // Set once the grid is live in the browser: typing before that would be lost to hydration.
   const [ready, setReady] = useState(false);
-  useEffect(() => setReady(true), []);
   const inputs = useRef<Record<string, HTMLInputElement | null>>({});
   // What the server holds for each cell of this phase: read synchronously between Enter and blur.
   const saved = useRef<Record<string, { text: string; version: number }>>({});
+  // Readings on their way to the server, by phase and cell.
   const inflight = useRef<Record<string, string>>({});
   // Readings the server held: the blur that follows moving to "Keep" must not send them again.
   const held = useRef<Record<string, string>>({});
   const keepButtons = useRef<Record<string, HTMLButtonElement | null>>({});
+  // Saves the network dropped, by phase and cell; mirrored in localStorage.
+  const [queue, setQueueState] = useState<Record<string, QueuedSave>>({});
+  const queueRef = useRef<Record<string, QueuedSave>>({});
+  const attempts = useRef(0);
+  const retryTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
+  const draining = useRef(false);
+  const [nextTry, setNextTry] = useState<number | null>(null);
   const unit = workshop.job.spec.massUnit;
   // What a keyboard-wedge scale types ("+ 498.6 g") is read too, in the job's unit.
   const readingRule = useMemo(() => readingsTextSchemaFor(unit), [unit]);
@@ -113,6 +203,9 @@ export function WeighGrid({
         const found = weights.find((w) => w.phase === p && w.cylinder === c && w.kind === col.kind);
         values[name] = found?.readings.join(" ") ?? "";
         saved.current[name] = { text: values[name], version: found?.version ?? 0 };
+        // A weight typed here but not saved yet shows as typed.
+        const queued = queueRef.current[queueId(p, name)];
+        if (queued) values[name] = queued.readings.join(" ");
       }
     }
     return values;
@@ -124,80 +217,185 @@ export function WeighGrid({
     mode: "onChange",
   });
 
-  const sequence = useMemo(() => {
+  const machined = useMemo(() => machinedNames(workshop.plan), [workshop.plan]);
+  const fullOrder = useMemo(() => {
     const kinds = WEIGH_COLUMNS.map((c) => c.kind);
     return order === "by-kind"
       ? kinds.flatMap((k) => cylinders.map((c) => fieldName(c, k)))
       : cylinders.flatMap((c) => kinds.map((k) => fieldName(c, k)));
-  }, [order, cylinders]);
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [order, cylinders.length]);
+  /** Where Enter goes: every part on the first weigh; after machining, the machined parts only. */
+  const sequenceFor = useCallback(
+    (p: WeighPhase) => {
+      if (p !== "final") return fullOrder;
+      const walk = fullOrder.filter((n) => machined.has(n));
+      return walk.length > 0 ? walk : fullOrder;
+    },
+    [fullOrder, machined],
+  );
+  const sequence = useMemo(() => sequenceFor(phase), [sequenceFor, phase]);
 
   const save = useMutation({
     mutationFn: (body: {
       cylinder: number;
       kind: PartKind;
+      phase: WeighPhase;
       readings: string[];
       version: number;
       confirmOutlier?: true;
     }) =>
       apiFetch<{ weight: PartWeight | null; plan: WorkshopPlan }>(`/api/jobs/${jobId}/weights`, {
         method: "PUT",
-        body: { ...body, phase },
+        body,
       }),
   });
 
   const versionOf = (cylinder: number, kind: PartKind) =>
     saved.current[fieldName(cylinder, kind)]?.version ?? 0;
 
-  async function commit(cylinder: number, kind: PartKind, options: CommitOptions = {}) {
-    const name = fieldName(cylinder, kind);
-    const text = form.getValues(name) ?? "";
-    const parsed = readingRule.safeParse(text);
-    if (!parsed.success) {
-      await form.trigger(name);
-      return false;
+  function setQueue(change: (q: Record<string, QueuedSave>) => Record<string, QueuedSave>) {
+    const next = change(queueRef.current);
+    queueRef.current = next;
+    setQueueState(next);
+    writeQueue(jobId, next);
+  }
+  const sameSave = (a: QueuedSave | undefined, b: QueuedSave) =>
+    a !== undefined && a.readings.join(" ") === b.readings.join(" ") && a.version === b.version;
+  /** Takes a save off the queue once answered, unless a newer one for the part replaced it. */
+  function dequeue(entry: QueuedSave) {
+    const id = queueId(entry.phase, entry.name);
+    if (!sameSave(queueRef.current[id], entry)) return;
+    setQueue((q) => {
+      const rest = { ...q };
+      delete rest[id];
+      return rest;
+    });
+  }
+  function enqueue(entry: QueuedSave) {
+    setQueue((q) => ({ ...q, [queueId(entry.phase, entry.name)]: entry }));
+  }
+
+  function scheduleRetry() {
+    if (retryTimer.current) return;
+    attempts.current += 1;
+    const delay = Math.min(30_000, retryBaseMs * 2 ** (attempts.current - 1));
+    setNextTry(Math.max(1, Math.round(delay / 1000)));
+    retryTimer.current = setTimeout(() => {
+      retryTimer.current = null;
+      void drain();
+    }, delay);
+  }
+
+  /** Sends the queued saves one at a time; stops at the first the network drops again. */
+  async function drain() {
+    if (retryTimer.current) clearTimeout(retryTimer.current);
+    retryTimer.current = null;
+    if (draining.current) return;
+    draining.current = true;
+    setNextTry(null);
+    try {
+      for (const [id, entry] of Object.entries(queueRef.current)) {
+        if (!queueRef.current[id] || inflight.current[id] !== undefined) continue;
+        if (entry.problem && entry.phase !== phaseRef.current) continue;
+        const { problem: _problem, ...fresh } = entry;
+        const ok = await send(fresh);
+        if (!ok && retryTimer.current) return; // still unreachable: the next try is set
+      }
+      attempts.current = 0;
+    } finally {
+      draining.current = false;
     }
-    const readings = parsed.data;
-    const joined = readings.join(" ");
-    const forced = options.version !== undefined || options.confirm === true;
-    // Enter moves on at once and the blur saves; a second call for the same text is not a new write.
-    if (!forced && (joined === saved.current[name]?.text || joined === inflight.current[name]))
-      return true;
-    // Held readings wait for "Keep" or a retype; leaving the box does not send them again.
-    if (!forced && joined === held.current[name]) return false;
-    delete held.current[name];
-    inflight.current[name] = joined;
-    setCells((s) => ({ ...s, [name]: { state: "saving" } }));
+  }
+
+  /**
+   * One save to the server and what its answer means for the cell. A save the network drops is
+   * queued (kept on this PC) and tried again; every other answer is shown on the cell.
+   */
+  async function send(entry: QueuedSave, options: { focusHeld?: boolean } = {}) {
+    const { name, cylinder, kind } = entry;
+    const id = queueId(entry.phase, name);
+    const joined = entry.readings.join(" ");
+    const here = () => entry.phase === phaseRef.current;
+    const text = here() ? (form.getValues(name) ?? joined) : joined;
+    inflight.current[id] = joined;
+    if (here()) setCells((s) => ({ ...s, [name]: { state: "saving" } }));
     try {
       const result = await save.mutateAsync({
         cylinder,
         kind,
-        readings,
-        version: options.version ?? versionOf(cylinder, kind),
-        ...(options.confirm ? { confirmOutlier: true as const } : {}),
+        phase: entry.phase,
+        readings: entry.readings,
+        version: entry.version,
+        ...(entry.confirm ? { confirmOutlier: true as const } : {}),
       });
-      saved.current[name] = { text: joined, version: result.weight?.version ?? 0 };
+      dequeue(entry);
+      if (here()) saved.current[name] = { text: joined, version: result.weight?.version ?? 0 };
       update((w) => ({
         ...w,
         plan: result.plan,
         weights: [
           ...w.weights.filter(
-            (x) => !(x.phase === phase && x.cylinder === cylinder && x.kind === kind),
+            (x) => !(x.phase === entry.phase && x.cylinder === cylinder && x.kind === kind),
           ),
           ...(result.weight ? [result.weight] : []),
         ],
       }));
-      setCells((s) => ({ ...s, [name]: { state: "saved" } }));
+      // The answer's plan leaves out the pairing search: the plan page fetches it when opened.
+      if (result.plan.pairingDeferred) markStale();
+      if (here()) setCells((s) => ({ ...s, [name]: { state: "saved" } }));
       setAnnounce(`Cylinder ${cylinder} ${kind}: saved`);
+      // The server answers again: send what the network dropped before.
+      attempts.current = 0;
+      if (Object.keys(queueRef.current).length > 0 && !draining.current)
+        setTimeout(() => void drain(), 0);
       return true;
     } catch (error) {
+      if (isNetworkFailure(error)) {
+        enqueue(entry);
+        if (here())
+          setCells((s) => ({
+            ...s,
+            [name]: {
+              state: "queued",
+              message:
+                "Not saved yet: the server could not be reached. Kept on this PC, sent again shortly.",
+            },
+          }));
+        setAnnounce(`Cylinder ${cylinder} ${kind}: not saved yet, kept on this PC`);
+        scheduleRetry();
+        return false;
+      }
+      if (!here()) {
+        // Refused while the other weighing is on screen: kept, and shown when it is opened.
+        const message = error instanceof Error ? error.message : "Not saved.";
+        if (queueRef.current[id]) enqueue({ ...entry, problem: message });
+        return false;
+      }
+      dequeue(entry);
       if (error instanceof ApiError && error.status === 409) {
-        const fresh = await apiFetch<Workshop>(`/api/jobs/${jobId}/workshop`);
+        const fresh = await apiFetch<Workshop>(`/api/jobs/${jobId}/workshop`).catch(() => null);
+        if (!fresh) {
+          setCells((s) => ({
+            ...s,
+            [name]: {
+              state: "error",
+              message: "Changed elsewhere; reload to see the saved weight.",
+            },
+          }));
+          return false;
+        }
         update(() => fresh);
-        const theirs = cellText(fresh.weights, phase, cylinder, kind);
+        const theirs = cellText(fresh.weights, entry.phase, cylinder, kind);
         const current = fresh.weights.find(
-          (w) => w.phase === phase && w.cylinder === cylinder && w.kind === kind,
+          (w) => w.phase === entry.phase && w.cylinder === cylinder && w.kind === kind,
         );
         saved.current[name] = { text: theirs, version: current?.version ?? 0 };
+        if (theirs === joined) {
+          // The same readings reached the server before (a save answered after the page left).
+          setCells((s) => ({ ...s, [name]: { state: "saved" } }));
+          return true;
+        }
         setCells((s) => ({
           ...s,
           [name]: {
@@ -227,17 +425,177 @@ export function WeighGrid({
       const message =
         error instanceof ApiError
           ? (Object.values(error.fields)[0] ?? error.message)
-          : "Not saved: the server could not be reached.";
+          : "Not saved.";
       setCells((s) => ({ ...s, [name]: { state: "error", message } }));
       setAnnounce(`Cylinder ${cylinder} ${kind}: not saved`);
       return false;
     } finally {
-      delete inflight.current[name];
+      delete inflight.current[id];
     }
   }
 
-  const nextAfter = (name: string, back = false) =>
-    sequence[sequence.indexOf(name) + (back ? -1 : 1)];
+  async function commit(cylinder: number, kind: PartKind, options: CommitOptions = {}) {
+    const name = fieldName(cylinder, kind);
+    const id = queueId(phase, name);
+    const text = form.getValues(name) ?? "";
+    const parsed = readingRule.safeParse(text);
+    if (!parsed.success) {
+      await form.trigger(name);
+      return false;
+    }
+    const readings = parsed.data;
+    const joined = readings.join(" ");
+    const forced = options.version !== undefined || options.confirm === true;
+    const queued = queueRef.current[id];
+    if (!forced && joined === saved.current[name]?.text) {
+      // Typed back to what the server holds: nothing is left to send.
+      if (queued) {
+        dequeue(queued);
+        setCells((s) => ({ ...s, [name]: { state: "saved" } }));
+      }
+      return true;
+    }
+    // Enter moves on at once and the blur saves; a second call for the same text is not a new write.
+    if (!forced && joined === inflight.current[id]) return true;
+    // Already queued as it stands: the retry sends it.
+    if (!forced && queued && queued.readings.join(" ") === joined) return false;
+    // Held readings wait for "Keep" or a retype; leaving the box does not send them again.
+    if (!forced && joined === held.current[name]) return false;
+    delete held.current[name];
+    return send(
+      {
+        name,
+        phase,
+        cylinder,
+        kind,
+        readings,
+        version: options.version ?? versionOf(cylinder, kind),
+        ...(options.confirm ? { confirm: true } : {}),
+      },
+      { focusHeld: options.focusHeld },
+    );
+  }
+
+  /** The next part Enter goes to (or Shift+Enter back to), from any cell, walked or not. */
+  const nextAfter = (name: string, back = false) => {
+    const at = fullOrder.indexOf(name);
+    const walk = sequence.filter((n) =>
+      back ? fullOrder.indexOf(n) < at : fullOrder.indexOf(n) > at,
+    );
+    return back ? walk.at(-1) : walk[0];
+  };
+
+  /** The cell to start in: the first part still to weigh (re-weigh) in Enter's order. */
+  function firstCell(p: WeighPhase) {
+    const walk = sequenceFor(p);
+    const missing = new Set(workshop.plan.missing.map((m) => fieldName(m.cylinder, m.kind)));
+    const unweighed = (n: string) => !saved.current[n]?.text;
+    return (
+      (p === "initial" ? walk.find((n) => missing.has(n) && unweighed(n)) : undefined) ??
+      walk.find(unweighed) ??
+      walk[0]
+    );
+  }
+
+  /** Cells typed into but neither saved, on their way, nor queued (by name, this phase). */
+  function dirtyNames() {
+    return fullOrder.filter((name) => {
+      const parsed = readingRule.safeParse(form.getValues(name) ?? "");
+      if (!parsed.success) return (form.getValues(name) ?? "") !== saved.current[name]?.text;
+      const joined = parsed.data.join(" ");
+      const id = queueId(phaseRef.current, name);
+      return (
+        joined !== saved.current[name]?.text &&
+        joined !== inflight.current[id] &&
+        joined !== queueRef.current[id]?.readings.join(" ")
+      );
+    });
+  }
+
+  // Restore what the network dropped before a reload, start in the first part to weigh, and
+  // send the queue again whenever the browser says it is back online.
+  useEffect(() => {
+    setReady(true);
+    const restored = readQueue(jobId);
+    if (Object.keys(restored).length > 0) {
+      queueRef.current = restored;
+      setQueueState(restored);
+      const here = Object.values(restored).filter((e) => e.phase === phaseRef.current);
+      for (const e of here) form.setValue(e.name, e.readings.join(" "));
+      setCells((s) => ({
+        ...s,
+        ...Object.fromEntries(
+          here.map((e) => [
+            e.name,
+            { state: "queued" as const, message: "Not saved yet: sending again." },
+          ]),
+        ),
+      }));
+      void drain();
+    }
+    if (canEdit && (!document.activeElement || document.activeElement === document.body)) {
+      const first = firstCell(phaseRef.current);
+      if (first) inputs.current[first]?.focus();
+    }
+    const online = () => void drain();
+    window.addEventListener("online", online);
+    return () => {
+      window.removeEventListener("online", online);
+      if (retryTimer.current) clearTimeout(retryTimer.current);
+      retryTimer.current = null;
+    };
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
+
+  // Leaving with weights not saved asks first: a reload or closing the tab (beforeunload) and
+  // links inside the app (they do not unload the page). What was typed is kept on this PC.
+  useEffect(() => {
+    if (!canEdit) return;
+    const beforeUnload = (event: BeforeUnloadEvent) => {
+      const dirty = dirtyNames();
+      for (const name of dirty) {
+        const parsed = readingRule.safeParse(form.getValues(name) ?? "");
+        if (!parsed.success) continue;
+        const [, c, kind] = /^c(\d+)_(.+)$/.exec(name) ?? [];
+        enqueue({
+          name,
+          phase: phaseRef.current,
+          cylinder: Number(c),
+          kind: kind as PartKind,
+          readings: parsed.data,
+          version: saved.current[name]?.version ?? 0,
+        });
+      }
+      const waiting =
+        Object.keys(queueRef.current).length + Object.keys(inflight.current).length + dirty.length;
+      if (waiting === 0) return;
+      event.preventDefault();
+      // Older browsers ask only when returnValue is set.
+      event.returnValue = "";
+    };
+    const onClick = (event: MouseEvent) => {
+      if (event.defaultPrevented || event.button !== 0) return;
+      if (event.metaKey || event.ctrlKey || event.shiftKey || event.altKey) return;
+      const link = (event.target as Element | null)?.closest?.("a[href]");
+      if (!(link instanceof HTMLAnchorElement)) return;
+      if (link.target === "_blank" || link.hasAttribute("download")) return;
+      const count = Object.keys(queueRef.current).length + dirtyNames().length;
+      if (count === 0) return;
+      const ok = window.confirm(
+        `${count} weight${count === 1 ? " is" : "s are"} not saved yet (the server could not be reached). ` +
+          "They are kept on this PC and sent when the weigh-in is open again. Leave the weigh-in?",
+      );
+      if (ok) return;
+      event.preventDefault();
+      event.stopPropagation();
+    };
+    window.addEventListener("beforeunload", beforeUnload);
+    window.addEventListener("click", onClick, true);
+    return () => {
+      window.removeEventListener("beforeunload", beforeUnload);
+      window.removeEventListener("click", onClick, true);
+    };
+  });
 
   /** The same rule as the server, on what this grid knows: worth waiting for its answer? */
   function looksHeld(cylinder: number, kind: PartKind, readings: string[]) {
@@ -331,12 +689,29 @@ export function WeighGrid({
     }
   }
   const heldNames = new Set(heldParts.map((h) => h.name));
+  const queuedSaves = Object.values(queue);
 
   function switchPhase(p: WeighPhase) {
+    phaseRef.current = p;
     setPhase(p);
-    setCells({});
     held.current = {};
     form.reset(defaults(p));
+    // What the network dropped for this weighing shows as such; refusals kept for it are sent again.
+    const here = Object.values(queueRef.current).filter((e) => e.phase === p);
+    setCells(
+      Object.fromEntries(
+        here.map((e) => [
+          e.name,
+          { state: "queued" as const, message: "Not saved yet: sending again." },
+        ]),
+      ),
+    );
+    if (here.some((e) => e.problem)) void drain();
+    // Into the grid at the first part to weigh (after machining: the first machined part).
+    setTimeout(() => {
+      const first = firstCell(p);
+      if (first && canEdit) inputs.current[first]?.focus();
+    }, 0);
   }
 
   function keepTheirs(cylinder: number, kind: PartKind) {
@@ -392,13 +767,46 @@ export function WeighGrid({
         </div>
       </div>
 
-      <div className="panel overflow-x-auto">
+      {phase === "final" && sequence.length < fullOrder.length ? (
+        <p className="text-sm text-graphite-600" data-testid="reweigh-walk">
+          Enter walks the {sequence.length} part{sequence.length === 1 ? "" : "s"} the plan
+          machined; click any other box to re-weigh it too.
+        </p>
+      ) : null}
+      {queuedSaves.length > 0 ? (
+        <div
+          role="status"
+          className="space-y-1 rounded border border-machine/40 bg-amber-50 p-3 text-sm"
+          data-testid="unsaved-weights"
+        >
+          <p>
+            <strong>
+              {queuedSaves.length} weight{queuedSaves.length === 1 ? "" : "s"} not saved yet
+            </strong>
+            : the server could not be reached. Kept on this PC and sent again{" "}
+            {nextTry !== null ? `in about ${nextTry} s` : "now"}.{" "}
+            <button type="button" className="underline" onClick={() => void drain()}>
+              Retry now
+            </button>
+          </p>
+          {queuedSaves
+            .filter((e) => e.problem)
+            .map((e) => (
+              <p key={queueId(e.phase, e.name)} className="text-replace">
+                Cylinder {e.cylinder} {KIND_LABEL[e.kind].toLowerCase()} (
+                {e.phase === "initial" ? "first weigh" : "after machining"}): {e.problem} Open that
+                weighing to settle it.
+              </p>
+            ))}
+        </div>
+      ) : null}
+      <div className="panel overflow-x-auto max-[480px]:overflow-visible max-[480px]:border-0 max-[480px]:bg-transparent max-[480px]:shadow-none">
         <table
-          className="w-full border-collapse text-sm"
+          className="w-full border-collapse text-sm max-[480px]:block"
           data-testid="weigh-grid"
           data-ready={ready ? "true" : "false"}
         >
-          <thead className="bg-graphite-50 text-graphite-600">
+          <thead className="bg-graphite-50 text-graphite-600 max-[480px]:hidden">
             <tr>
               <th scope="col" className="px-2 py-2 text-left font-semibold">
                 Cyl.
@@ -418,10 +826,18 @@ export function WeighGrid({
               ))}
             </tr>
           </thead>
-          <tbody>
+          <tbody className="max-[480px]:block max-[480px]:space-y-3">
             {cylinders.map((c) => (
-              <tr key={c} className="border-t border-graphite-100">
-                <th scope="row" className="px-2 py-1 text-left font-mono text-base">
+              <tr
+                key={c}
+                data-testid={`cylinder-${c}`}
+                className="border-t border-graphite-100 max-[480px]:grid max-[480px]:grid-cols-2 max-[480px]:gap-x-2 max-[480px]:rounded max-[480px]:border max-[480px]:border-graphite-200 max-[480px]:bg-white max-[480px]:p-2"
+              >
+                <th
+                  scope="row"
+                  className="px-2 py-1 text-left font-mono text-base max-[480px]:col-span-2 max-[480px]:font-sans max-[480px]:font-semibold"
+                >
+                  <span className="hidden max-[480px]:inline">Cylinder </span>
                   {c}
                 </th>
                 {WEIGH_COLUMNS.map((col) => {
@@ -432,7 +848,14 @@ export function WeighGrid({
                   const spread = spreadOf(value, readingRule);
                   const reg = form.register(name);
                   return (
-                    <td key={col.kind} className="px-1 py-1 align-top">
+                    <td key={col.kind} className="px-1 py-1 align-top max-[480px]:block">
+                      <span
+                        aria-hidden="true"
+                        className="hidden text-xs text-graphite-600 max-[480px]:block"
+                      >
+                        {col.label}
+                        {col.optional ? " (opt.)" : ""}
+                      </span>
                       <input
                         {...reg}
                         ref={(el) => {
@@ -453,12 +876,18 @@ export function WeighGrid({
                           void reg.onBlur(e);
                           if (canEdit) void commit(c, col.kind);
                         }}
-                        className={`w-24 rounded border px-2 py-1.5 font-mono text-base ${
+                        // As wide as what is typed (monospace: one ch per character), never
+                        // narrower than a single reading; a whole card's width on a phone.
+                        style={{ ["--cell-ch" as string]: Math.max(7, value.length + 1) }}
+                        data-width-ch={Math.max(7, value.length + 1)}
+                        className={`w-[calc(var(--cell-ch)*1ch+1rem+2px)] rounded border px-2 py-1.5 font-mono text-base max-[480px]:w-full ${
                           cell?.state === "conflict" || cell?.state === "error" || error
                             ? "border-replace bg-red-50"
-                            : cell?.state === "saved"
-                              ? "border-within/60"
-                              : "border-graphite-300"
+                            : cell?.state === "queued"
+                              ? "border-machine bg-amber-50"
+                              : cell?.state === "saved"
+                                ? "border-within/60"
+                                : "border-graphite-300"
                         }`}
                       />
                       <div className="min-h-4 text-xs" data-testid={`cell-note-${name}`}>
@@ -471,6 +900,9 @@ export function WeighGrid({
                         ) : null}
                         {cell?.state === "error" ? (
                           <span className="text-replace">{cell.message}</span>
+                        ) : null}
+                        {cell?.state === "queued" ? (
+                          <span className="text-machine">not saved yet: retrying</span>
                         ) : null}
                         {heldNames.has(name) ? (
                           <span className="font-semibold text-machine">held: confirm below</span>

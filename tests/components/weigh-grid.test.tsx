@@ -52,6 +52,7 @@ let calls: Call[];
 let answer: (call: Call) => { status: number; body: unknown };
 
 beforeEach(() => {
+  localStorage.clear();
   calls = [];
   answer = (call) => ({
     status: 200,
@@ -76,13 +77,16 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-function renderGrid(start: Workshop = initial) {
+function renderGrid(start: Workshop = initial, retryBaseMs?: number) {
   const client = new QueryClient({
     defaultOptions: { queries: { retry: false, staleTime: Infinity } },
   });
   render(
     <QueryClientProvider client={client}>
-      <WeighGrid jobId={job.id} initial={start} canEdit />
+      {/* Any link of the app (next/link renders an <a> too); the grid watches clicks on links. */}
+      {/* eslint-disable-next-line @next/next/no-html-link-for-pages */}
+      <a href="/jobs/7/plan">Metal to remove</a>
+      <WeighGrid jobId={job.id} initial={start} canEdit retryBaseMs={retryBaseMs} />
     </QueryClientProvider>,
   );
   return userEvent.setup();
@@ -300,5 +304,268 @@ describe("a weight far from the rest of its kind", () => {
       ),
     );
     expect(puts()).toHaveLength(0);
+  });
+});
+
+const weight = (cylinder: number, kind: string, value: string, phase = "initial") => ({
+  cylinder,
+  kind: kind as Workshop["weights"][number]["kind"],
+  phase: phase as "initial" | "final",
+  readings: [value],
+  confirmedOutlier: false,
+  version: 1,
+  updatedAt: "now",
+});
+
+describe("where the grid starts", () => {
+  it("puts the cursor in the first part still to weigh on load, no Tab needed", async () => {
+    renderGrid();
+    await waitFor(() => expect(document.activeElement).toBe(cell(1, "Piston")));
+  });
+
+  it("skips parts already weighed (Enter's order: all pistons first)", async () => {
+    renderGrid({ ...initial, weights: [weight(1, "piston", "498.6")] });
+    await waitFor(() => expect(document.activeElement).toBe(cell(2, "Piston")));
+  });
+});
+
+describe("the re-weigh after machining", () => {
+  // The plan machined cylinder 1's piston and cylinder 2's big end; the rest was in the band.
+  const part = (cylinder: number, kind: string, status: string) => ({
+    cylinder,
+    kind,
+    status,
+    measured: "0",
+    remove: "0",
+    final: "0",
+  });
+  const machinedPlan = {
+    ...emptyPlan,
+    complete: true,
+    removal: {
+      parts: [
+        part(1, "piston", "remove"),
+        part(2, "piston", "ok"),
+        part(1, "wristPin", "ok"),
+        part(2, "wristPin", "ok"),
+        part(1, "smallEnd", "ok"),
+        part(2, "smallEnd", "ok"),
+        part(1, "bigEnd", "ok"),
+        part(2, "bigEnd", "remove"),
+      ],
+    },
+    progress: {
+      "1:piston": { state: "to-do" as const, amount: "0.7" },
+      "2:bigEnd": { state: "to-do" as const, amount: "1.4" },
+    },
+  } as unknown as Workshop["plan"];
+
+  it("starts in the first machined part and Enter walks only the machined parts", async () => {
+    answer = (call) => ({
+      status: 200,
+      body: { weight: { ...call.body, version: 1, updatedAt: "now" }, plan: machinedPlan },
+    });
+    const user = renderGrid({ ...initial, plan: machinedPlan });
+    await user.click(screen.getByLabelText("After machining"));
+    await waitFor(() => expect(document.activeElement).toBe(cell(1, "Piston")));
+    expect(screen.getByTestId("reweigh-walk").textContent).toContain("2 parts the plan machined");
+    await user.keyboard("497.9{Enter}");
+    // 14 boxes lie between them in the column order (pins, retainers, rings, small ends, c1's
+    // big end): none of them is visited.
+    expect(document.activeElement).toBe(cell(2, "Rod big end"));
+    await user.keyboard("451.1{Enter}");
+    await waitFor(() => expect(puts()).toHaveLength(2));
+    expect(puts()).toEqual([
+      { cylinder: 1, kind: "piston", readings: ["497.9"], version: 0, phase: "final" },
+      { cylinder: 2, kind: "bigEnd", readings: ["451.1"], version: 0, phase: "final" },
+    ]);
+  });
+
+  it("lets Enter from a part outside the walk go on to the next machined part", async () => {
+    const user = renderGrid({ ...initial, plan: machinedPlan });
+    await user.click(screen.getByLabelText("After machining"));
+    await user.click(cell(1, "Wrist pin"));
+    await user.keyboard("142.2{Enter}");
+    expect(document.activeElement).toBe(cell(2, "Rod big end"));
+  });
+});
+
+describe("a save the network drops", () => {
+  const down = () => {
+    throw new TypeError("Failed to fetch");
+  };
+  const stored = (phase = "initial") =>
+    JSON.parse(localStorage.getItem(`counterpoise:weigh-queue:7:${phase}`) ?? "[]");
+
+  it("is kept on this PC with the version it was based on, counted, and sent on Retry", async () => {
+    let online = false;
+    const up = answer;
+    answer = (call) => (call.method === "PUT" && !online ? down() : up(call));
+    const user = renderGrid();
+    await user.click(cell(1, "Piston"));
+    await user.keyboard("498.6{Enter}497.9{Enter}");
+    await waitFor(() =>
+      expect(screen.getByTestId("unsaved-weights").textContent).toContain(
+        "2 weights not saved yet",
+      ),
+    );
+    expect(screen.getByTestId("cell-note-c1_piston").textContent).toContain("not saved yet");
+    expect(stored()).toEqual([
+      expect.objectContaining({ name: "c1_piston", readings: ["498.6"], version: 0 }),
+      expect.objectContaining({ name: "c2_piston", readings: ["497.9"], version: 0 }),
+    ]);
+    // What was typed stays in the boxes.
+    expect(cell(1, "Piston")).toHaveProperty("value", "498.6");
+
+    online = true;
+    await user.click(screen.getByRole("button", { name: "Retry now" }));
+    await waitFor(() => expect(screen.queryByTestId("unsaved-weights")).toBeNull());
+    expect(localStorage.getItem("counterpoise:weigh-queue:7:initial")).toBeNull();
+    const sent = puts().slice(-2);
+    expect(sent).toEqual([
+      { cylinder: 1, kind: "piston", readings: ["498.6"], version: 0, phase: "initial" },
+      { cylinder: 2, kind: "piston", readings: ["497.9"], version: 0, phase: "initial" },
+    ]);
+    expect(screen.getByTestId("cell-note-c2_piston").textContent).toContain("saved");
+  });
+
+  it("is tried again on its own, waiting longer each time, until the server answers", async () => {
+    let failures = 0;
+    const up = answer;
+    answer = (call) => {
+      if (call.method === "PUT" && failures < 3) {
+        failures += 1;
+        return down();
+      }
+      return up(call);
+    };
+    const user = renderGrid(initial, 20);
+    await user.click(cell(1, "Piston"));
+    await user.keyboard("498.6{Enter}");
+    await waitFor(() => expect(screen.queryByTestId("unsaved-weights")).not.toBeNull());
+    // 20, 40 then 80 ms: three failures, then the fourth try is answered.
+    await waitFor(() => expect(screen.queryByTestId("unsaved-weights")).toBeNull(), {
+      timeout: 2000,
+    });
+    expect(puts()).toHaveLength(4);
+    expect(stored()).toEqual([]);
+  });
+
+  it("comes back after a reload and is sent with the version it was based on", async () => {
+    localStorage.setItem(
+      "counterpoise:weigh-queue:7:initial",
+      JSON.stringify([
+        {
+          name: "c2_piston",
+          phase: "initial",
+          cylinder: 2,
+          kind: "piston",
+          readings: ["497.9"],
+          version: 1,
+        },
+      ]),
+    );
+    renderGrid({ ...initial, weights: [weight(2, "piston", "497.5")] });
+    expect(cell(2, "Piston")).toHaveProperty("value", "497.9");
+    await waitFor(() => expect(puts()).toHaveLength(1));
+    expect(puts()[0]).toEqual({
+      cylinder: 2,
+      kind: "piston",
+      readings: ["497.9"],
+      version: 1,
+      phase: "initial",
+    });
+    await waitFor(() => expect(stored()).toEqual([]));
+  });
+
+  it("gets the conflict view when the part changed elsewhere since it was typed", async () => {
+    localStorage.setItem(
+      "counterpoise:weigh-queue:7:initial",
+      JSON.stringify([
+        {
+          name: "c1_piston",
+          phase: "initial",
+          cylinder: 1,
+          kind: "piston",
+          readings: ["498.6"],
+          version: 0,
+        },
+      ]),
+    );
+    answer = (call) =>
+      call.method === "PUT"
+        ? { status: 409, body: { error: { code: "stale_write", message: "changed" } } }
+        : { status: 200, body: { ...initial, weights: [weight(1, "piston", "499.0")] } };
+    renderGrid();
+    await waitFor(() =>
+      expect(screen.getByTestId("cell-note-c1_piston").textContent).toContain(
+        "Changed elsewhere to 499.0. Yours (498.6) is not saved.",
+      ),
+    );
+    expect(stored()).toEqual([]);
+    expect(screen.queryByTestId("unsaved-weights")).toBeNull();
+  });
+});
+
+describe("leaving with weights not saved", () => {
+  const unload = () => {
+    const event = new Event("beforeunload", { cancelable: true });
+    window.dispatchEvent(event);
+    return event;
+  };
+
+  it("lets the page go when everything is saved", async () => {
+    const user = renderGrid();
+    await user.click(cell(1, "Piston"));
+    await user.keyboard("498.6{Enter}");
+    await waitFor(() => expect(puts()).toHaveLength(1));
+    await waitFor(() =>
+      expect(screen.getByTestId("cell-note-c1_piston").textContent).toContain("saved"),
+    );
+    expect(unload().defaultPrevented).toBe(false);
+  });
+
+  it("asks before a reload when a typed weight is not saved, and keeps it for after", async () => {
+    const user = renderGrid();
+    await user.click(cell(1, "Piston"));
+    await user.keyboard("498.6"); // typed, neither Enter nor blur yet
+    expect(unload().defaultPrevented).toBe(true);
+    expect(JSON.parse(localStorage.getItem("counterpoise:weigh-queue:7:initial") ?? "[]")).toEqual([
+      expect.objectContaining({ name: "c1_piston", readings: ["498.6"], version: 0 }),
+    ]);
+  });
+
+  it("asks before following a link in the app while saves are queued", async () => {
+    answer = (call) => {
+      if (call.method === "PUT") throw new TypeError("Failed to fetch");
+      return { status: 200, body: {} };
+    };
+    const confirm = vi.fn(() => false);
+    vi.stubGlobal("confirm", confirm);
+    const user = renderGrid();
+    await user.click(cell(1, "Piston"));
+    await user.keyboard("498.6{Enter}");
+    await screen.findByTestId("unsaved-weights");
+    const followed = vi.fn((e: MouseEvent) => e.preventDefault());
+    const link = screen.getByRole("link", { name: "Metal to remove" });
+    link.addEventListener("click", followed);
+    await user.click(link);
+    expect(confirm).toHaveBeenCalledWith(expect.stringContaining("1 weight is not saved yet"));
+    expect(followed).not.toHaveBeenCalled();
+    // Said yes: the link is followed (the weight stays queued on this PC).
+    confirm.mockReturnValue(true);
+    await user.click(link);
+    expect(followed).toHaveBeenCalledTimes(1);
+  });
+});
+
+describe("the readings box", () => {
+  it("widens to what is typed, so repeated readings are seen whole", async () => {
+    const user = renderGrid();
+    await user.click(cell(1, "Piston"));
+    await user.keyboard("482.6 482.6 482.8");
+    // 17 characters in a monospace font: the box is at least 17 ch wide (plus its padding).
+    const width = Number(cell(1, "Piston").style.getPropertyValue("--cell-ch"));
+    expect(width).toBeGreaterThanOrEqual("482.6 482.6 482.8".length);
   });
 });
