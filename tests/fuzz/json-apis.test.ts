@@ -223,8 +223,11 @@ describe("fuzzing the JSON APIs", () => {
   });
 
   it("finds the schema of every fuzzed route, so bodies can be shaped like real ones", async () => {
+    // A schema made per request (`parseJson(req, schemaFor(part))`) cannot be found from the
+    // source; such a route gets the hostile bodies that need no schema.
+    const perRequest = (e: DiscoveredEndpoint) => /parseJson\(\s*\w+\s*,\s*\w+\(/.test(e.body);
     const without: string[] = [];
-    for (const e of fuzzed) if (!(await schemaOf(e))) without.push(e.key);
+    for (const e of fuzzed) if (!perRequest(e) && !(await schemaOf(e))) without.push(e.key);
     expect(without).toEqual([]);
   });
 
