@@ -381,6 +381,7 @@ test.describe("limits that work (finding 13), on servers of this spec's own", ()
           width: 2048,
           height: 2048,
           channels: 3,
+          background: "#808080",
           noise: { type: "gaussian", mean: 128, sigma: 60 },
         },
       })
