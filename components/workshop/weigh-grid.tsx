@@ -136,8 +136,9 @@ function spreadOf(text: string, rule = readingsTextSchema): string | null {
  * On the shop floor: the grid opens in the first part still to weigh; after machining, Enter walks
  * only the parts the plan machined. A save the network drops is kept on this PC (localStorage, by
  * job and weighing, with the version it was based on) and sent again with a growing wait, the
- * count of unsaved weights on screen; leaving with any asks first. At phone width each cylinder is
- * a card, with the same boxes in the same order.
+ * count of unsaved weights on screen; leaving with any asks first. At phone width (480 px and
+ * under: Tailwind's `max-[481px]` is `width < 481px`) each cylinder is a card, with the same boxes
+ * in the same order.
  */
 export function WeighGrid({
   jobId,
@@ -566,6 +567,8 @@ export function WeighGrid({
           version: saved.current[name]?.version ?? 0,
         });
       }
+      // Kept now; if the machinist stays, they are sent like any other queued save.
+      if (dirty.length > 0) scheduleRetry();
       const waiting =
         Object.keys(queueRef.current).length + Object.keys(inflight.current).length + dirty.length;
       if (waiting === 0) return;
@@ -800,13 +803,13 @@ export function WeighGrid({
             ))}
         </div>
       ) : null}
-      <div className="panel overflow-x-auto max-[480px]:overflow-visible max-[480px]:border-0 max-[480px]:bg-transparent max-[480px]:shadow-none">
+      <div className="panel overflow-x-auto max-[481px]:overflow-visible max-[481px]:border-0 max-[481px]:bg-transparent max-[481px]:shadow-none">
         <table
-          className="w-full border-collapse text-sm max-[480px]:block"
+          className="w-full border-collapse text-sm max-[481px]:block"
           data-testid="weigh-grid"
           data-ready={ready ? "true" : "false"}
         >
-          <thead className="bg-graphite-50 text-graphite-600 max-[480px]:hidden">
+          <thead className="bg-graphite-50 text-graphite-600 max-[481px]:hidden">
             <tr>
               <th scope="col" className="px-2 py-2 text-left font-semibold">
                 Cyl.
@@ -826,18 +829,18 @@ export function WeighGrid({
               ))}
             </tr>
           </thead>
-          <tbody className="max-[480px]:block max-[480px]:space-y-3">
+          <tbody className="max-[481px]:block max-[481px]:space-y-3">
             {cylinders.map((c) => (
               <tr
                 key={c}
                 data-testid={`cylinder-${c}`}
-                className="border-t border-graphite-100 max-[480px]:grid max-[480px]:grid-cols-2 max-[480px]:gap-x-2 max-[480px]:rounded max-[480px]:border max-[480px]:border-graphite-200 max-[480px]:bg-white max-[480px]:p-2"
+                className="border-t border-graphite-100 max-[481px]:grid max-[481px]:grid-cols-2 max-[481px]:gap-x-2 max-[481px]:rounded max-[481px]:border max-[481px]:border-graphite-200 max-[481px]:bg-white max-[481px]:p-2"
               >
                 <th
                   scope="row"
-                  className="px-2 py-1 text-left font-mono text-base max-[480px]:col-span-2 max-[480px]:font-sans max-[480px]:font-semibold"
+                  className="px-2 py-1 text-left font-mono text-base max-[481px]:col-span-2 max-[481px]:font-sans max-[481px]:font-semibold"
                 >
-                  <span className="hidden max-[480px]:inline">Cylinder </span>
+                  <span className="hidden max-[481px]:inline">Cylinder </span>
                   {c}
                 </th>
                 {WEIGH_COLUMNS.map((col) => {
@@ -848,10 +851,10 @@ export function WeighGrid({
                   const spread = spreadOf(value, readingRule);
                   const reg = form.register(name);
                   return (
-                    <td key={col.kind} className="px-1 py-1 align-top max-[480px]:block">
+                    <td key={col.kind} className="px-1 py-1 align-top max-[481px]:block">
                       <span
                         aria-hidden="true"
-                        className="hidden text-xs text-graphite-600 max-[480px]:block"
+                        className="hidden text-xs text-graphite-600 max-[481px]:block"
                       >
                         {col.label}
                         {col.optional ? " (opt.)" : ""}
@@ -880,7 +883,7 @@ export function WeighGrid({
                         // narrower than a single reading; a whole card's width on a phone.
                         style={{ ["--cell-ch" as string]: Math.max(7, value.length + 1) }}
                         data-width-ch={Math.max(7, value.length + 1)}
-                        className={`w-[calc(var(--cell-ch)*1ch+1rem+2px)] rounded border px-2 py-1.5 font-mono text-base max-[480px]:w-full ${
+                        className={`w-[calc(var(--cell-ch)*1ch+1rem+2px)] rounded border px-2 py-1.5 font-mono text-base max-[481px]:w-full ${
                           cell?.state === "conflict" || cell?.state === "error" || error
                             ? "border-replace bg-red-50"
                             : cell?.state === "queued"
