@@ -42,8 +42,22 @@ export interface BuildSettingsTable {
   updated_at: string;
 }
 
+/** The build record as issued (PDF, hash, snapshot, verification code); never changed. */
+export interface BuildCardTable {
+  id: Generated<number>;
+  job_id: number;
+  revision: number;
+  pdf: Buffer;
+  sha256: string;
+  data_json: string;
+  verification_code: string;
+  issued_at: string;
+  issued_by: number | null;
+}
+
 export interface BuildRecordTables {
   build_requests: BuildRequestTable;
   build_sections: BuildSectionTable;
   build_settings: BuildSettingsTable;
+  build_cards: BuildCardTable;
 }

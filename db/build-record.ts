@@ -320,3 +320,144 @@ export async function saveBuildSettings(
     return { version, updatedAt: at };
   });
 }
+
+export interface BuildCardSummary {
+  revision: number;
+  sha256: string;
+  verificationCode: string;
+  issuedAt: string;
+  issuedBy: string | null;
+  sizeBytes: number;
+}
+
+/** The next revision number of a job's build record PDF (1 for the first). */
+export async function findNextBuildCardRevision(db: Db, jobId: number): Promise<number> {
+  const row = await db
+    .selectFrom("build_cards")
+    .select((eb) => eb.fn.max("revision").as("last"))
+    .where("job_id", "=", jobId)
+    .executeTakeFirst();
+  return Number(row?.last ?? 0) + 1;
+}
+
+/**
+ * Stores an issued build record PDF. Two issued at the same moment cannot both take a revision:
+ * the second is refused as stale (409).
+ */
+export async function insertBuildCard(
+  db: Db,
+  card: {
+    jobId: number;
+    revision: number;
+    pdf: Buffer;
+    sha256: string;
+    dataJson: string;
+    verificationCode: string;
+    issuedAt: string;
+  },
+  actorId: number | null,
+): Promise<void> {
+  await db.transaction().execute(async (trx) => {
+    await lockJob(trx, card.jobId);
+    try {
+      await trx
+        .insertInto("build_cards")
+        .values({
+          job_id: card.jobId,
+          revision: card.revision,
+          pdf: card.pdf,
+          sha256: card.sha256,
+          data_json: card.dataJson,
+          verification_code: card.verificationCode,
+          issued_at: card.issuedAt,
+          issued_by: actorId,
+        })
+        .execute();
+    } catch (error) {
+      if (isUniqueViolation(error)) throw new StaleWriteError("build record PDF", card.revision);
+      throw error;
+    }
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "issue",
+      entity: "build_card",
+      entityId: `${card.jobId}:${card.revision}`,
+      after: { revision: card.revision, sha256: card.sha256 },
+    });
+  });
+}
+
+/** A job's issued build record PDFs, newest first, without the bytes. */
+export async function listBuildCards(db: Db, jobId: number): Promise<BuildCardSummary[]> {
+  const rows = await db
+    .selectFrom("build_cards")
+    .leftJoin("users", "users.id", "build_cards.issued_by")
+    .select([
+      "build_cards.revision",
+      "build_cards.sha256",
+      "build_cards.verification_code",
+      "build_cards.issued_at",
+      "users.name as issuer",
+      (eb) => eb.fn("length", ["build_cards.pdf"]).as("size"),
+    ])
+    .where("build_cards.job_id", "=", jobId)
+    .orderBy("build_cards.revision", "desc")
+    .execute();
+  return rows.map((r) => ({
+    revision: r.revision,
+    sha256: r.sha256,
+    verificationCode: r.verification_code,
+    issuedAt: r.issued_at,
+    issuedBy: r.issuer,
+    sizeBytes: Number(r.size),
+  }));
+}
+
+/** The bytes of one issued revision, or undefined. */
+export async function findBuildCardPdf(
+  db: Db,
+  jobId: number,
+  revision: number,
+): Promise<Buffer | undefined> {
+  const row = await db
+    .selectFrom("build_cards")
+    .select("pdf")
+    .where("job_id", "=", jobId)
+    .where("revision", "=", revision)
+    .executeTakeFirst();
+  return row ? Buffer.from(row.pdf) : undefined;
+}
+
+export interface StoredBuildCard {
+  jobId: number;
+  revision: number;
+  /** The latest revision of the same job: this one is current when they are equal. */
+  latestRevision: number;
+  sha256: string;
+  dataJson: string;
+  verificationCode: string;
+  issuedAt: string;
+}
+
+/** An issued build record by its verification code (stored form), with the job's latest revision. */
+export async function findBuildCardByCode(
+  db: Db,
+  code: string,
+): Promise<StoredBuildCard | undefined> {
+  const row = await db
+    .selectFrom("build_cards")
+    .select(["job_id", "revision", "sha256", "data_json", "verification_code", "issued_at"])
+    .where("verification_code", "=", code)
+    .executeTakeFirst();
+  if (!row) return undefined;
+  const latest = await findNextBuildCardRevision(db, row.job_id);
+  return {
+    jobId: row.job_id,
+    revision: row.revision,
+    latestRevision: latest - 1,
+    sha256: row.sha256,
+    dataJson: row.data_json,
+    verificationCode: row.verification_code,
+    issuedAt: row.issued_at,
+  };
+}

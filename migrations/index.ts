@@ -14,6 +14,7 @@ import * as m0150 from "./20261202_0150_seed_job_number_sequences";
 import * as m0160 from "./20261202_0160_create_build_requests";
 import * as m0161 from "./20261202_0161_create_build_sections";
 import * as m0162 from "./20261202_0162_create_build_settings";
+import * as m0163 from "./20261202_0163_create_build_cards";
 import * as m0180 from "./20261202_0180_create_counter_settings";
 
 // A static map of the same files, for tests and for code running inside Next (which cannot read
@@ -34,5 +35,6 @@ export const migrations: Record<string, Migration> = {
   "20261202_0160_create_build_requests": m0160,
   "20261202_0161_create_build_sections": m0161,
   "20261202_0162_create_build_settings": m0162,
+  "20261202_0163_create_build_cards": m0163,
   "20261202_0180_create_counter_settings": m0180,
 };

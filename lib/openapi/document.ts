@@ -333,6 +333,21 @@ export const API_PATHS: ZodOpenApiPathsObject = {
       z.object({ id: z.string(), section: z.enum(BUILD_SECTIONS) }),
     ),
   },
+  "/api/jobs/{id}/build/cards": {
+    get: op("The job's issued build records, newest first"),
+    post: op("Issue the next revision of the build record PDF"),
+  },
+  "/api/jobs/{id}/build/cards/{revision}/pdf": {
+    get: file("An issued build record, exactly as issued", "application/pdf", cardParams),
+  },
+  "/api/jobs/{id}/build/cards/{revision}/send": {
+    post: op(
+      "E-mail an issued build record to the customer",
+      sendCardSchema,
+      undefined,
+      cardParams,
+    ),
+  },
   "/api/settings/build": {
     get: op("The shop's build settings", undefined, undefined, none),
     put: op("Save the shop's build settings (owner)", buildSettingsWriteSchema, undefined, none),

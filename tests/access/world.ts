@@ -7,6 +7,7 @@ import { NextRequest } from "next/server";
 import sharp from "sharp";
 import type { DB } from "@/db/client";
 import { setDb } from "@/db/client";
+import { saveBuildSection } from "@/db/build-record";
 import { isPostgres } from "@/db/dialect";
 import { createInvoice, issueInvoice, listInvoices } from "@/db/invoices";
 import { createJob, listJobs } from "@/db/jobs";
@@ -16,6 +17,7 @@ import { createQuote, listQuotesForJob, moveQuote } from "@/db/quotes";
 import type { Database, Role } from "@/db/schema";
 import { listUsers, type User } from "@/db/users";
 import { issueCard } from "@/lib/cards/issue";
+import { issueBuildCard } from "@/lib/build-record/card";
 import { saveLogoUpload } from "@/lib/cards/logo";
 import { DEMO_USERS, seedDemo } from "@/lib/demo/seed";
 import { resetEnvCache } from "@/lib/env";
@@ -140,6 +142,11 @@ export async function seedShop(): Promise<Shop> {
     override: true,
     overrideReason: "Demo job: issued with its flagged parts",
   });
+  // An engine build record issued on the same job (revision 1, as the balance card).
+  const tdc = { firstStop: "-18", secondStop: "22" };
+  const section = { jobId: job.id, section: "tdc" as const, data: tdc, baseVersion: 0 };
+  await db.transaction().execute((trx) => saveBuildSection(trx, section, null));
+  await issueBuildCard(db, job, demo.machinist);
   const upload = await saveJobUpload(
     db,
     job.id,
@@ -260,8 +267,6 @@ export function paramsFor(pattern: string, ids: ShopIds): Record<string, string 
 function valueFor(name: string, before: string | undefined, ids: ShopIds, pattern: string) {
   if (name === "revision") return String(ids.cardRevision);
   if (name === "part") return "crankshaft";
-  if (name === "section") return "tdc";
-  if (name === "requestId") return "1";
   if (name === "section") return "tdc";
   if (name === "requestId") return "1";
   if (name === "code") return ids.cardCode;

@@ -21,6 +21,7 @@ describe(`migrations (${testEngine()})`, () => {
     expect(await tableNames(db)).toEqual([
       "audit_log",
       "balance_cards",
+      "build_cards",
       "build_requests",
       "build_sections",
       "build_settings",

@@ -119,3 +119,32 @@ test("the demo's complete record reads back to the customer once collected", asy
   await expect(page.getByLabel("Cylinder 1 deck clearance")).toHaveAttribute("readonly", "");
   await expect(page.getByText("Read only")).toBeVisible();
 });
+
+test("the build record is issued as a PDF whose code verifies publicly", async ({ page }) => {
+  test.setTimeout(120_000);
+  await signInAs(page, "machinist");
+  await page.goto("/jobs");
+  await page
+    .getByRole("row")
+    .filter({ hasText: "Flat-plane V8" })
+    .getByRole("link")
+    .first()
+    .click();
+  await page.getByRole("link", { name: "Build" }).click();
+  await page.getByRole("button", { name: /Issue (the build record|a new revision)/ }).click();
+  // Rendering the PDF takes a few seconds on a busy machine.
+  await expect(page.getByTestId("build-cards-message")).toContainText(/Revision \d+ issued/, {
+    timeout: 60_000,
+  });
+  const item = page.getByRole("listitem").filter({ hasText: "current" }).first();
+  const code = (await item.locator(".font-mono").textContent())!.trim();
+  const pdf = await page.request.get(
+    (await item.getByRole("link", { name: "PDF" }).getAttribute("href")) as string,
+  );
+  expect(pdf.headers()["content-type"]).toBe("application/pdf");
+  await page.goto(`/verify/${code}`);
+  await expect(page.getByRole("heading", { name: `Engine build record ${code}` })).toBeVisible();
+  await expect(page.getByTestId("build-card-status")).toContainText("the current record");
+  // Cylinder 1: deck 0.15 + gasket 0.80 = 0.95 mm of quench, as on the job.
+  await expect(page.getByRole("cell", { name: "0.95" }).first()).toBeVisible();
+});

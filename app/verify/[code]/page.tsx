@@ -5,15 +5,24 @@ import { CardCautions, VerifiedCardView } from "@/components/cards/verified-card
 import { getDb } from "@/db/client";
 import { HttpError } from "@/lib/http/errors";
 import { verifyCardCode } from "@/lib/cards/verify";
+import { verifyBuildCardCode } from "@/lib/build-record/card";
+import { VerifiedBuildCardView } from "@/components/build/verified-build-card";
 
 export const metadata: Metadata = { title: "Balance card check", robots: { index: false } };
 
 export default async function VerifiedCardPage({ params }: { params: Promise<{ code: string }> }) {
   const { code } = await params;
-  const card = await verifyCardCode(getDb(), decodeURIComponent(code)).catch((error: unknown) => {
-    if (error instanceof HttpError && error.status === 404) notFound();
+  const typed = decodeURIComponent(code);
+  const card = await verifyCardCode(getDb(), typed).catch(async (error: unknown) => {
+    if (error instanceof HttpError && error.status === 404) return null;
     throw error;
   });
+  if (!card) {
+    // The same code and QR lead here from an issued engine build record.
+    const built = await verifyBuildCardCode(getDb(), typed);
+    if (!built) notFound();
+    return <VerifiedBuildCardView card={built} />;
+  }
   return (
     <>
       <h1 className="text-2xl font-semibold">Balance card {card.verificationCode}</h1>

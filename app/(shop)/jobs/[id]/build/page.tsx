@@ -1,4 +1,6 @@
+import { BuildCards } from "@/components/build/build-cards";
 import { BuildRecordScreen } from "@/components/build/build-record-screen";
+import { listBuildCards } from "@/db/build-record";
 import { getDb } from "@/db/client";
 import { loadBuildRecord, recordShownTo } from "@/lib/build-record/record";
 import { loadPageJob } from "@/lib/jobs/page-job";
@@ -21,12 +23,16 @@ export default async function BuildRecordPage({ params }: { params: Promise<{ id
     s.boreEntered !== null
       ? { value: s.boreEntered, unit: s.lengthUnit === "in" ? ("in" as const) : ("mm" as const) }
       : null;
+  const cards = await listBuildCards(getDb(), job.id);
   return (
-    <BuildRecordScreen
-      initial={record}
-      cylinders={s.cylinders ?? 8}
-      readOnly={user.role !== "machinist" && user.role !== "owner"}
-      jobBore={jobBore}
-    />
+    <div className="space-y-6">
+      <BuildCards jobId={job.id} role={user.role} initial={cards} />
+      <BuildRecordScreen
+        initial={record}
+        cylinders={s.cylinders ?? 8}
+        readOnly={user.role !== "machinist" && user.role !== "owner"}
+        jobBore={jobBore}
+      />
+    </div>
   );
 }
