@@ -1,6 +1,6 @@
 import type { Kysely } from "kysely";
 import { createAuditEntry } from "./audit";
-import { containsText } from "./search";
+import { customerSearch } from "./search";
 import { NotFoundError } from "./errors";
 import type { CustomerRow, Database } from "./schema";
 
@@ -130,12 +130,8 @@ export async function listCustomers(
   query: CustomerQuery = {},
 ): Promise<{ customers: Customer[]; total: number }> {
   let base = db.selectFrom("customers");
-  const term = query.search?.trim();
-  if (term) {
-    base = base.where((eb) =>
-      containsText([eb.ref("name"), eb.ref("company"), eb.ref("email"), eb.ref("phone")], term),
-    );
-  }
+  const found = query.search ? customerSearch(db, query.search) : undefined;
+  if (found) base = base.where(found);
   const [rows, count] = await Promise.all([
     base
       .selectAll()

@@ -2,7 +2,7 @@ import { type Kysely, sql, type Updateable } from "kysely";
 import { createAuditEntry } from "./audit";
 import { type CustomerInput, insertCustomer } from "./customers";
 import { forUpdate } from "./dialect";
-import { containsText } from "./search";
+import { jobSearch } from "./search";
 import { NotFoundError, StaleWriteError } from "./errors";
 import { takeNextJobNumber } from "./number-sequences";
 import type { Database, JobRow, JobStatus, JobTable } from "./schema";
@@ -358,12 +358,8 @@ export async function listJobs(
   if (query.customerId !== undefined) base = base.where("jobs.customer_id", "=", query.customerId);
   if (query.status) base = base.where("jobs.status", "=", query.status);
   if (query.statuses?.length) base = base.where("jobs.status", "in", query.statuses);
-  const term = query.search?.trim();
-  if (term) {
-    base = base.where((eb) =>
-      containsText([eb.ref("jobs.number"), eb.ref("jobs.engine"), eb.ref("customers.name")], term),
-    );
-  }
+  const found = query.search ? jobSearch(db, query.search) : undefined;
+  if (found) base = base.where(found);
   const [rows, count] = await Promise.all([
     base
       .selectAll("jobs")
