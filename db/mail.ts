@@ -202,9 +202,16 @@ export async function claimMailForRetry(
   return Number(result.numUpdatedRows) === 1;
 }
 
+/** Who an attempt went out as (stored on the message for the outbox). */
+export interface MailSender {
+  from: string;
+  replyTo: string | null;
+}
+
 export interface SentOutcome {
   messageId: string | null;
   serverResponse: string | null;
+  sender?: MailSender;
 }
 
 const REMOVED_BODY = "[Removed once sent: this message held a one-time link.]";
@@ -224,6 +231,9 @@ export async function markMailSent(
       last_error: null,
       server_response: outcome.serverResponse,
       message_id: outcome.messageId,
+      ...(outcome.sender
+        ? { from_address: outcome.sender.from, reply_to: outcome.sender.replyTo }
+        : {}),
       sent_at: at,
       updated_at: at,
       text_body: eb
@@ -245,7 +255,7 @@ export async function markMailSent(
 export async function markMailFailed(
   db: Kysely<Database>,
   id: number,
-  outcome: { error: string; serverResponse: string | null },
+  outcome: { error: string; serverResponse: string | null; sender?: MailSender },
   now = new Date(),
 ): Promise<MailLogEntry> {
   await db
@@ -255,6 +265,9 @@ export async function markMailFailed(
       attempts: eb("attempts", "+", 1),
       last_error: outcome.error,
       server_response: outcome.serverResponse,
+      ...(outcome.sender
+        ? { from_address: outcome.sender.from, reply_to: outcome.sender.replyTo }
+        : {}),
       updated_at: now.toISOString(),
     }))
     .where("id", "=", id)
@@ -288,4 +301,38 @@ export async function listMailLog(
     rows.map((r) => r.id),
   );
   return rows.map((r) => toEntry(r, info.get(r.id) ?? []));
+}
+
+/** A message as the outbox shows it: the log entry with its sender and bodies. */
+export interface OutboxMessage extends MailLogEntry {
+  /** The From of the last attempt; null before any attempt (or logged before it was kept). */
+  from: string | null;
+  replyTo: string | null;
+  text: string;
+  html: string | null;
+}
+
+/** The newest messages first, with sender, bodies and attachments' names (not their bytes). */
+export async function listOutboxMessages(
+  db: Kysely<Database>,
+  query: MailLogQuery = {},
+): Promise<OutboxMessage[]> {
+  let q = db.selectFrom("mail_log").selectAll();
+  if (query.status) q = q.where("status", "=", query.status);
+  if (query.jobId !== undefined) q = q.where("job_id", "=", query.jobId);
+  const rows = await q
+    .orderBy("id", "desc")
+    .limit(query.limit ?? 100)
+    .execute();
+  const info = await attachmentInfo(
+    db,
+    rows.map((r) => r.id),
+  );
+  return rows.map((r) => ({
+    ...toEntry(r, info.get(r.id) ?? []),
+    from: r.from_address,
+    replyTo: r.reply_to,
+    text: r.text_body,
+    html: r.html_body,
+  }));
 }

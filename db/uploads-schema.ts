@@ -54,6 +54,10 @@ export interface MailLogTable {
   created_at: CreatedAt;
   updated_at: ColumnType<string, string | undefined, string>;
   sent_at: string | null;
+  /** The From of the last attempt ("Name <address>" or the address), null before any. */
+  from_address: ColumnType<string | null, string | null | undefined, string | null>;
+  /** The Reply-To of the last attempt, null when there was none. */
+  reply_to: ColumnType<string | null, string | null | undefined, string | null>;
 }
 
 export interface MailAttachmentTable {

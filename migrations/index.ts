@@ -17,6 +17,7 @@ import * as m0162 from "./20261202_0162_create_build_settings";
 import * as m0163 from "./20261202_0163_create_build_cards";
 import * as m0180 from "./20261202_0180_create_counter_settings";
 import * as m0190 from "./20261202_0190_create_job_search_index";
+import * as m0191 from "./20261202_0191_add_sender_to_mail_log";
 
 // A static map of the same files, for tests and for code running inside Next (which cannot read
 // the folder at run time). `scripts/migrate.ts` reads the folder itself. Add each new file here.
@@ -39,4 +40,5 @@ export const migrations: Record<string, Migration> = {
   "20261202_0163_create_build_cards": m0163,
   "20261202_0180_create_counter_settings": m0180,
   "20261202_0190_create_job_search_index": m0190,
+  "20261202_0191_add_sender_to_mail_log": m0191,
 };

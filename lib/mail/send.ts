@@ -9,6 +9,7 @@ import {
   markMailSent,
   type MailForSending,
   type MailLogEntry,
+  type MailSender,
 } from "@/db/mail";
 import { findCounterSettings } from "@/db/counter-settings";
 import { findShopSettings } from "@/db/settings";
@@ -129,8 +130,16 @@ async function deliver(
 ): Promise<MailLogEntry> {
   const transport = options.transport ?? createMailTransport();
   const { entry } = stored;
+  let from: MailSender | undefined; // kept on the message for the outbox
   try {
     const sender = await shopSender(db);
+    from = {
+      from:
+        typeof sender.from === "string"
+          ? sender.from
+          : `${sender.from.name} <${sender.from.address}>`,
+      replyTo: sender.replyTo,
+    };
     const info: SMTPTransport.SentMessageInfo = await transport.sendMail({
       from: sender.from,
       ...(sender.replyTo ? { replyTo: sender.replyTo } : {}),
@@ -152,6 +161,7 @@ async function deliver(
         {
           error: `The server did not accept ${entry.to}.`,
           serverResponse: info.response ?? null,
+          sender: from,
         },
         options.now?.(),
       );
@@ -159,11 +169,16 @@ async function deliver(
     return markMailSent(
       db,
       entry.id,
-      { messageId: info.messageId ?? null, serverResponse: info.response ?? null },
+      { messageId: info.messageId ?? null, serverResponse: info.response ?? null, sender: from },
       options.now?.(),
     );
   } catch (error) {
-    return markMailFailed(db, entry.id, describeFailure(error), options.now?.());
+    return markMailFailed(
+      db,
+      entry.id,
+      { ...describeFailure(error), sender: from },
+      options.now?.(),
+    );
   } finally {
     if (!options.transport) transport.close();
   }

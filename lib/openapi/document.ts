@@ -289,7 +289,7 @@ export const API_PATHS: ZodOpenApiPathsObject = {
     },
   },
   "/api/mail/outbox": {
-    get: op("Captured mail and the mail log (owner)", undefined, undefined, none),
+    get: op("The mail log with each message (owner)", undefined, undefined, none),
   },
   "/api/mail/{id}/retry": { post: op("Send a failed message again (owner)") },
   "/api/invites": { post: op("Invite a customer to sign in", newInviteSchema, undefined, none) },

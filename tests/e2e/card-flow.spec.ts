@@ -177,7 +177,7 @@ test("a balance card is issued, checked, replaced by a second revision and e-mai
   await expect(message).toHaveCount(1);
   await expect(message).toContainText(DEMO_CUSTOMER_EMAIL);
   await expect(message).toContainText(secondPdf.name);
-  await expect(page.getByTestId("captured-mail")).toContainText(
+  await expect(page.getByTestId("mail-messages")).toContainText(
     `Balance card for job ${jobNumber} (revision ${second.revision})`,
   );
 });

@@ -13,7 +13,7 @@ function when(iso: string | null): string {
 
 export default async function OutboxPage() {
   await requirePageUser(["owner"], "/outbox");
-  const { captureDir, captured, log } = await readOutbox(getDb());
+  const { log } = await readOutbox(getDb());
 
   return (
     <section className="space-y-6">
@@ -83,40 +83,39 @@ export default async function OutboxPage() {
       </div>
 
       <div className="space-y-2">
-        <h2 className="text-lg font-semibold">Received by the local mail server</h2>
+        <h2 className="text-lg font-semibold">The messages</h2>
         <p className="text-sm text-graphite-600">
-          In the demo, mail goes to a capture server on this machine instead of the internet; each
-          message lands in <code className="font-mono">{captureDir}</code>. Newest first.
+          As the mail log keeps them, newest first. A message holding a one-time sign-in link keeps
+          its text only until it has been sent.
         </p>
-        {captured.length === 0 ? (
-          <p className="panel p-4 text-sm text-graphite-500">Nothing received yet.</p>
+        {log.length === 0 ? (
+          <p className="panel p-4 text-sm text-graphite-500">Nothing sent yet.</p>
         ) : (
-          <ul className="space-y-2" data-testid="captured-mail">
-            {captured.map((c) => (
-              <li key={c.file} className="panel">
+          <ul className="space-y-2" data-testid="mail-messages">
+            {log.map((m) => (
+              <li key={m.id} className="panel">
                 <details>
                   <summary className="cursor-pointer p-3 text-sm">
-                    <span className="font-mono text-graphite-500">{when(c.date)}</span>{" "}
-                    <span className="font-semibold">{c.subject || "(no subject)"}</span> → {c.to}
-                    {c.attachments.length > 0 ? (
+                    <span className="font-mono text-graphite-500">
+                      {when(m.sentAt ?? m.updatedAt)}
+                    </span>{" "}
+                    <span className="font-semibold">{m.subject || "(no subject)"}</span> → {m.to}
+                    {m.attachments.length > 0 ? (
                       <span className="text-graphite-500">
                         {" "}
-                        · {c.attachments.length} attachment{c.attachments.length === 1 ? "" : "s"}
+                        · {m.attachments.length} attachment{m.attachments.length === 1 ? "" : "s"}
                       </span>
                     ) : null}
                   </summary>
                   <div className="space-y-2 border-t border-graphite-100 p-3 text-sm">
-                    <p className="text-graphite-600">From {c.from}</p>
-                    {c.attachments.length > 0 ? (
-                      <ul className="text-graphite-600">
-                        {c.attachments.map((a, i) => (
-                          <li key={`${a.filename}-${i}`}>
-                            {a.filename} · {a.contentType} · {formatFileSize(a.sizeBytes)}
-                          </li>
-                        ))}
-                      </ul>
+                    <p className="text-graphite-600">
+                      From {m.from ?? "— (not tried yet)"}
+                      {m.replyTo ? ` · replies to ${m.replyTo}` : ""}
+                    </p>
+                    <pre className="font-mono text-xs whitespace-pre-wrap">{m.text}</pre>
+                    {m.html ? (
+                      <p className="text-xs text-graphite-500">Also sent as HTML.</p>
                     ) : null}
-                    <pre className="font-mono text-xs whitespace-pre-wrap">{c.text}</pre>
                   </div>
                 </details>
               </li>

@@ -1,3 +1,4 @@
+import { rm } from "node:fs/promises";
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import { retryMailAction } from "@/app/(shop)/outbox/actions";
 import { POST as retryRoute } from "@/app/api/mail/[id]/retry/route";
@@ -41,28 +42,64 @@ const message = {
 };
 
 describe("the owner's mail outbox", () => {
-  it("lists the captured messages with their attachments and the log with each status", async () => {
+  it("lists every message from the mail log: sender, bodies, attachments and status", async () => {
     await mail.start();
-    await sendMail(db, message);
+    await sendMail(db, { ...message, html: "<p>Card attached.</p>" });
     mail.pointAt(await freePort());
     await sendMail(db, { ...message, subject: "Second try" });
 
     const res = await outboxRoute(jsonRequest("GET", "/api/mail/outbox"), noParams);
     expect(res.status).toBe(200);
     const body = await res.json();
-    expect(body.captured).toHaveLength(1);
-    expect(body.captured[0]).toMatchObject({
-      to: "wren@example.test",
-      subject: "Balance card 2026-0003",
-      attachments: [{ filename: "card.pdf", contentType: "application/pdf", sizeBytes: 15 }],
-    });
-    expect(body.captured[0].text).toContain("Card attached.");
+    expect(body.captured).toBeUndefined();
     expect(body.log.map((m: { subject: string; status: string }) => [m.subject, m.status])).toEqual(
       [
         ["Second try", "failed"],
         ["Balance card 2026-0003", "sent"],
       ],
     );
+    expect(body.log[1]).toMatchObject({
+      to: "wren@example.test",
+      text: "Card attached.",
+      html: "<p>Card attached.</p>",
+      attachments: [{ filename: "card.pdf", contentType: "application/pdf", sizeBytes: 15 }],
+    });
+    // The sender the server was given, as the capture server received it.
+    const [received] = await mail.captured();
+    const sender = received!.from!.value[0]!;
+    expect(body.log[1].from).toBe(`${sender.name} <${sender.address}>`);
+    expect(body.log[0].from).toBe(body.log[1].from);
+  });
+
+  it("never reads the capture server's files: the outbox is the same with them gone", async () => {
+    await mail.start();
+    await sendMail(db, message);
+    const before = await (
+      await outboxRoute(jsonRequest("GET", "/api/mail/outbox"), noParams)
+    ).json();
+    await rm(mail.captureDir, { recursive: true, force: true });
+    process.env.MAIL_CAPTURE_DIR = `${mail.captureDir}/elsewhere`;
+    const after = await (
+      await outboxRoute(jsonRequest("GET", "/api/mail/outbox"), noParams)
+    ).json();
+    expect(after).toEqual(before);
+    expect(after.log[0]).toMatchObject({
+      subject: "Balance card 2026-0003",
+      text: "Card attached.",
+    });
+  });
+
+  it("shows a one-time link only until it is sent", async () => {
+    await mail.start();
+    await sendMail(db, {
+      ...message,
+      kind: "invite",
+      text: "Link: /welcome?token=abc",
+      oneTime: true,
+    });
+    const body = await (await outboxRoute(jsonRequest("GET", "/api/mail/outbox"), noParams)).json();
+    expect(body.log[0].text).not.toContain("token=abc");
+    expect(body.log[0].bodyRemoved).toBe(true);
   });
 
   it("retries a failed message from the outbox", async () => {
@@ -114,12 +151,5 @@ describe("the owner's mail outbox", () => {
         (await retryRoute(jsonRequest("POST", "/api/mail/1/retry"), params({ id: "1" }))).status,
       ).toBe(403);
     }
-  });
-
-  it("shows an empty capture list when the capture folder does not exist yet", async () => {
-    process.env.MAIL_CAPTURE_DIR = `${mail.captureDir}/not-yet`;
-    mail.pointAt(1);
-    const body = await (await outboxRoute(jsonRequest("GET", "/api/mail/outbox"), noParams)).json();
-    expect(body.captured).toEqual([]);
   });
 });
