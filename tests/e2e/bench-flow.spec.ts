@@ -106,7 +106,10 @@ test("a V8 from booking in to ready to collect, weighed by keyboard only", async
   // The service speed comes from the booking.
   await expect(page.getByLabel("Max service speed (rpm)")).toHaveValue("7200");
   await page.getByLabel("Mass (kg)").fill("24.5");
-  await page.getByLabel("Balancer reading radius (mm)").fill("50");
+  // The job's lengths were typed in inches, so the balancer radius is too: 2.00 in = 50.8 mm.
+  // By hand (ISO 21940-11): U_per = 9549.3 × 6.3 × 24.5 / 7200 = 204.7 g·mm, half per plane,
+  // 102.4 g·mm ÷ 50.8 mm = 2.0 g allowed: 0.6 g and 0.4 g pass, 11.5 g and 8.2 g do not.
+  await page.getByLabel("Balancer reading radius (in)").fill("2.00");
   await page.getByLabel("before plane A grams").fill("11.5");
   await page.getByLabel("before plane B grams").fill("8.2");
   await page.getByLabel("after plane A grams").fill("0.6");
