@@ -22,6 +22,7 @@ import {
   type RingPosition,
   VALVES,
 } from "@/lib/build-record/schemas";
+import { recordedLengths, recordedLoads } from "@/lib/build-record/units";
 import { BuildPanel, Cell, fieldError, LabelledCell } from "./cells";
 import { RING_WORDS, USE_WORDS } from "./build-settings-form";
 import { useBuildRecord } from "./use-build-record";
@@ -81,6 +82,9 @@ export function BuildRecordScreen({
   const unit = specs.lengthUnit;
   const load = specs.loadUnit;
   const cyls = Array.from({ length: cylinders }, (_, i) => i + 1);
+  // A unit switch would misread what is typed (the server refuses it too).
+  const lengthsTyped = recordedLengths(data);
+  const loadsTyped = recordedLoads(data);
   const ro = readOnly ? { readOnly: true } : {};
 
   const setSpecs = (change: (s: BuildRecordData["specs"]) => BuildRecordData["specs"]) =>
@@ -255,7 +259,12 @@ export function BuildRecordScreen({
               <select
                 className="rounded border border-graphite-300 px-1.5 py-1 text-sm"
                 value={unit}
-                disabled={readOnly}
+                disabled={readOnly || lengthsTyped > 0}
+                title={
+                  lengthsTyped > 0
+                    ? "Lengths are typed in this unit: clear them before changing it"
+                    : undefined
+                }
                 onChange={(e) => {
                   setSpecs((s) => ({ ...s, lengthUnit: e.target.value as "in" | "mm" }));
                   void save("specs");
@@ -270,7 +279,12 @@ export function BuildRecordScreen({
               <select
                 className="rounded border border-graphite-300 px-1.5 py-1 text-sm"
                 value={load}
-                disabled={readOnly}
+                disabled={readOnly || loadsTyped > 0}
+                title={
+                  loadsTyped > 0
+                    ? "Spring loads are typed in this unit: clear them before changing it"
+                    : undefined
+                }
                 onChange={(e) => {
                   setSpecs((s) => ({ ...s, loadUnit: e.target.value as "lb" | "N" }));
                   void save("specs");

@@ -19,6 +19,7 @@ import {
   SECTION_SCHEMAS,
 } from "./schemas";
 import { type BuildSettings, buildSettingsSchema, EMPTY_BUILD_SETTINGS } from "./settings-schema";
+import { recordedLengths, recordedLoads } from "./units";
 
 /** Whether this user may see the job's build record now (customers: once the job is ready). */
 export function recordShownTo(job: Pick<Job, "status">, user: Pick<User, "role">): boolean {
@@ -119,41 +120,6 @@ export async function loadBuildRecord(
 const RING_WORDS = { top: "top ring", second: "second ring", oil: "oil rails" } as const;
 
 const UNIT_WORDS = { in: "inches", mm: "millimetres", lb: "pounds", N: "newtons" } as const;
-
-/** Lengths already in the record, read in its length unit. */
-function recordedLengths(r: BuildRecordData): number {
-  const s = r.specs;
-  const specLengths = [
-    s.bore,
-    s.stroke,
-    s.spring.installedHeight,
-    s.spring.solidHeight,
-    s.spring.lift,
-    s.clearance.main.min,
-    s.clearance.main.max,
-    s.clearance.rod.min,
-    s.clearance.rod.max,
-    s.compression.gasketBore,
-    s.compression.gasketThickness,
-  ].filter((v) => v !== null).length;
-  return (
-    specLengths +
-    r.rings.rows.length +
-    (r.cam.lift !== null ? 1 : 0) +
-    r.springs.rows.filter((x) => x.installedHeight !== null || x.shim !== null).length +
-    r.clearances.rows.length +
-    r.deck.rows.filter((x) => x.deckClearance !== null).length
-  );
-}
-
-/** Loads (and rates) already in the record, read in its load unit. */
-function recordedLoads(r: BuildRecordData): number {
-  const s = r.specs.spring;
-  return (
-    [s.rate, s.seatLoadMin, s.seatLoadMax].filter((v) => v !== null).length +
-    r.springs.rows.filter((x) => x.seatLoad !== null).length
-  );
-}
 
 /**
  * A unit switch would misread every figure already typed in the old unit: refused (422 naming
