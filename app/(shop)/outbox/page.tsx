@@ -2,18 +2,21 @@ import { MailStatusBadge } from "@/components/mail/mail-status";
 import { RetryMailButton } from "@/components/mail/retry-mail-button";
 import { formatFileSize } from "@/components/uploads/format";
 import { getDb } from "@/db/client";
+import { findCounterSettings } from "@/db/counter-settings";
 import { requirePageUser } from "@/lib/auth/guard";
+import { shopDateTime } from "@/lib/dates/shop-time";
 import { readOutbox } from "@/lib/mail/outbox";
 
 export const metadata = { title: "Mail outbox" };
 
-function when(iso: string | null): string {
-  return iso ? iso.slice(0, 16).replace("T", " ") : "—";
-}
-
 export default async function OutboxPage() {
   await requirePageUser(["owner"], "/outbox");
-  const { log } = await readOutbox(getDb());
+  const [{ log }, { timeZone }] = await Promise.all([
+    readOutbox(getDb()),
+    findCounterSettings(getDb()),
+  ]);
+  // Times on the shop's clock, with the zone named (counter settings).
+  const when = (iso: string | null) => (iso ? shopDateTime(iso, timeZone) : "—");
 
   return (
     <section className="space-y-6">
@@ -25,7 +28,7 @@ export default async function OutboxPage() {
           <table className="w-full text-left text-sm" data-testid="mail-log">
             <thead className="border-b border-graphite-200 bg-graphite-50 text-graphite-600">
               <tr>
-                <th className="px-3 py-2 font-semibold">When (UTC)</th>
+                <th className="px-3 py-2 font-semibold">When</th>
                 <th className="px-3 py-2 font-semibold">For</th>
                 <th className="px-3 py-2 font-semibold">To</th>
                 <th className="px-3 py-2 font-semibold">Subject</th>

@@ -1,16 +1,17 @@
 import { renderToStaticMarkup } from "react-dom/server";
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import BoardPage from "@/app/(shop)/board/page";
+import OutboxPage from "@/app/(shop)/outbox/page";
 import { PATCH as patchJob } from "@/app/api/jobs/[id]/route";
 import { POST as issueRoute } from "@/app/api/invoices/[id]/issue/route";
 import { POST as paymentRoute } from "@/app/api/invoices/[id]/payments/route";
 import { POST as offerRoute } from "@/app/api/quotes/[id]/offer/route";
 import { PUT as putCounterSettings } from "@/app/api/settings/counter/route";
 import type { DB } from "@/db/client";
-import { createInvoice } from "@/db/invoices";
 import { updateJob } from "@/db/jobs";
 import { listMailLog } from "@/db/mail";
-import { createQuote } from "@/db/quotes";
+import { createInvoice } from "@/lib/billing/invoices";
+import { createQuote } from "@/lib/billing/quotes";
 import { shopDate, shopDateTime, shopToday } from "@/lib/dates/shop-time";
 import { type BillingWorld, setUpBilling } from "../billing/fixtures";
 import { freshDb } from "../../helpers/db";
@@ -186,6 +187,17 @@ describe("the shop's calendar", () => {
     expect(shopDate(evening, "Europe/London")).toBe("2026-12-03");
     expect(shopToday("America/Denver", evening)).toBe("2026-12-02");
     expect(shopDateTime("2026-12-03T01:30:00Z", "America/Denver")).toBe("2026-12-02 18:30 MST");
+  });
+
+  it("the outbox reads its times on the shop's clock, with the zone named", async () => {
+    await saveCounterSettings({ timeZone: "America/Denver" });
+    vi.useFakeTimers({ toFake: ["Date"] });
+    vi.setSystemTime(evening);
+    await issuedInvoice();
+    signInAs(w.users.owner);
+    const html = renderToStaticMarkup(await OutboxPage());
+    expect(html).toContain("2026-12-02 18:30 MST");
+    expect(html).not.toContain("2026-12-03 01:30");
   });
 
   it("the board's 'due today' does not turn into 'overdue' at 17:00 west of Greenwich", async () => {
