@@ -15,6 +15,10 @@ const schema = z.object({
   // value must stop the server at start, not turn every signed-in page into a 500 later.
   NEXTAUTH_SECRET: z.string().min(1).optional(),
   NEXTAUTH_URL: z.string().url().optional(),
+  // The key Next encrypts server actions' bound values with (base64 of 16, 24 or 32 random
+  // bytes). Several app servers must share one, or an action posted to another server fails.
+  // Checked by startupProblems() in production, like the session secret.
+  NEXT_SERVER_ACTIONS_ENCRYPTION_KEY: z.string().min(1).optional(),
   // Sign-in throttling (lib/auth/throttle.ts): failed tries allowed before each wait, per client
   // address and per e-mail, and the longest wait, in minutes.
   SIGN_IN_MAX_FAILURES: z.coerce.number().int().positive().default(5),
@@ -82,6 +86,21 @@ function secretProblem(secret: string | undefined): string {
   return `NEXTAUTH_SECRET ${said}: production needs at least ${MIN_SECRET_LENGTH} random characters (for example \`openssl rand -hex 32\`).`;
 }
 
+/**
+ * Why the server-actions key cannot be used, or null: it must be set and be the base64 of an
+ * AES key (16, 24 or 32 bytes).
+ */
+export function actionsKeyProblem(key: string | undefined): string | null {
+  const how = "for example `openssl rand -base64 32`, the same on every app server";
+  if (!key) return `NEXT_SERVER_ACTIONS_ENCRYPTION_KEY is not set: production needs one (${how}).`;
+  const base64 = /^[A-Za-z0-9+/]+={0,2}$/.test(key) && key.length % 4 === 0;
+  const bytes = base64 ? atob(key).length : 0;
+  if (![16, 24, 32].includes(bytes)) {
+    return `NEXT_SERVER_ACTIONS_ENCRYPTION_KEY is not the base64 of a 16, 24 or 32-byte key (${how}).`;
+  }
+  return null;
+}
+
 /** The demo's address, used only when neither APP_URL nor NEXTAUTH_URL is set. */
 const LOCAL_DEMO_URL = "http://localhost:3000";
 
@@ -132,10 +151,12 @@ export function startupProblems(source: NodeJS.ProcessEnv = process.env): string
     return parsed.error.issues.map((i) => `${i.path.join(".") || "environment"}: ${i.message}`);
   }
   const problems: string[] = [];
-  const { NODE_ENV, NEXTAUTH_SECRET } = parsed.data;
+  const { NODE_ENV, NEXTAUTH_SECRET, NEXT_SERVER_ACTIONS_ENCRYPTION_KEY } = parsed.data;
   if (NODE_ENV === "production" && (NEXTAUTH_SECRET ?? "").length < MIN_SECRET_LENGTH) {
     problems.push(secretProblem(NEXTAUTH_SECRET));
   }
+  const keyProblem = actionsKeyProblem(NEXT_SERVER_ACTIONS_ENCRYPTION_KEY);
+  if (NODE_ENV === "production" && keyProblem) problems.push(keyProblem);
   return problems;
 }
 

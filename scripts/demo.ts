@@ -15,11 +15,17 @@ mkdirSync(dataDir, { recursive: true });
 const secretFile = path.join(dataDir, ".demo-secret");
 if (!existsSync(secretFile))
   writeFileSync(secretFile, randomBytes(32).toString("hex"), { mode: 0o600 });
+// The same for the key server actions are encrypted with (base64 of 32 random bytes).
+const actionsKeyFile = path.join(dataDir, ".demo-actions-key");
+if (!existsSync(actionsKeyFile))
+  writeFileSync(actionsKeyFile, randomBytes(32).toString("base64"), { mode: 0o600 });
 
 const env: NodeJS.ProcessEnv = {
   ...process.env,
   DATABASE_PATH: process.env.DATABASE_PATH ?? path.join(dataDir, "counterpoise.db"),
   NEXTAUTH_SECRET: process.env.NEXTAUTH_SECRET ?? readFileSync(secretFile, "utf8").trim(),
+  NEXT_SERVER_ACTIONS_ENCRYPTION_KEY:
+    process.env.NEXT_SERVER_ACTIONS_ENCRYPTION_KEY ?? readFileSync(actionsKeyFile, "utf8").trim(),
   NEXTAUTH_URL: process.env.NEXTAUTH_URL ?? `http://localhost:${port}`,
   // The demo's stand-ins for hosted services, on this machine only.
   SMTP_URL: process.env.SMTP_URL ?? "smtp://127.0.0.1:2525",

@@ -12,6 +12,8 @@ const NEXT = path.join(ROOT, "node_modules/next/dist/bin/next");
 
 /** Signs test sessions only; a real deployment sets its own NEXTAUTH_SECRET. */
 export const TEST_AUTH_SECRET = "counterpoise-browser-tests-only-0123456789";
+/** Encrypts server actions in tests only (base64 of 32 bytes); production sets its own. */
+export const TEST_ACTIONS_KEY = Buffer.from("counterpoise-browser-tests-only!").toString("base64");
 
 /**
  * The environment for an app served on 127.0.0.1:`port` with everything it writes in
@@ -29,6 +31,7 @@ export function appEnvironment(
     UPLOADS_DIR: path.join(dataDir, "uploads"),
     MAIL_CAPTURE_DIR: path.join(dataDir, "mail"),
     NEXTAUTH_SECRET: TEST_AUTH_SECRET,
+    NEXT_SERVER_ACTIONS_ENCRYPTION_KEY: TEST_ACTIONS_KEY,
     NEXTAUTH_URL: `http://127.0.0.1:${port}`,
     NEXT_TELEMETRY_DISABLED: "1",
     ...extra,
