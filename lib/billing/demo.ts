@@ -1,11 +1,12 @@
 import type { DB } from "@/db/client";
 import type { PriceKind } from "@/db/billing-schema";
-import { createInvoice, issueInvoice } from "@/db/invoices";
-import { recordManualPayment } from "@/db/payments";
-import { countPriceItems, createPriceItem, listPriceItems } from "@/db/prices";
-import { createQuote, moveQuote } from "@/db/quotes";
-import { updateShopSettings } from "@/db/settings";
+import { countPriceItems, listPriceItems } from "@/db/prices";
 import type { JobStatus } from "@/db/schema";
+import { updateShopSettings } from "@/db/settings";
+import { createInvoice, issueInvoice } from "./invoices";
+import { recordManualPayment } from "./payments";
+import { createPriceItem } from "./prices";
+import { createQuote, moveQuote } from "./quotes";
 
 // An invented shop and price list; the figures are plausible, not anyone's real prices.
 const DEMO_PRICES: { code: string; description: string; kind: PriceKind; unitPrice: string }[] = [

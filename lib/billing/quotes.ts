@@ -1,7 +1,158 @@
+import { createAuditEntry } from "@/db/audit";
+import type { QuoteStatus } from "@/db/billing-schema";
 import type { DB } from "@/db/client";
-import { moveQuote, type Quote } from "@/db/quotes";
+import { replaceDocumentLines } from "@/db/document-lines";
+import { ConflictError, NotFoundError } from "@/db/errors";
+import { findJobById } from "@/db/jobs";
+import { takeNextNumber } from "@/db/number-sequences";
+import {
+  findLiveQuoteForJob,
+  findQuoteById,
+  insertQuote,
+  lockQuote,
+  type Quote,
+  updateQuoteRow,
+} from "@/db/quotes";
+import { findShopSettings } from "@/db/settings";
 import type { User } from "@/db/users";
 import { findQuoteForUser } from "./access";
+import {
+  type LineInput,
+  linesWithTotals,
+  lockedAt,
+  priceLines,
+  repriceDocumentLines,
+  totalsColumns,
+} from "./document-lines";
+import { BillingInputError } from "./errors";
+
+/** Starts a quote for a job, priced from the list; one live (not withdrawn) quote per job. */
+export async function createQuote(
+  db: DB,
+  input: { jobId: number; lines: readonly LineInput[] },
+  actorId: number | null,
+  now = new Date(),
+): Promise<Quote> {
+  return db.transaction().execute(async (trx) => {
+    if (!(await findJobById(trx, input.jobId))) throw new NotFoundError("job");
+    const live = await findLiveQuoteForJob(trx, input.jobId);
+    if (live) {
+      throw new ConflictError(
+        "jobId",
+        live.status === "accepted"
+          ? `This job's quote ${live.number} is already accepted.`
+          : `This job already has quote ${live.number}: change it, or withdraw it first.`,
+      );
+    }
+    const settings = await findShopSettings(trx);
+    const { lines, totals } = linesWithTotals(await priceLines(trx, input.lines), settings.taxRate);
+    const id = await insertQuote(trx, {
+      number: await takeNextNumber(trx, "quote", now),
+      job_id: input.jobId,
+      ...totalsColumns(totals, settings),
+      created_by: actorId,
+      created_at: now.toISOString(),
+      updated_at: now.toISOString(),
+    });
+    await replaceDocumentLines(trx, "quote", id, lines);
+    const after = (await findQuoteById(trx, id))!;
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "create",
+      entity: "quote",
+      entityId: id,
+      after,
+    });
+    return after;
+  });
+}
+
+function refuse(status: QuoteStatus, doing: string): never {
+  throw new ConflictError("status", `A quote that is ${status} cannot be ${doing}.`);
+}
+
+/** Replaces a draft quote's lines (at today's prices and tax rate, kept lines at theirs). */
+export async function replaceQuoteLines(
+  db: DB,
+  id: number,
+  baseVersion: number,
+  lines: readonly LineInput[],
+  actorId: number | null,
+  now = new Date(),
+): Promise<Quote> {
+  return db.transaction().execute(async (trx) => {
+    const before = lockedAt(await lockQuote(trx, id), "quote", baseVersion);
+    if (before.status !== "draft") refuse(before.status, "changed");
+    const settings = await findShopSettings(trx);
+    const totals = await repriceDocumentLines(trx, "quote", before, lines, settings.taxRate);
+    await updateQuoteRow(trx, id, before.version, {
+      ...totalsColumns(totals, settings),
+      updated_at: now.toISOString(),
+    });
+    const after = (await findQuoteById(trx, id))!;
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "update",
+      entity: "quote",
+      entityId: id,
+      before,
+      after,
+    });
+    return after;
+  });
+}
+
+type QuoteMove = "offer" | "accept" | "withdraw";
+
+const MOVES: Record<QuoteMove, { from: readonly QuoteStatus[]; to: QuoteStatus; doing: string }> = {
+  offer: { from: ["draft"], to: "offered", doing: "offered" },
+  accept: { from: ["offered"], to: "accepted", doing: "accepted" },
+  withdraw: { from: ["draft", "offered"], to: "withdrawn", doing: "withdrawn" },
+};
+
+/**
+ * Moves a quote on: draft → offered (shown to the customer), offered → accepted, draft or
+ * offered → withdrawn. `acceptFromDraft` lets the counter record an acceptance given in person
+ * or by phone before the quote was offered. A quote needs at least one line to be offered or
+ * accepted. Once it has left draft its lines are locked.
+ */
+export async function moveQuote(
+  db: DB,
+  id: number,
+  move: QuoteMove,
+  actorId: number | null,
+  options: { acceptFromDraft?: boolean; now?: Date } = {},
+): Promise<Quote> {
+  const now = (options.now ?? new Date()).toISOString();
+  return db.transaction().execute(async (trx) => {
+    const before = lockedAt(await lockQuote(trx, id), "quote");
+    const rule = MOVES[move];
+    const from =
+      move === "accept" && options.acceptFromDraft ? [...rule.from, "draft" as const] : rule.from;
+    if (!from.includes(before.status)) refuse(before.status, rule.doing);
+    if (move !== "withdraw" && before.lines.length === 0) {
+      throw new BillingInputError("lines", "Add at least one line first.");
+    }
+    await updateQuoteRow(trx, id, before.version, {
+      status: rule.to,
+      offered_at: move === "offer" ? now : undefined,
+      accepted_at: move === "accept" ? now : undefined,
+      accepted_by: move === "accept" ? actorId : undefined,
+      withdrawn_at: move === "withdraw" ? now : undefined,
+      updated_at: now,
+    });
+    const after = (await findQuoteById(trx, id))!;
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: move,
+      entity: "quote",
+      entityId: id,
+      before: { status: before.status },
+      after: { status: after.status },
+    });
+    return after;
+  });
+}
 
 /**
  * Accepts a quote for the user asking. The customer whose job it is accepts an offered quote

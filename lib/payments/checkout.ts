@@ -1,8 +1,8 @@
 import type { DB } from "@/db/client";
-import { createPaymentSession } from "@/db/payments";
 import type { User } from "@/db/users";
 import { findInvoiceForUser } from "@/lib/billing/access";
 import { BillingInputError } from "@/lib/billing/errors";
+import { createPaymentSession } from "@/lib/billing/payments";
 import { compareMoney, subtractMoney, toMinorUnits } from "@/lib/billing/money";
 import { appBaseUrl } from "@/lib/env";
 import { HttpError } from "@/lib/http/errors";

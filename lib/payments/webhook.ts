@@ -1,12 +1,13 @@
 import Stripe from "stripe";
 import type { DB } from "@/db/client";
+import { invoiceExists } from "@/db/invoices";
 import {
-  applyOnlinePayment,
   createPaymentEvent,
   markPaymentSessionExpired,
   updatePaymentEventOutcome,
 } from "@/db/payments";
 import { fromMinorUnits } from "@/lib/billing/money";
+import { applyOnlinePayment } from "@/lib/billing/payments";
 
 export interface WebhookResult {
   status: 200 | 400;
@@ -93,13 +94,7 @@ export async function handlePaymentWebhook(
       await markPaymentSessionExpired(trx, event.data.object.id);
       result = "session-expired";
     }
-    const known =
-      invoiceId !== null &&
-      (await trx
-        .selectFrom("invoices")
-        .select("id")
-        .where("id", "=", invoiceId)
-        .executeTakeFirst());
+    const known = invoiceId !== null && (await invoiceExists(trx, invoiceId));
     await updatePaymentEventOutcome(trx, rowId, result, known ? invoiceId : null);
     return result;
   });

@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { INVOICE_STATUSES, MANUAL_PAYMENT_METHODS, PRICE_KINDS } from "@/db/billing-schema";
-import type { NewInvoiceInput } from "@/db/invoices";
-import type { LineInput } from "@/db/prices";
+import type { LineInput } from "@/lib/billing/document-lines";
+import type { NewInvoiceInput } from "@/lib/billing/invoices";
 import { currencyPlaces } from "@/lib/billing/format";
 import { listQuerySchema } from "./customers";
 

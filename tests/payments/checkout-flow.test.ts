@@ -4,8 +4,9 @@ import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi } 
 import { POST as checkoutRoute } from "@/app/api/invoices/[id]/checkout/route";
 import PayReturnPage from "@/app/pay/return/page";
 import type { DB } from "@/db/client";
-import { createInvoice, findInvoiceById, issueInvoice } from "@/db/invoices";
+import { findInvoiceById } from "@/db/invoices";
 import { listPaymentsForInvoice } from "@/db/payments";
+import { createInvoice, issueInvoice } from "@/lib/billing/invoices";
 import { resetEnvCache } from "@/lib/env";
 import { resetStripeClient } from "@/lib/payments/stripe";
 import { type FakePayments, startFakePayments } from "@/scripts/fake-payments";

@@ -1,7 +1,8 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import type { DB } from "@/db/client";
-import { createInvoice, findInvoiceById, issueInvoice } from "@/db/invoices";
+import { findInvoiceById } from "@/db/invoices";
 import { listPaymentEvents, listPaymentsForInvoice } from "@/db/payments";
+import { createInvoice, issueInvoice } from "@/lib/billing/invoices";
 import { freshDb } from "../helpers/db";
 import { type BillingWorld, setUpBilling } from "../api/billing/fixtures";
 import { completedEvent, deliver } from "./support";

@@ -3,8 +3,9 @@
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { getDb } from "@/db/client";
-import { createPriceItem, type PriceItem, updatePriceItem } from "@/db/prices";
+import type { PriceItem } from "@/db/prices";
 import { checkAccess } from "@/lib/auth/guard";
+import { createPriceItem, updatePriceItem } from "@/lib/billing/prices";
 import { type ActionResult, toActionFailure } from "@/lib/http/action-result";
 import { priceItemChangesSchema, priceItemSchema } from "@/lib/validation/billing";
 

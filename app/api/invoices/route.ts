@@ -1,6 +1,7 @@
 import { getDb } from "@/db/client";
-import { createInvoice, listInvoices } from "@/db/invoices";
+import { listInvoices } from "@/db/invoices";
 import { requireApiUser } from "@/lib/auth/guard";
+import { createInvoice } from "@/lib/billing/invoices";
 import { json, parseJson, route } from "@/lib/http/route";
 import { customerScope } from "@/lib/jobs/access";
 import { invoiceListQuerySchema, newInvoiceSchema } from "@/lib/validation/billing";

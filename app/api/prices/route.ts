@@ -1,6 +1,7 @@
 import { getDb } from "@/db/client";
-import { createPriceItem, listPriceItems } from "@/db/prices";
+import { listPriceItems } from "@/db/prices";
 import { requireApiUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { createPriceItem } from "@/lib/billing/prices";
 import { json, parseJson, route } from "@/lib/http/route";
 import { priceItemSchema } from "@/lib/validation/billing";
 

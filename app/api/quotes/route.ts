@@ -1,7 +1,7 @@
 import { getDb } from "@/db/client";
-import { createQuote } from "@/db/quotes";
 import { requireApiUser } from "@/lib/auth/guard";
 import { listQuotesForUser } from "@/lib/billing/access";
+import { createQuote } from "@/lib/billing/quotes";
 import { json, parseJson, route } from "@/lib/http/route";
 import { jobIdQuerySchema, newQuoteSchema } from "@/lib/validation/billing";
 

@@ -1,9 +1,10 @@
 import type { DB } from "@/db/client";
 import { createJob, type Job } from "@/db/jobs";
-import { createPriceItem, type PriceItem } from "@/db/prices";
+import type { PriceItem } from "@/db/prices";
 import type { Role } from "@/db/schema";
 import { updateShopSettings } from "@/db/settings";
 import type { User } from "@/db/users";
+import { createPriceItem } from "@/lib/billing/prices";
 import { addOneOfEachRole, addTestCustomer, addTestUser } from "../../helpers/db";
 
 export interface BillingWorld {

@@ -2,7 +2,7 @@ import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi } 
 import { POST as checkoutRoute } from "@/app/api/invoices/[id]/checkout/route";
 import PayReturnPage from "@/app/pay/return/page";
 import type { DB } from "@/db/client";
-import { createInvoice, issueInvoice } from "@/db/invoices";
+import { createInvoice, issueInvoice } from "@/lib/billing/invoices";
 import { cardVerifyUrl } from "@/lib/cards/urls";
 import { appBaseUrl, appBaseUrlWarning, resetEnvCache } from "@/lib/env";
 import { appBaseUrl as mailBaseUrl } from "@/lib/mail/invites";

@@ -1,7 +1,7 @@
 import { getDb } from "@/db/client";
-import { deleteDraftInvoice, replaceInvoiceLines } from "@/db/invoices";
 import { requireApiUser } from "@/lib/auth/guard";
 import { findInvoiceForUser } from "@/lib/billing/access";
+import { deleteDraftInvoice, replaceInvoiceLines } from "@/lib/billing/invoices";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { documentLinesSchema } from "@/lib/validation/billing";
 

@@ -1,6 +1,7 @@
 import { getDb } from "@/db/client";
-import { findPriceItemById, updatePriceItem } from "@/db/prices";
+import { findPriceItemById } from "@/db/prices";
 import { requireApiUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { updatePriceItem } from "@/lib/billing/prices";
 import { HttpError } from "@/lib/http/errors";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { priceItemChangesSchema } from "@/lib/validation/billing";

@@ -1,7 +1,7 @@
 import { getDb } from "@/db/client";
-import { replaceQuoteLines } from "@/db/quotes";
 import { requireApiUser } from "@/lib/auth/guard";
 import { findQuoteForUser } from "@/lib/billing/access";
+import { replaceQuoteLines } from "@/lib/billing/quotes";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { documentLinesSchema } from "@/lib/validation/billing";
 

@@ -1,7 +1,7 @@
 import { tellInvoiceIssued } from "@/lib/mail/events";
 import { getDb } from "@/db/client";
-import { issueInvoice } from "@/db/invoices";
 import { requireApiUser } from "@/lib/auth/guard";
+import { issueInvoice } from "@/lib/billing/invoices";
 import { json, parseId, route } from "@/lib/http/route";
 
 export const POST = route<{ id: string }>(async (_req, { params }) => {

@@ -1,8 +1,8 @@
 import { tellPaymentReceived } from "@/lib/mail/events";
 import { getDb } from "@/db/client";
-import { recordManualPayment } from "@/db/payments";
 import { requireApiUser } from "@/lib/auth/guard";
 import { listPaymentsForUser } from "@/lib/billing/access";
+import { recordManualPayment } from "@/lib/billing/payments";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { manualPaymentSchema } from "@/lib/validation/billing";
 

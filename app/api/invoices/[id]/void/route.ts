@@ -1,6 +1,6 @@
 import { getDb } from "@/db/client";
-import { voidInvoice } from "@/db/invoices";
 import { requireApiUser } from "@/lib/auth/guard";
+import { voidInvoice } from "@/lib/billing/invoices";
 import { json, parseId, route } from "@/lib/http/route";
 
 export const POST = route<{ id: string }>(async (_req, { params }) => {

@@ -1,6 +1,6 @@
 import { getDb } from "@/db/client";
-import { moveQuote } from "@/db/quotes";
 import { requireApiUser } from "@/lib/auth/guard";
+import { moveQuote } from "@/lib/billing/quotes";
 import { json, parseId, route } from "@/lib/http/route";
 
 export const POST = route<{ id: string }>(async (_req, { params }) => {

@@ -1,0 +1,235 @@
+import { createAuditEntry } from "@/db/audit";
+import type { InvoiceStatus } from "@/db/billing-schema";
+import type { DB } from "@/db/client";
+import { findCustomerById } from "@/db/customers";
+import { replaceDocumentLines } from "@/db/document-lines";
+import { ConflictError, NotFoundError } from "@/db/errors";
+import {
+  deleteInvoiceRow,
+  findInvoiceById,
+  findLiveInvoiceForQuote,
+  insertInvoice,
+  type Invoice,
+  type Issuer,
+  lockInvoice,
+  updateInvoiceRow,
+} from "@/db/invoices";
+import { findJobById } from "@/db/jobs";
+import { takeNextNumber } from "@/db/number-sequences";
+import { findQuoteById } from "@/db/quotes";
+import { findShopSettings } from "@/db/settings";
+import {
+  type LineInput,
+  linesWithTotals,
+  lockedAt,
+  type PricedLineValues,
+  priceLines,
+  repriceDocumentLines,
+  totalsColumns,
+} from "./document-lines";
+import { BillingInputError } from "./errors";
+import { compareMoney } from "./money";
+
+export type NewInvoiceInput =
+  | { jobId: number; quoteId: number; lines?: undefined }
+  | { jobId: number; quoteId?: undefined; lines: readonly LineInput[] };
+
+/**
+ * A draft invoice for a job: a copy of its accepted quote's lines at the quoted prices, or lines
+ * priced from the list. One live (not void) invoice per quote.
+ */
+export async function createInvoice(
+  db: DB,
+  input: NewInvoiceInput,
+  actorId: number | null,
+  now = new Date(),
+): Promise<Invoice> {
+  return db.transaction().execute(async (trx) => {
+    if (!(await findJobById(trx, input.jobId))) throw new NotFoundError("job");
+    let priced: PricedLineValues[];
+    if (input.quoteId !== undefined) {
+      const quote = await findQuoteById(trx, input.quoteId);
+      if (!quote || quote.jobId !== input.jobId) {
+        throw new BillingInputError("quoteId", "That quote is not for this job.");
+      }
+      if (quote.status !== "accepted") {
+        throw new ConflictError("quoteId", `Quote ${quote.number} has not been accepted.`);
+      }
+      if (await findLiveInvoiceForQuote(trx, quote.id)) {
+        throw new ConflictError("quoteId", `Quote ${quote.number} is already invoiced.`);
+      }
+      priced = quote.lines;
+    } else {
+      priced = await priceLines(trx, input.lines);
+    }
+    const settings = await findShopSettings(trx);
+    const { lines, totals } = linesWithTotals(priced, settings.taxRate);
+    const id = await insertInvoice(trx, {
+      job_id: input.jobId,
+      quote_id: input.quoteId ?? null,
+      ...totalsColumns(totals, settings),
+      created_by: actorId,
+      created_at: now.toISOString(),
+      updated_at: now.toISOString(),
+    });
+    await replaceDocumentLines(trx, "invoice", id, lines);
+    const after = (await findInvoiceById(trx, id))!;
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "create",
+      entity: "invoice",
+      entityId: id,
+      after,
+    });
+    return after;
+  });
+}
+
+function refuse(status: InvoiceStatus, doing: string): never {
+  throw new ConflictError("status", `An invoice that is ${status} cannot be ${doing}.`);
+}
+
+/** Replaces a draft invoice's lines; kept lines (by lineId) keep their price. */
+export async function replaceInvoiceLines(
+  db: DB,
+  id: number,
+  baseVersion: number,
+  lines: readonly LineInput[],
+  actorId: number | null,
+  now = new Date(),
+): Promise<Invoice> {
+  return db.transaction().execute(async (trx) => {
+    const before = lockedAt(await lockInvoice(trx, id), "invoice", baseVersion);
+    if (before.status !== "draft") refuse(before.status, "changed");
+    const settings = await findShopSettings(trx);
+    const totals = await repriceDocumentLines(trx, "invoice", before, lines, settings.taxRate);
+    await updateInvoiceRow(trx, id, before.version, {
+      ...totalsColumns(totals, settings),
+      updated_at: now.toISOString(),
+    });
+    const after = (await findInvoiceById(trx, id))!;
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "update",
+      entity: "invoice",
+      entityId: id,
+      before,
+      after,
+    });
+    return after;
+  });
+}
+
+function billToText(c: {
+  name: string;
+  company: string | null;
+  address: string | null;
+  email: string | null;
+}): string {
+  return [c.name, c.company, c.address, c.email].filter((x): x is string => !!x).join("\n");
+}
+
+/**
+ * Issues a draft: draws the next invoice number, applies the shop's tax rate and currency as
+ * they are at this moment, and freezes the shop's and the customer's details on the invoice.
+ */
+export async function issueInvoice(
+  db: DB,
+  id: number,
+  actorId: number | null,
+  now = new Date(),
+): Promise<Invoice> {
+  return db.transaction().execute(async (trx) => {
+    const before = lockedAt(await lockInvoice(trx, id), "invoice");
+    if (before.status !== "draft") refuse(before.status, "issued");
+    if (before.lines.length === 0)
+      throw new BillingInputError("lines", "Add at least one line first.");
+    const settings = await findShopSettings(trx);
+    const { totals } = linesWithTotals(before.lines, settings.taxRate);
+    if (compareMoney(totals.total, "0") <= 0) {
+      throw new BillingInputError("lines", "An invoice must be for more than nothing.");
+    }
+    const customer = await findCustomerById(trx, before.customerId);
+    if (!customer) throw new NotFoundError("customer");
+    const issuer: Issuer = {
+      shopName: settings.shopName,
+      address: settings.address,
+      phone: settings.phone,
+      email: settings.email,
+    };
+    await updateInvoiceRow(trx, id, before.version, {
+      number: await takeNextNumber(trx, "invoice", now),
+      status: "issued",
+      ...totalsColumns(totals, settings),
+      issuer_json: JSON.stringify(issuer),
+      bill_to: billToText(customer),
+      footer: settings.invoiceFooter,
+      issued_at: now.toISOString(),
+      updated_at: now.toISOString(),
+    });
+    const after = (await findInvoiceById(trx, id))!;
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "issue",
+      entity: "invoice",
+      entityId: id,
+      before: { status: before.status },
+      after: { status: after.status, number: after.number, total: after.total },
+    });
+    return after;
+  });
+}
+
+/** Voids an issued invoice nothing has been paid on; it keeps its number. */
+export async function voidInvoice(
+  db: DB,
+  id: number,
+  actorId: number | null,
+  now = new Date(),
+): Promise<Invoice> {
+  return db.transaction().execute(async (trx) => {
+    const before = lockedAt(await lockInvoice(trx, id), "invoice");
+    if (before.status !== "issued") refuse(before.status, "voided");
+    if (compareMoney(before.amountPaid, "0") !== 0) {
+      throw new ConflictError(
+        "status",
+        "Money has been received on this invoice: it cannot be voided.",
+      );
+    }
+    await updateInvoiceRow(trx, id, before.version, {
+      status: "void",
+      voided_at: now.toISOString(),
+      updated_at: now.toISOString(),
+    });
+    const after = (await findInvoiceById(trx, id))!;
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "void",
+      entity: "invoice",
+      entityId: id,
+      before: { status: before.status },
+      after: { status: after.status },
+    });
+    return after;
+  });
+}
+
+/** Throws away a draft (it never had a number). */
+export async function deleteDraftInvoice(
+  db: DB,
+  id: number,
+  actorId: number | null,
+): Promise<void> {
+  await db.transaction().execute(async (trx) => {
+    const before = lockedAt(await lockInvoice(trx, id), "invoice");
+    if (before.status !== "draft") refuse(before.status, "deleted");
+    await deleteInvoiceRow(trx, id);
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "delete",
+      entity: "invoice",
+      entityId: id,
+      before,
+    });
+  });
+}
