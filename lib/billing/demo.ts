@@ -1,5 +1,6 @@
 import type { DB } from "@/db/client";
 import type { PriceKind } from "@/db/billing-schema";
+import { listJobs } from "@/db/jobs";
 import { countPriceItems, listPriceItems } from "@/db/prices";
 import type { JobStatus } from "@/db/schema";
 import { updateShopSettings } from "@/db/settings";
@@ -86,13 +87,8 @@ const DEMO_PRICES: { code: string; description: string; kind: PriceKind; unitPri
 ];
 
 async function firstJobIn(db: DB, status: JobStatus): Promise<number | undefined> {
-  const row = await db
-    .selectFrom("jobs")
-    .select("id")
-    .where("status", "=", status)
-    .orderBy("id")
-    .executeTakeFirst();
-  return row?.id;
+  const { jobs } = await listJobs(db, { status, sort: "oldest", limit: 1 });
+  return jobs[0]?.id;
 }
 
 /**
