@@ -1,5 +1,6 @@
 import type { Kysely } from "kysely";
 import { createAuditEntry } from "./audit";
+import { forUpdate } from "./dialect";
 import { customerSearch } from "./search";
 import { NotFoundError } from "./errors";
 import type { CustomerRow, Database } from "./schema";
@@ -143,4 +144,105 @@ export async function listCustomers(
     base.select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow(),
   ]);
   return { customers: rows.map(toCustomer), total: Number(count.n) };
+}
+
+/** The customer row, locked for the rest of the caller's transaction on PostgreSQL. */
+export async function lockCustomer(
+  trx: Kysely<Database>,
+  id: number,
+): Promise<Customer | undefined> {
+  const row = await trx
+    .selectFrom("customers")
+    .selectAll()
+    .where("id", "=", id)
+    .$call(forUpdate(trx))
+    .executeTakeFirst();
+  return row && toCustomer(row);
+}
+
+/** What hangs off a customer: their jobs (with those jobs' quotes and invoices), accounts, invites. */
+export interface CustomerHoldings {
+  jobs: number;
+  quotes: number;
+  invoices: number;
+  accounts: number;
+  invites: number;
+}
+
+export async function countCustomerHoldings(
+  db: Kysely<Database>,
+  id: number,
+): Promise<CustomerHoldings> {
+  const jobIds = db.selectFrom("jobs").select("id").where("customer_id", "=", id);
+  const [jobs, quotes, invoices, accounts, invites] = await Promise.all([
+    db
+      .selectFrom("jobs")
+      .select((eb) => eb.fn.countAll<number>().as("n"))
+      .where("customer_id", "=", id)
+      .executeTakeFirstOrThrow(),
+    db
+      .selectFrom("quotes")
+      .select((eb) => eb.fn.countAll<number>().as("n"))
+      .where("job_id", "in", jobIds)
+      .executeTakeFirstOrThrow(),
+    db
+      .selectFrom("invoices")
+      .select((eb) => eb.fn.countAll<number>().as("n"))
+      .where("job_id", "in", jobIds)
+      .executeTakeFirstOrThrow(),
+    db
+      .selectFrom("users")
+      .select((eb) => eb.fn.countAll<number>().as("n"))
+      .where("customer_id", "=", id)
+      .executeTakeFirstOrThrow(),
+    db
+      .selectFrom("invites")
+      .select((eb) => eb.fn.countAll<number>().as("n"))
+      .where("customer_id", "=", id)
+      .executeTakeFirstOrThrow(),
+  ]);
+  return {
+    jobs: Number(jobs.n),
+    quotes: Number(quotes.n),
+    invoices: Number(invoices.n),
+    accounts: Number(accounts.n),
+    invites: Number(invites.n),
+  };
+}
+
+/**
+ * Moves everything from one customer to another inside the caller's transaction: jobs (their
+ * quotes and invoices go with them), customer accounts and invites; then deletes the emptied
+ * customer. Returns how many rows of each moved.
+ */
+export async function moveCustomerHoldings(
+  trx: Kysely<Database>,
+  fromId: number,
+  toId: number,
+): Promise<{ jobs: number; accounts: number; invites: number }> {
+  const jobs = await trx
+    .updateTable("jobs")
+    .set({ customer_id: toId })
+    .where("customer_id", "=", fromId)
+    .executeTakeFirst();
+  const accounts = await trx
+    .updateTable("users")
+    .set({ customer_id: toId })
+    .where("customer_id", "=", fromId)
+    .executeTakeFirst();
+  const invites = await trx
+    .updateTable("invites")
+    .set({ customer_id: toId })
+    .where("customer_id", "=", fromId)
+    .executeTakeFirst();
+  return {
+    jobs: Number(jobs.numUpdatedRows),
+    accounts: Number(accounts.numUpdatedRows),
+    invites: Number(invites.numUpdatedRows),
+  };
+}
+
+/** Deletes a customer that nothing points at any more (after moveCustomerHoldings). */
+export async function deleteCustomerRow(trx: Kysely<Database>, id: number): Promise<void> {
+  await trx.deleteFrom("customers").where("id", "=", id).execute();
 }
