@@ -1,23 +1,21 @@
-// Copies the live database (npm run db:backup [-- target.db]); safe while the app is running.
+// Copies the live database (npm run db:backup [-- target]); safe while the app is running.
+// SQLite: SQLite's online backup into a .db file. PostgreSQL (DATABASE_URL set): pg_dump's
+// custom format (-Fc) into a .dump file, read back whole before it takes the target's name.
 import path from "node:path";
-import { backupDatabase, fileStamp } from "@/db/backup";
+import { backupDatabase, backupPostgres, fileStamp } from "@/db/backup";
 import { env } from "@/lib/env";
 
-if (env().DATABASE_URL) {
-  console.error(
-    "DATABASE_URL is set: the database is PostgreSQL, which this command does not copy. " +
-      "Use PostgreSQL's own tools (pg_dump and pg_restore, or your host's backups).",
-  );
-  process.exit(2);
-}
-
-const source = path.resolve(env().DATABASE_PATH);
+const url = env().DATABASE_URL;
+const source = url ? "the PostgreSQL database" : path.resolve(env().DATABASE_PATH);
 const target = path.resolve(
-  process.argv[2] ?? path.join("data", "backups", `counterpoise-${fileStamp(new Date())}.db`),
+  process.argv[2] ??
+    path.join("data", "backups", `counterpoise-${fileStamp(new Date())}.${url ? "dump" : "db"}`),
 );
 
 try {
-  const { bytes, migration } = await backupDatabase(source, target);
+  const { bytes, migration } = url
+    ? await backupPostgres(url, target)
+    : await backupDatabase(source, target);
   console.log(`backed up ${source}`);
   console.log(
     `      to ${target} (${(bytes / 1024).toFixed(0)} KiB, migration ${migration ?? "none"})`,

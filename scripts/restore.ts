@@ -1,27 +1,25 @@
-// Puts a backup in place of the database (npm run db:restore -- <backup.db>). Stop the app first.
+// Puts a backup in place of the database (npm run db:restore -- <backup>). Stop the app first.
+// SQLite: a .db file made by db:backup. PostgreSQL (DATABASE_URL set): a pg_dump -Fc archive,
+// restored with pg_restore --clean --if-exists in one transaction; the database as it was is
+// dumped beside the backup first.
 import path from "node:path";
-import { BackupError, restoreDatabase } from "@/db/backup";
+import { BackupError, restoreDatabase, restorePostgres } from "@/db/backup";
 import { latestMigration } from "@/db/migrate";
 import { env } from "@/lib/env";
-
-if (env().DATABASE_URL) {
-  console.error(
-    "DATABASE_URL is set: the database is PostgreSQL, which this command does not copy. " +
-      "Use PostgreSQL's own tools (pg_dump and pg_restore, or your host's backups).",
-  );
-  process.exit(2);
-}
 
 const file = process.argv[2];
 if (!file) {
   console.error("usage: npm run db:restore -- <backup file>");
   process.exit(2);
 }
+const url = env().DATABASE_URL;
 const backup = path.resolve(file);
-const target = path.resolve(env().DATABASE_PATH);
+const target = url ? "the PostgreSQL database" : path.resolve(env().DATABASE_PATH);
 
 try {
-  const { previous, migration } = await restoreDatabase(backup, target);
+  const { previous, migration } = url
+    ? await restorePostgres(backup, url)
+    : await restoreDatabase(backup, target);
   console.log(`restored ${backup}`);
   console.log(`    into ${target}`);
   if (previous) console.log(`the database it replaced is kept as ${previous}`);
