@@ -154,10 +154,8 @@ const SETTINGS: [keyof JobSpec, (b: Spec, a: Spec) => (string | null)[]][] = [
       const mb = parseDrillMaterials((b.material as string | null) ?? null);
       const ma = parseDrillMaterials((a.material as string | null) ?? null);
       return [
-        mb.rod === ma.rod ? null : `Drill material for rods set to ${materialName(ma.rod)}`,
-        mb.piston === ma.piston
-          ? null
-          : `Drill material for pistons set to ${materialName(ma.piston)}`,
+        mb.rod === ma.rod ? null : `Rod material set to ${materialName(ma.rod)}`,
+        mb.piston === ma.piston ? null : `Piston material set to ${materialName(ma.piston)}`,
       ];
     },
   ],

@@ -190,7 +190,7 @@ describe("the change history", () => {
     await save({ balanceFactor: "" }); // blank stays blank: no change
     const lines = await sentences();
     expect(lines).toContain("Scale resolution changed from 0.1 g to 0.05 g");
-    expect(lines).toContain("Drill material for pistons set to forged piston alloy 2618");
+    expect(lines).toContain("Piston material set to forged piston alloy 2618");
     expect(lines).toContain("Lengths now in inches");
     expect(lines).toContain("Bore set to 4.030 in");
     const changes = await listJobChanges(db, job.id);
