@@ -30,6 +30,23 @@ export interface UserTable {
   disabled: Generated<number>;
   customer_id: number | null;
   created_at: CreatedAt;
+  /** Added to on disable, role change and password change: older session cookies are refused. */
+  session_version: Generated<number>;
+}
+
+/** A session signed out on its own, kept until its cookie would have expired. */
+export interface EndedSessionTable {
+  sid: string;
+  user_id: number;
+  expires_at: string;
+}
+
+/** Rate-limit counts shared by every app server (db/rate-limits.ts). */
+export interface RateLimitTable {
+  key: string;
+  points: Generated<number>;
+  /** Milliseconds since 1970 when the window ends; null: never. */
+  expires_at: number | string | null;
 }
 
 export interface CustomerTable {
@@ -168,6 +185,8 @@ export interface Database
   jobs: JobTable;
   audit_log: AuditLogTable;
   sign_in_failures: SignInFailureTable;
+  ended_sessions: EndedSessionTable;
+  rate_limits: RateLimitTable;
   part_weights: PartWeightTable;
   part_targets: PartTargetTable;
   rotating_records: RotatingRecordTable;

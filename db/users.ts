@@ -46,6 +46,28 @@ export async function findUserById(db: Kysely<Database>, id: number): Promise<Us
   return row && toUser(row);
 }
 
+/** The user a session cookie names, with the session version its cookie must carry. */
+export async function findUserForSession(
+  db: Kysely<Database>,
+  id: number,
+): Promise<{ user: User; sessionVersion: number } | undefined> {
+  const row = await db.selectFrom("users").selectAll().where("id", "=", id).executeTakeFirst();
+  return row && { user: toUser(row), sessionVersion: Number(row.session_version) };
+}
+
+/** The session version a user's cookies are issued at now. */
+export async function findSessionVersion(
+  db: Kysely<Database>,
+  id: number,
+): Promise<number | undefined> {
+  const row = await db
+    .selectFrom("users")
+    .select("session_version")
+    .where("id", "=", id)
+    .executeTakeFirst();
+  return row && Number(row.session_version);
+}
+
 export async function listUsers(db: Kysely<Database>): Promise<User[]> {
   const rows = await db.selectFrom("users").selectAll().orderBy("role").orderBy("name").execute();
   return rows.map(toUser);
@@ -124,6 +146,12 @@ export async function updateUser(
         role,
         customer_id: customerId,
         disabled: changes.disabled === undefined ? before.disabled : changes.disabled ? 1 : 0,
+        // A role change or a disable ends every session issued before it.
+        session_version:
+          role !== before.role ||
+          (changes.disabled !== undefined && changes.disabled !== (before.disabled === 1))
+            ? Number(before.session_version) + 1
+            : before.session_version,
       })
       .where("id", "=", id)
       .returningAll()
@@ -141,12 +169,35 @@ export async function updateUser(
   });
 }
 
+/**
+ * Sets a new password hash and ends every session issued before it (the session version goes
+ * up by one). Answers the new session version, or undefined when there is no such user.
+ */
 export async function updateUserPassword(
   db: Kysely<Database>,
   id: number,
   passwordHash: string,
-): Promise<void> {
-  await db.updateTable("users").set({ password_hash: passwordHash }).where("id", "=", id).execute();
+  actorId: number | null = null,
+): Promise<number | undefined> {
+  return db.transaction().execute(async (trx) => {
+    const row = await trx
+      .updateTable("users")
+      .set((eb) => ({
+        password_hash: passwordHash,
+        session_version: eb("session_version", "+", 1),
+      }))
+      .where("id", "=", id)
+      .returning("session_version")
+      .executeTakeFirst();
+    if (!row) return undefined;
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "password_change",
+      entity: "user",
+      entityId: id,
+    });
+    return Number(row.session_version);
+  });
 }
 
 /** How many active owners there are: the last one may not be demoted or disabled. */

@@ -18,6 +18,9 @@ import * as m0163 from "./20261202_0163_create_build_cards";
 import * as m0180 from "./20261202_0180_create_counter_settings";
 import * as m0190 from "./20261202_0190_create_job_search_index";
 import * as m0191 from "./20261202_0191_add_sender_to_mail_log";
+import * as m0200 from "./20261202_0200_add_session_version_to_users";
+import * as m0201 from "./20261202_0201_create_ended_sessions";
+import * as m0202 from "./20261202_0202_create_rate_limits";
 
 // A static map of the same files, for tests and for code running inside Next (which cannot read
 // the folder at run time). `scripts/migrate.ts` reads the folder itself. Add each new file here.
@@ -41,4 +44,7 @@ export const migrations: Record<string, Migration> = {
   "20261202_0180_create_counter_settings": m0180,
   "20261202_0190_create_job_search_index": m0190,
   "20261202_0191_add_sender_to_mail_log": m0191,
+  "20261202_0200_add_session_version_to_users": m0200,
+  "20261202_0201_create_ended_sessions": m0201,
+  "20261202_0202_create_rate_limits": m0202,
 };

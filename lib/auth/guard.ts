@@ -1,21 +1,35 @@
 import { redirect } from "next/navigation";
 import { getDb } from "@/db/client";
 import type { Role } from "@/db/schema";
-import { findUserById, type User } from "@/db/users";
+import { isSessionEnded } from "@/db/sessions";
+import { findUserForSession, type User } from "@/db/users";
 import { HttpError } from "@/lib/http/errors";
-import { readSessionUserId } from "./session";
+import { SESSION_ENDED } from "./messages";
+import { readSession } from "./session";
 
-export type Access = { ok: true; user: User } | { ok: false; status: 401 | 403; message: string };
+export type Access =
+  { ok: true; user: User } | { ok: false; status: 401 | 403; message: string; ended?: boolean };
 
 /**
  * Who is asking and may they: the one check behind every page, route handler and action.
  * The role is read from the database, not the cookie, so a disabled user or a changed role
- * takes effect on the next request.
+ * takes effect on the next request. The cookie's session version must be the user's current one
+ * (a disable, a role or password change adds one) and its session must not have been signed out.
  */
 export async function checkAccess(allowed: readonly Role[]): Promise<Access> {
-  const id = await readSessionUserId();
-  const user = id === null ? undefined : await findUserById(getDb(), id);
-  if (!user || user.disabled) return { ok: false, status: 401, message: "Sign in to continue." };
+  const claim = await readSession();
+  if (!claim) return { ok: false, status: 401, message: "Sign in to continue." };
+  const found = await findUserForSession(getDb(), claim.userId);
+  const user = found?.user;
+  // A cookie issued before a disable, a role or password change, or one signed out, has ended.
+  if (
+    !found ||
+    !user ||
+    user.disabled ||
+    claim.sessionVersion !== found.sessionVersion ||
+    (claim.sid !== null && (await isSessionEnded(getDb(), claim.sid)))
+  )
+    return { ok: false, status: 401, message: SESSION_ENDED, ended: true };
   if (!allowed.includes(user.role))
     return { ok: false, status: 403, message: "Your role may not do this." };
   return { ok: true, user };
@@ -37,7 +51,8 @@ export async function requireApiUser(allowed: readonly Role[]): Promise<User> {
 export async function requirePageUser(allowed: readonly Role[], returnTo = "/"): Promise<User> {
   const access = await checkAccess(allowed);
   if (access.ok) return access.user;
-  if (access.status === 401) redirect(`/sign-in?next=${encodeURIComponent(returnTo)}`);
+  if (access.status === 401)
+    redirect(`/sign-in?next=${encodeURIComponent(returnTo)}${access.ended ? "&expired=1" : ""}`);
   redirect("/no-access");
 }
 

@@ -5,7 +5,16 @@ declare module "next-auth" {
     role: Role;
   }
   interface Session {
-    user: { id: number; role: Role; name?: string | null; email?: string | null };
+    user: {
+      id: number;
+      role: Role;
+      /** The session's own id (lib/auth/session.ts). */
+      sid?: string;
+      /** The user's session version when this session was issued. */
+      sv?: number;
+      name?: string | null;
+      email?: string | null;
+    };
   }
 }
 
@@ -13,5 +22,7 @@ declare module "next-auth/jwt" {
   interface JWT {
     uid: number;
     role: Role;
+    sid?: string;
+    sv?: number;
   }
 }

@@ -1,6 +1,9 @@
 import type { NextAuthOptions } from "next-auth";
 import Credentials from "next-auth/providers/credentials";
+import { randomUUID } from "node:crypto";
 import { getDb } from "@/db/client";
+import { endSession } from "@/db/sessions";
+import { findSessionVersion } from "@/db/users";
 import { authSecret } from "@/lib/env";
 import { signInSchema } from "@/lib/validation/users";
 import { signInWithPassword } from "./sign-in";
@@ -39,16 +42,38 @@ export function authOptions(): NextAuthOptions {
       }),
     ],
     callbacks: {
-      jwt({ token, user }) {
+      // At sign-in the cookie gets the session's own id and the user's session version
+      // (lib/auth/guard.ts refuses it once either has ended).
+      async jwt({ token, user }) {
         if (user) {
           token.uid = Number(user.id);
           token.role = user.role;
+          token.sid = randomUUID();
+          token.sv = (await findSessionVersion(getDb(), token.uid)) ?? 0;
         }
         return token;
       },
       session({ session, token }) {
-        session.user = { ...session.user, id: token.uid, role: token.role };
+        session.user = {
+          ...session.user,
+          id: token.uid,
+          role: token.role,
+          sid: token.sid,
+          sv: token.sv,
+        };
         return session;
+      },
+    },
+    events: {
+      // Signing out ends this session only (its id is kept until the cookie would have
+      // expired), so a copy of the cookie stops working too; other devices stay signed in.
+      async signOut({ token }) {
+        if (!token || typeof token.sid !== "string" || typeof token.uid !== "number") return;
+        const exp = typeof token.exp === "number" ? token.exp * 1000 : NaN;
+        const expiresAt = Number.isFinite(exp)
+          ? new Date(exp)
+          : new Date(Date.now() + SESSION_MAX_AGE_SECONDS * 1000);
+        await endSession(getDb(), { sid: token.sid, userId: token.uid, expiresAt });
       },
     },
   };
