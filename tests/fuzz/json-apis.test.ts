@@ -48,6 +48,7 @@ const NOT_FUZZED: Record<string, string> = {
   "POST /api/quotes/[id]/withdraw": "reads no body",
   "POST /api/quotes/[id]/accept": "reads no body",
   "POST /api/mail/[id]/retry": "reads no body",
+  "POST /api/jobs/[id]/build/cards": "reads no body",
 };
 
 /** Records a route is fuzzed against where the default one would make every run the same. */
