@@ -246,3 +246,46 @@ export async function moveCustomerHoldings(
 export async function deleteCustomerRow(trx: Kysely<Database>, id: number): Promise<void> {
   await trx.deleteFrom("customers").where("id", "=", id).execute();
 }
+
+/** One entry of a customer's history, with who made it. */
+export interface CustomerChange {
+  id: number;
+  at: string;
+  who: string | null;
+  action: string;
+  before: Record<string, unknown> | null;
+  after: Record<string, unknown> | null;
+}
+
+/** The customer's history (added, edited, merged), newest first. */
+export async function listCustomerHistory(
+  db: Kysely<Database>,
+  id: number,
+): Promise<CustomerChange[]> {
+  const rows = await db
+    .selectFrom("audit_log")
+    .leftJoin("users", "users.id", "audit_log.user_id")
+    .select([
+      "audit_log.id",
+      "audit_log.at",
+      "users.name as who",
+      "audit_log.action",
+      "audit_log.before_json",
+      "audit_log.after_json",
+    ])
+    .where("audit_log.entity", "=", "customer")
+    .where("audit_log.entity_id", "=", String(id))
+    .orderBy("audit_log.id", "desc")
+    .limit(200)
+    .execute();
+  const parse = (text: string | null) =>
+    text ? (JSON.parse(text) as Record<string, unknown>) : null;
+  return rows.map((r) => ({
+    id: r.id,
+    at: r.at,
+    who: r.who,
+    action: r.action,
+    before: parse(r.before_json),
+    after: parse(r.after_json),
+  }));
+}

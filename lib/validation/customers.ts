@@ -12,7 +12,7 @@ const optionalText = (max: number) =>
 export const customerSchema = z
   .object({
     name: z
-      .string()
+      .string({ message: "Enter the customer's name." })
       .trim()
       .min(1, "Enter the customer's name.")
       .max(120, "Use at most 120 characters."),

@@ -1,9 +1,12 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
+import { redirect } from "next/navigation";
 import { getDb } from "@/db/client";
-import { createCustomer, type Customer } from "@/db/customers";
+import { createCustomer, type Customer, updateCustomer } from "@/db/customers";
 import { checkAccess } from "@/lib/auth/guard";
+import { mergeCustomers } from "@/lib/customers/merge";
+import { mergeCustomerSchema } from "@/lib/customers/merge-schema";
 import { type ActionResult, toActionFailure } from "@/lib/http/action-result";
 import { formValues } from "@/lib/http/form-values";
 import { customerSchema } from "@/lib/validation/customers";
@@ -22,4 +25,49 @@ export async function createCustomerAction(
   } catch (error) {
     return toActionFailure(error);
   }
+}
+
+/** Saves a customer's details from their page (the id is bound by the page). */
+export async function updateCustomerAction(
+  id: number,
+  _prev: ActionResult<Customer> | null,
+  form: FormData,
+): Promise<ActionResult<Customer>> {
+  const access = await checkAccess(["owner", "counter"]);
+  if (!access.ok) return { ok: false, status: access.status, message: access.message };
+  try {
+    const input = customerSchema.parse(formValues(form));
+    const customer = await updateCustomer(getDb(), id, input, access.user.id);
+    revalidatePath("/customers");
+    revalidatePath(`/customers/${id}`);
+    return { ok: true, data: customer, message: "Details saved." };
+  } catch (error) {
+    return toActionFailure(error);
+  }
+}
+
+/** Merges the chosen customer into the one whose page this is, then shows the kept customer. */
+export async function mergeCustomerAction(
+  keepId: number,
+  _prev: ActionResult<undefined> | null,
+  form: FormData,
+): Promise<ActionResult<undefined>> {
+  const access = await checkAccess(["owner", "counter"]);
+  if (!access.ok) return { ok: false, status: access.status, message: access.message };
+  try {
+    if (form.get("confirm") !== "yes") {
+      return {
+        ok: false,
+        status: 422,
+        message: "Tick the box to confirm the merge.",
+        fields: { confirm: "Tick the box to confirm the merge." },
+      };
+    }
+    const { removeId } = mergeCustomerSchema.parse({ removeId: form.get("removeId") || undefined });
+    await mergeCustomers(getDb(), keepId, removeId, access.user.id);
+    revalidatePath("/customers");
+  } catch (error) {
+    return toActionFailure(error);
+  }
+  redirect(`/customers/${keepId}?merged=1`);
 }

@@ -1,3 +1,4 @@
+import Link from "next/link";
 import { AddCustomerForm } from "@/components/customers/add-customer-form";
 import { InviteCustomerButton } from "@/components/mail/invite-customer-button";
 import { Pager } from "@/components/ui/pager";
@@ -28,14 +29,14 @@ export default async function CustomersPage({
     <section className="space-y-4">
       <div className="flex flex-wrap items-end justify-between gap-4">
         <h1 className="text-2xl font-semibold">Customers</h1>
-        <form role="search" className="flex items-end gap-2">
-          <label className="text-sm">
+        <form role="search" className="flex w-full items-end gap-2 sm:w-auto">
+          <label className="min-w-0 flex-1 text-sm sm:flex-none">
             <span className="mb-1 block font-semibold">Find</span>
             <input
               name="search"
               defaultValue={query.search ?? ""}
               placeholder="Name, company, e-mail, phone"
-              className="field-input w-72"
+              className="field-input w-full sm:w-72"
             />
           </label>
           <button className="btn-secondary" type="submit">
@@ -43,7 +44,23 @@ export default async function CustomersPage({
           </button>
         </form>
       </div>
-      <div className="panel overflow-x-auto">
+      <ul className="space-y-2 sm:hidden" data-testid="customer-cards">
+        {customers.map((c) => (
+          <li key={c.id} className="panel space-y-1 p-3 text-sm">
+            <Link href={`/customers/${c.id}`} className="block font-semibold underline">
+              {c.name}
+            </Link>
+            {c.company ? <p>{c.company}</p> : null}
+            {c.email ? <p className="break-all">{c.email}</p> : null}
+            {c.phone ? <p>{c.phone}</p> : null}
+            {canAdd ? <InviteCustomerButton customerId={c.id} email={c.email} /> : null}
+          </li>
+        ))}
+        {customers.length === 0 ? (
+          <li className="panel p-4 text-center text-graphite-500">No customers match.</li>
+        ) : null}
+      </ul>
+      <div className="panel hidden overflow-x-auto sm:block">
         <table className="w-full text-left text-sm">
           <thead className="border-b border-graphite-200 bg-graphite-50 text-graphite-600">
             <tr>
@@ -57,7 +74,11 @@ export default async function CustomersPage({
           <tbody>
             {customers.map((c) => (
               <tr key={c.id} className="border-b border-graphite-100 last:border-0">
-                <td className="px-4 py-2 font-semibold">{c.name}</td>
+                <td className="px-4 py-2 font-semibold">
+                  <Link href={`/customers/${c.id}`} className="underline">
+                    {c.name}
+                  </Link>
+                </td>
                 <td className="px-4 py-2">{c.company}</td>
                 <td className="px-4 py-2">{c.email}</td>
                 <td className="px-4 py-2">{c.phone}</td>
