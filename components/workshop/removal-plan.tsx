@@ -359,6 +359,7 @@ function KindTable({
             jobId={jobId}
             kind={kind}
             current={target ?? null}
+            shown={target ? show.derived(target) : ""}
             isSet={Boolean(setTarget?.target)}
             version={setTarget?.version ?? 0}
             canEdit={canEdit}
@@ -435,6 +436,8 @@ function TargetEditor(props: {
   jobId: number;
   kind: PartKind;
   current: string | null;
+  /** The current target as the display rule shows it (a target: one decimal past the scale). */
+  shown: string;
   isSet: boolean;
   version: number;
   canEdit: boolean;
@@ -466,7 +469,7 @@ function TargetEditor(props: {
   if (!props.canEdit) {
     return (
       <p className="text-sm">
-        Target <span className="font-mono font-semibold">{props.current}</span> {props.unit}
+        Target <span className="font-mono font-semibold">{props.shown}</span> {props.unit}
       </p>
     );
   }
@@ -484,7 +487,7 @@ function TargetEditor(props: {
       <input
         id={`target-${props.kind}`}
         value={value}
-        placeholder={props.current ?? ""}
+        placeholder={props.shown}
         onChange={(e) => setValue(e.target.value)}
         inputMode="decimal"
         className="w-24 rounded border border-graphite-300 px-2 py-1 font-mono"

@@ -102,6 +102,23 @@ describe("the removal plan screen", () => {
     expect(screen.getByTestId("pairing").textContent).toContain("changes nothing taken off");
   });
 
+  it("shows the target at one decimal past the scale resolution, read-only or as the box's hint", () => {
+    // Display rule (lib/balance/display.ts): a target is a worked-out figure, one decimal past the
+    // 0.1 g scale. The lightest piston of the four weighs 400.0 g, so the target reads 400.00,
+    // never a bare "400". Worked by hand: min(400.0, 401.2, 400.3, 400.9) = 400.0 → "400.00".
+    show(workshopFor({}));
+    const box = document.getElementById("target-piston") as HTMLInputElement;
+    expect(box.placeholder).toBe("400.00");
+    cleanup();
+    const client = new QueryClient();
+    render(
+      <QueryClientProvider client={client}>
+        <RemovalPlan jobId={3} initial={workshopFor({})} canEdit={false} />
+      </QueryClientProvider>,
+    );
+    expect(document.body.textContent).toContain("Target 400.00 g");
+  });
+
   it("shows an over-machined part in a banner with replace, add weight or re-target and its cost", () => {
     // Piston 2 re-weighed at 399.6, 0.4 under the 400.0 target; re-targeting the pistons to
     // 399.6 takes 0.7 off piston 3 (400.3), worked in tests/lib/workshop/plan.test.ts.
