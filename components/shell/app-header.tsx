@@ -32,6 +32,9 @@ export function AppHeader({ user }: { user: User }) {
           <span className="text-graphite-200">
             {user.name} · <span className="text-brass-300">{ROLE_LABEL[user.role]}</span>
           </span>
+          <Link href="/account/password" className="text-graphite-200 underline hover:text-white">
+            Password
+          </Link>
           <SignOutButton />
         </div>
       </div>

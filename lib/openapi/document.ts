@@ -1,3 +1,4 @@
+import { changePasswordSchema } from "@/lib/auth/password-schema";
 import { z } from "zod";
 import {
   createDocument,
@@ -145,6 +146,14 @@ export const API_PATHS: ZodOpenApiPathsObject = {
     post: op(
       "Drill depth, heavy-metal plug, moved or split correction",
       holeRequestSchema,
+      undefined,
+      none,
+    ),
+  },
+  "/api/account/password": {
+    post: op(
+      "Change your own password (your other sessions end, this one carries on)",
+      changePasswordSchema,
       undefined,
       none,
     ),

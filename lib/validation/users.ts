@@ -13,7 +13,8 @@ export const signInSchema = z.object({
   password: z.string().min(1, "Enter your password.").max(200),
 });
 
-const passwordField = z
+/** A password a person chooses: 10 to 200 characters. */
+export const passwordField = z
   .string()
   .min(10, "Use at least 10 characters.")
   .max(200, "Use at most 200 characters.");

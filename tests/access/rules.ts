@@ -50,6 +50,8 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "POST /api/verify/check": { public: true, why: "anyone may check a card PDF" },
 
   // The balance calculators work on the numbers sent; nobody's records are read.
+  // Everyone changes their own password; nobody else's record is read.
+  "POST /api/account/password": { allowed: EVERYONE, customer: "none" },
   "POST /api/balance": { allowed: EVERYONE, customer: "none" },
   "POST /api/balance/crank": { allowed: EVERYONE, customer: "none" },
   "POST /api/balance/hole": { allowed: EVERYONE, customer: "none" },
@@ -142,6 +144,7 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
 
 /** Server actions: the roles `checkAccess` lets through; everyone else gets 401 or 403. */
 export const ACTION_RULES: Record<string, readonly Role[]> = {
+  "app/(shop)/account/password/actions.ts#changePasswordAction": EVERYONE,
   "app/(shop)/customers/actions.ts#createCustomerAction": DESK,
   "app/(shop)/outbox/actions.ts#retryMailAction": OWNER,
   "app/(shop)/prices/actions.ts#createPriceAction": OWNER,

@@ -1,0 +1,37 @@
+import type { DB } from "@/db/client";
+import { findUserByEmail, updateUserPassword, type User } from "@/db/users";
+import { HttpError } from "@/lib/http/errors";
+import { hashPassword, verifyPassword } from "./password";
+import type { ChangePasswordInput } from "./password-schema";
+
+export const WRONG_CURRENT_PASSWORD = "That is not your current password.";
+
+/**
+ * A signed-in person changes their own password: the current one must match. The session
+ * version goes up by one, so every other session of theirs ends; the caller re-issues this
+ * session's cookie at the version answered (lib/auth/reissue-session.ts).
+ *
+ * @throws HttpError 422 `wrong_password` (field currentPassword) when the current one is wrong;
+ *   401 when the account is gone.
+ */
+export async function changeOwnPassword(
+  db: DB,
+  user: User,
+  input: ChangePasswordInput,
+): Promise<number> {
+  const row = await findUserByEmail(db, user.email);
+  if (!row || row.id !== user.id) throw new HttpError(401, "unauthenticated", "Sign in again.");
+  if (!(await verifyPassword(input.currentPassword, row.password_hash))) {
+    throw new HttpError(422, "wrong_password", WRONG_CURRENT_PASSWORD, {
+      currentPassword: WRONG_CURRENT_PASSWORD,
+    });
+  }
+  const version = await updateUserPassword(
+    db,
+    user.id,
+    await hashPassword(input.newPassword),
+    user.id,
+  );
+  if (version === undefined) throw new HttpError(401, "unauthenticated", "Sign in again.");
+  return version;
+}
