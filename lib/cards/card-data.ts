@@ -116,6 +116,8 @@ export interface CardData {
   supersedes: number | null;
   pageSize: CardPageSize;
   issuedAt: string;
+  /** The shop's time zone when issued (the date printed is that day there); absent on older cards: UTC. */
+  timeZone?: string;
   issuedBy: { id: number; name: string };
   shop: {
     name: string;
@@ -185,6 +187,8 @@ export interface CardDataInput {
   verifyUrl: string;
   pageSize: CardPageSize;
   issuedAt: string;
+  /** The shop's time zone (IANA name) the card's date is stated in. */
+  timeZone?: string;
 }
 
 /**
@@ -244,6 +248,7 @@ export function buildCardData(input: CardDataInput): CardData {
     supersedes: input.revision > 1 ? input.revision - 1 : null,
     pageSize: input.pageSize,
     issuedAt: input.issuedAt,
+    ...(input.timeZone ? { timeZone: input.timeZone } : {}),
     issuedBy: { id: input.issuer.id, name: input.issuer.name },
     shop: {
       name: input.settings.shopName,

@@ -47,13 +47,17 @@ export function toleranceWording(
     : `Parts of each kind ${band}`;
 }
 
-/** "1 Dec 2026" (the day in UTC, so every reader sees the same date). */
-export function showDate(iso: string): string {
+/**
+ * "1 Dec 2026": the day on the shop's calendar in its time zone (an IANA name, stored with the
+ * card when it was issued, so every reader sees the same date). Cards issued before the zone
+ * was stored with them carry none and keep reading as they always did, in UTC.
+ */
+export function showDate(iso: string, timeZone = "UTC"): string {
   return new Intl.DateTimeFormat("en-GB", {
     day: "numeric",
     month: "short",
     year: "numeric",
-    timeZone: "UTC",
+    timeZone,
   }).format(new Date(iso));
 }
 

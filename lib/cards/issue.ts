@@ -2,6 +2,7 @@ import { createHash } from "node:crypto";
 import type { DB } from "@/db/client";
 import { createCard, findNextCardRevision, findShopLogo } from "@/db/cards";
 import type { CardPageSize } from "@/db/cards-schema";
+import { findCounterSettings } from "@/db/counter-settings";
 import { findCustomerById } from "@/db/customers";
 import { findShopSettings } from "@/db/settings";
 import type { User } from "@/db/users";
@@ -59,11 +60,12 @@ export async function issueCard(
     throw new HttpError(422, "override_required", message, { override: message });
   }
 
-  const [customer, settings, logo, revision] = await Promise.all([
+  const [customer, settings, logo, revision, counter] = await Promise.all([
     findCustomerById(db, job.customerId),
     findShopSettings(db),
     findShopLogo(db),
     findNextCardRevision(db, job.id),
+    findCounterSettings(db),
   ]);
   const code = newVerificationCode();
   const issuedAt = (options.now ?? new Date()).toISOString();
@@ -79,6 +81,7 @@ export async function issueCard(
     verifyUrl: cardVerifyUrl(code),
     pageSize,
     issuedAt,
+    timeZone: counter.timeZone,
   });
   const data: CardData =
     exceptions.length > 0 && reason

@@ -555,7 +555,7 @@ export function BalanceCardDocument({ data, assets }: { data: CardData; assets: 
               {data.supersedes ? `, replaces revision ${data.supersedes}` : ""}
             </Text>
             <Text style={s.small}>
-              Issued {showDate(data.issuedAt)} by {data.issuedBy.name}
+              Issued {showDate(data.issuedAt, data.timeZone)} by {data.issuedBy.name}
             </Text>
           </View>
         </View>
