@@ -8,37 +8,53 @@ import {
   useReactTable,
 } from "@tanstack/react-table";
 import Link from "next/link";
-import { useEffect, useState } from "react";
+import { useEffect, useMemo, useState } from "react";
 import type { Job, JobSort } from "@/db/jobs";
 import { JOB_STATUSES, type JobStatus } from "@/db/schema";
 import { apiFetch } from "@/lib/api-client";
+import { shopDate } from "@/lib/dates/shop-time";
 import { STATUS_LABEL } from "./status";
 import { StatusBadge } from "./status-badge";
 
 type Page = { jobs: Job[]; total: number; page: number; pageSize: number };
 
 const column = createColumnHelper<Job>();
-const columns = [
-  column.accessor("number", {
-    header: "Job",
-    cell: (c) => (
-      <Link
-        href={`/jobs/${c.row.original.id}`}
-        className="font-mono underline decoration-graphite-300 underline-offset-4 hover:decoration-brass-500"
-      >
-        {c.getValue()}
-      </Link>
-    ),
-  }),
-  column.accessor("customerName", { header: "Customer" }),
-  column.accessor("engine", { header: "Engine" }),
-  column.accessor("status", {
-    header: "State",
-    cell: (c) => <StatusBadge status={c.getValue()} />,
-  }),
-  column.accessor((j) => j.spec.promisedDate ?? "", { id: "promised", header: "Promised" }),
-  column.accessor((j) => j.updatedAt.slice(0, 10), { id: "updated", header: "Updated" }),
-];
+
+/** Cell classes per column: numbers and dates on one line, the engine given room so it does not wrap a word a line. */
+const CELL_CLASS: Record<string, string> = {
+  number: "whitespace-nowrap",
+  engine: "min-w-48",
+  promised: "whitespace-nowrap",
+  updated: "whitespace-nowrap",
+};
+
+/** The columns; "Updated" is the day on the shop's calendar in its time zone. */
+function jobColumns(timeZone: string) {
+  return [
+    column.accessor("number", {
+      header: "Job",
+      cell: (c) => (
+        <Link
+          href={`/jobs/${c.row.original.id}`}
+          className="font-mono underline decoration-graphite-300 underline-offset-4 hover:decoration-brass-500"
+        >
+          {c.getValue()}
+        </Link>
+      ),
+    }),
+    column.accessor("customerName", { header: "Customer" }),
+    column.accessor("engine", { header: "Engine" }),
+    column.accessor("status", {
+      header: "State",
+      cell: (c) => <StatusBadge status={c.getValue()} />,
+    }),
+    column.accessor((j) => j.spec.promisedDate ?? "", { id: "promised", header: "Promised" }),
+    column.accessor((j) => shopDate(new Date(j.updatedAt), timeZone), {
+      id: "updated",
+      header: "Updated",
+    }),
+  ];
+}
 
 const SORTABLE: Record<string, JobSort> = {
   number: "number",
@@ -48,7 +64,17 @@ const SORTABLE: Record<string, JobSort> = {
 };
 
 /** The jobs list: searched, filtered, sorted and paged on the server. */
-export function JobsTable({ initial, customerView }: { initial: Page; customerView: boolean }) {
+export function JobsTable({
+  initial,
+  customerView,
+  timeZone,
+}: {
+  initial: Page;
+  customerView: boolean;
+  /** The shop's time zone (IANA name), for the dates shown. */
+  timeZone: string;
+}) {
+  const columns = useMemo(() => jobColumns(timeZone), [timeZone]);
   const [search, setSearch] = useState("");
   const [debounced, setDebounced] = useState("");
   const [status, setStatus] = useState<JobStatus | "">("");
@@ -86,10 +112,10 @@ export function JobsTable({ initial, customerView }: { initial: Page; customerVi
   return (
     <div>
       <div className="mb-3 flex flex-wrap items-end gap-3" role="search">
-        <label className="text-sm">
+        <label className="w-full text-sm sm:w-auto">
           <span className="mb-1 block font-semibold">Find</span>
           <input
-            className="field-input w-64"
+            className="field-input w-full sm:w-64"
             placeholder="Number, engine, customer"
             value={search}
             onChange={(e) => {
@@ -135,7 +161,27 @@ export function JobsTable({ initial, customerView }: { initial: Page; customerVi
           {query.isFetching ? "Loading…" : `${data.total} job${data.total === 1 ? "" : "s"}`}
         </span>
       </div>
-      <div className="panel overflow-x-auto">
+      {/* At phone width each job is a card: the same rows and cells, each with its heading. */}
+      <ul className="space-y-2 sm:hidden" data-testid="job-cards">
+        {table.getRowModel().rows.map((row) => (
+          <li key={row.id} className="panel p-3 text-sm">
+            <dl className="grid grid-cols-[6rem_1fr] gap-x-3 gap-y-1">
+              {row.getVisibleCells().map((cell) => (
+                <div key={cell.id} className="contents">
+                  <dt className="text-graphite-500">{String(cell.column.columnDef.header)}</dt>
+                  <dd className="min-w-0 break-words">
+                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                  </dd>
+                </div>
+              ))}
+            </dl>
+          </li>
+        ))}
+        {data.jobs.length === 0 ? (
+          <li className="panel p-4 text-center text-graphite-500">No jobs match.</li>
+        ) : null}
+      </ul>
+      <div className="panel hidden overflow-x-auto sm:block">
         <table className="w-full text-left text-sm" data-testid="jobs-table">
           <thead className="border-b border-graphite-200 bg-graphite-50 text-graphite-600">
             {table.getHeaderGroups().map((g) => (
@@ -170,7 +216,7 @@ export function JobsTable({ initial, customerView }: { initial: Page; customerVi
             {table.getRowModel().rows.map((row) => (
               <tr key={row.id} className="border-b border-graphite-100 last:border-0">
                 {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className="px-4 py-2">
+                  <td key={cell.id} className={`px-4 py-2 ${CELL_CLASS[cell.column.id] ?? ""}`}>
                     {flexRender(cell.column.columnDef.cell, cell.getContext())}
                   </td>
                 ))}

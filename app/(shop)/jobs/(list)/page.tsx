@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { JobsTable } from "@/components/jobs/jobs-table";
 import { getDb } from "@/db/client";
+import { findCounterSettings } from "@/db/counter-settings";
 import { listJobs } from "@/db/jobs";
 import { ALL_ROLES, requirePageUser } from "@/lib/auth/guard";
 import { customerScope } from "@/lib/jobs/access";
@@ -11,10 +12,10 @@ const PAGE_SIZE = 25;
 
 export default async function JobsPage() {
   const user = await requirePageUser(ALL_ROLES, "/jobs");
-  const { jobs, total } = await listJobs(getDb(), {
-    customerId: customerScope(user),
-    limit: PAGE_SIZE,
-  });
+  const [{ jobs, total }, { timeZone }] = await Promise.all([
+    listJobs(getDb(), { customerId: customerScope(user), limit: PAGE_SIZE }),
+    findCounterSettings(getDb()),
+  ]);
   return (
     <section>
       <div className="mb-4 flex flex-wrap items-center justify-between gap-4">
@@ -30,6 +31,7 @@ export default async function JobsPage() {
       <JobsTable
         initial={{ jobs, total, page: 1, pageSize: PAGE_SIZE }}
         customerView={user.role === "customer"}
+        timeZone={timeZone}
       />
     </section>
   );
