@@ -27,10 +27,14 @@ function ftsQuery(words: string[][]): string {
   return words.map((pieces) => `"${pieces.join(" ")}"*`).join(" AND ");
 }
 
-/** A PostgreSQL tsquery for one word: its pieces side by side, the last one a prefix. */
-function tsQuery(pieces: string[]): RawBuilder<unknown> {
-  const text = pieces.map((p, i) => `'${p}'${i === pieces.length - 1 ? ":*" : ""}`).join(" <-> ");
-  return sql`to_tsquery('simple'::regconfig, ${text})`;
+/** One word as tsquery text: its pieces side by side, the last one a prefix. */
+function tsWord(pieces: string[]): string {
+  return `(${pieces.map((p, i) => `'${p}'${i === pieces.length - 1 ? ":*" : ""}`).join(" <-> ")})`;
+}
+
+/** A PostgreSQL tsquery of the words joined by `op`: "&" (every word) or "|" (any word). */
+function tsQuery(words: string[][], op: "&" | "|"): RawBuilder<unknown> {
+  return sql`to_tsquery('simple'::regconfig, ${words.map(tsWord).join(` ${op} `)})`;
 }
 
 // The same expressions as the indexes of migration 0190 (PostgreSQL uses an index only for the
@@ -56,16 +60,28 @@ export function jobSearch(db: Kysely<Database>, term: string): Expression<SqlBoo
   if (!isPostgres(db)) {
     return sql<SqlBool>`jobs.id in (select rowid from job_search where job_search match ${ftsQuery(words)})`;
   }
-  const tests = words.map((pieces) => {
-    const q = tsQuery(pieces);
-    return sql<SqlBool>`jobs.id in (
-      select js.id from jobs js where ${jobWords("js")} @@ ${q}
-      union all
-      select jc.id from customers cs join jobs jc on jc.customer_id = cs.id
-      where ${customerNameWords("cs")} @@ ${q}
-    )`;
-  });
-  return sql<SqlBool>`(${sql.join(tests, sql` and `)})`;
+  // Jobs whose own words hold every word, and jobs of customers whose name holds every word
+  // (each one GIN lookup); with several words, also jobs of customers whose name holds some of
+  // them, kept when the job's and the name's words together hold every word ("smi flat": the
+  // customer's name, then the engine's).
+  const all = tsQuery(words, "&");
+  const mixed =
+    words.length > 1
+      ? sql`union
+    select jc.id from customers cs join jobs jc on jc.customer_id = cs.id
+    where ${customerNameWords("cs")} @@ ${tsQuery(words, "|")}
+      and not (${customerNameWords("cs")} @@ ${all})
+      and (${jobWords("jc")} || ${customerNameWords("cs")}) @@ ${all}`
+      : sql``;
+  // `= any(array(...))`: the few ids found are worked out once, then fetched by primary key
+  // (as `in (...)`, the planner may walk every job in id order to meet them).
+  return sql<SqlBool>`jobs.id = any(array(
+    select js.id from jobs js where ${jobWords("js")} @@ ${all}
+    union
+    select jc.id from customers cs join jobs jc on jc.customer_id = cs.id
+    where ${customerNameWords("cs")} @@ ${all}
+    ${mixed}
+  ))`;
 }
 
 /**
@@ -81,8 +97,5 @@ export function customerSearch(
   if (!isPostgres(db)) {
     return sql<SqlBool>`customers.id in (select rowid from customer_search where customer_search match ${ftsQuery(words)})`;
   }
-  const tests = words.map(
-    (pieces) => sql<SqlBool>`${customerWords("customers")} @@ ${tsQuery(pieces)}`,
-  );
-  return sql<SqlBool>`(${sql.join(tests, sql` and `)})`;
+  return sql<SqlBool>`${customerWords("customers")} @@ ${tsQuery(words, "&")}`;
 }
