@@ -13,10 +13,10 @@ for (const f of runBalanceBench()) {
   );
 }
 
-console.log("\n▸ balance card PDF");
+console.log("\n▸ balance card and build record PDFs");
 for (const f of await runCardBench()) {
   console.log(
-    `${f.name}: median ${ms(f.medianMs)} (budget ${f.budgetMs} ms, ratio ${f.ratio.toFixed(2)})`,
+    `${f.name}: median ${ms(f.medianMs)} (budget ${f.budgetMs} ms, ratio ${f.ratio.toFixed(2)}; ratio to the balance card ${f.ratioToBalanceCard.toFixed(2)})`,
   );
 }
 
