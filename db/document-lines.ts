@@ -106,6 +106,26 @@ export async function replaceDocumentLines(
     .execute();
 }
 
+/** A new document's header, by kind. */
+export interface NewDocument {
+  quote: Insertable<QuoteTable>;
+  invoice: Insertable<InvoiceTable>;
+}
+
+/** Stores a new document's header and answers its id; its lines go in with replaceDocumentLines. */
+export async function insertDocument<K extends DocumentKind>(
+  db: Db,
+  kind: K,
+  values: NewDocument[K],
+): Promise<number> {
+  const row = await db
+    .insertInto(headerOf(kind))
+    .values(values as NewDocument["quote"])
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  return row.id;
+}
+
 /** What a header write may change, by kind. */
 export interface DocumentChanges {
   quote: Omit<Updateable<QuoteTable>, "id" | "version">;

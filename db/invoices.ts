@@ -1,13 +1,5 @@
-import type { Insertable } from "kysely";
-import type { InvoiceRow, InvoiceStatus, InvoiceTable } from "./billing-schema";
-import {
-  type Db,
-  type DocumentChanges,
-  type DocumentLine,
-  listDocumentLines,
-  lockDocument,
-  updateDocument,
-} from "./document-lines";
+import type { InvoiceRow, InvoiceStatus } from "./billing-schema";
+import { type Db, type DocumentLine, listDocumentLines } from "./document-lines";
 import type { ShopSettings } from "./settings";
 
 /** The shop as printed on an issued invoice, frozen at the moment of issue. */
@@ -158,35 +150,6 @@ export async function findLiveInvoiceForQuote(
     .where("quote_id", "=", quoteId)
     .where("status", "!=", "void")
     .executeTakeFirst();
-}
-
-/** Stores a new invoice's header; its lines go in through replaceDocumentLines. */
-export async function insertInvoice(db: Db, values: Insertable<InvoiceTable>): Promise<number> {
-  const row = await db
-    .insertInto("invoices")
-    .values(values)
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  return row.id;
-}
-
-/** The invoice with its row locked for the rest of the transaction (see lockRow). */
-export async function lockInvoice(db: Db, id: number): Promise<Invoice | undefined> {
-  await lockDocument(db, "invoice", id);
-  return findInvoiceById(db, id);
-}
-
-/**
- * Writes the invoice if it is still at `version` (and moves it on one).
- * @throws StaleWriteError when it is not; NotFoundError when there is no such invoice
- */
-export async function updateInvoiceRow(
-  db: Db,
-  id: number,
-  version: number,
-  changes: DocumentChanges["invoice"],
-): Promise<void> {
-  await updateDocument(db, "invoice", id, version, changes);
 }
 
 /** Deletes an invoice and (by the foreign key's cascade) its lines. */

@@ -1,13 +1,5 @@
-import type { Insertable } from "kysely";
-import type { QuoteRow, QuoteStatus, QuoteTable } from "./billing-schema";
-import {
-  type Db,
-  type DocumentChanges,
-  type DocumentLine,
-  listDocumentLines,
-  lockDocument,
-  updateDocument,
-} from "./document-lines";
+import type { QuoteRow, QuoteStatus } from "./billing-schema";
+import { type Db, type DocumentLine, listDocumentLines } from "./document-lines";
 
 export type { DocumentLine } from "./document-lines";
 
@@ -85,33 +77,4 @@ export async function findLiveQuoteForJob(
     .where("job_id", "=", jobId)
     .where("status", "!=", "withdrawn")
     .executeTakeFirst();
-}
-
-/** Stores a new quote's header; its lines go in through replaceDocumentLines. */
-export async function insertQuote(db: Db, values: Insertable<QuoteTable>): Promise<number> {
-  const row = await db
-    .insertInto("quotes")
-    .values(values)
-    .returning("id")
-    .executeTakeFirstOrThrow();
-  return row.id;
-}
-
-/** The quote with its row locked for the rest of the transaction (see lockRow). */
-export async function lockQuote(db: Db, id: number): Promise<Quote | undefined> {
-  await lockDocument(db, "quote", id);
-  return findQuoteById(db, id);
-}
-
-/**
- * Writes the quote if it is still at `version` (and moves it on one).
- * @throws StaleWriteError when it is not; NotFoundError when there is no such quote
- */
-export async function updateQuoteRow(
-  db: Db,
-  id: number,
-  version: number,
-  changes: DocumentChanges["quote"],
-): Promise<void> {
-  await updateDocument(db, "quote", id, version, changes);
 }

@@ -1,12 +1,21 @@
+import { createAuditEntry } from "@/db/audit";
 import {
   type Db,
+  type DocumentChanges,
   type DocumentKind,
   type DocumentLine,
   type DocumentLineValues,
+  insertDocument,
+  lockDocument,
+  type NewDocument,
   replaceDocumentLines,
+  updateDocument,
 } from "@/db/document-lines";
-import { NotFoundError, StaleWriteError } from "@/db/errors";
+import { ConflictError, NotFoundError, StaleWriteError } from "@/db/errors";
+import { findInvoiceById, type Invoice } from "@/db/invoices";
 import { findPriceItemsByIds } from "@/db/prices";
+import { findQuoteById, type Quote } from "@/db/quotes";
+import { findShopSettings } from "@/db/settings";
 import { BillingInputError } from "./errors";
 import { parseDecimal } from "./money";
 import { computeTotals, type DocumentTotals } from "./totals";
@@ -144,4 +153,109 @@ export function totalsColumns(
     tax: totals.tax,
     total: totals.total,
   };
+}
+
+/** A document as the services read and answer it, by kind. */
+export interface Documents {
+  quote: Quote;
+  invoice: Invoice;
+}
+
+function findDocument<K extends DocumentKind>(
+  trx: Db,
+  kind: K,
+  id: number,
+): Promise<Documents[K] | undefined> {
+  const find = kind === "quote" ? findQuoteById : findInvoiceById;
+  return find(trx, id) as Promise<Documents[K] | undefined>;
+}
+
+const ARTICLE: Record<DocumentKind, string> = { quote: "A quote", invoice: "An invoice" };
+
+/** Refuses a move the document's state does not allow, in the words the counter reads. */
+export function refuseInState(kind: DocumentKind, status: string, doing: string): never {
+  throw new ConflictError("status", `${ARTICLE[kind]} that is ${status} cannot be ${doing}.`);
+}
+
+/**
+ * Stores a new document with its lines and logs its creation. The caller owns the transaction.
+ */
+export async function createDocument<K extends DocumentKind>(
+  trx: Db,
+  kind: K,
+  header: NewDocument[K],
+  lines: readonly DocumentLineValues[],
+  actorId: number | null,
+): Promise<Documents[K]> {
+  const id = await insertDocument(trx, kind, header);
+  await replaceDocumentLines(trx, kind, id, lines);
+  const after = (await findDocument(trx, kind, id))!;
+  await createAuditEntry(trx, {
+    userId: actorId,
+    action: "create",
+    entity: kind,
+    entityId: id,
+    after,
+  });
+  return after;
+}
+
+/**
+ * One change to a document under its row lock: read it (checked against `baseVersion` when
+ * given), let `decide` refuse (by throwing) or answer the header's changes, write them at the
+ * version read, and log the change. The caller owns the transaction.
+ * @throws NotFoundError, StaleWriteError, and whatever `decide` refuses with
+ */
+export async function changeDocument<K extends DocumentKind>(
+  trx: Db,
+  kind: K,
+  id: number,
+  change: {
+    action: string;
+    actorId: number | null;
+    baseVersion?: number;
+    decide: (before: Documents[K]) => Promise<DocumentChanges[K]> | DocumentChanges[K];
+    /** What the audit log keeps; the whole document before and after when not given. */
+    logged?: (before: Documents[K], after: Documents[K]) => { before?: unknown; after?: unknown };
+  },
+): Promise<Documents[K]> {
+  await lockDocument(trx, kind, id);
+  const before = lockedAt(await findDocument(trx, kind, id), kind, change.baseVersion);
+  await updateDocument(trx, kind, id, before.version, await change.decide(before));
+  const after = (await findDocument(trx, kind, id))!;
+  await createAuditEntry(trx, {
+    userId: change.actorId,
+    action: change.action,
+    entity: kind,
+    entityId: id,
+    ...(change.logged ? change.logged(before, after) : { before, after }),
+  });
+  return after;
+}
+
+/**
+ * Replaces a draft's lines at the version the caller read: new lines at today's list price and
+ * the shop's tax rate and currency now, kept lines at their stored price. Only a draft changes.
+ * The caller owns the transaction.
+ */
+export function replaceDraftLines<K extends DocumentKind>(
+  trx: Db,
+  kind: K,
+  id: number,
+  baseVersion: number,
+  inputs: readonly LineInput[],
+  actorId: number | null,
+  now: Date,
+): Promise<Documents[K]> {
+  return changeDocument(trx, kind, id, {
+    action: "update",
+    actorId,
+    baseVersion,
+    decide: async (before) => {
+      if (before.status !== "draft") refuseInState(kind, before.status, "changed");
+      const settings = await findShopSettings(trx);
+      const totals = await repriceDocumentLines(trx, kind, before, inputs, settings.taxRate);
+      return { ...totalsColumns(totals, settings), updated_at: now.toISOString() };
+    },
+  });
 }

@@ -1,30 +1,29 @@
 import { createAuditEntry } from "@/db/audit";
-import type { InvoiceStatus } from "@/db/billing-schema";
 import type { DB } from "@/db/client";
 import { findCustomerById } from "@/db/customers";
-import { replaceDocumentLines } from "@/db/document-lines";
+import { lockDocument } from "@/db/document-lines";
 import { ConflictError, NotFoundError } from "@/db/errors";
 import {
   deleteInvoiceRow,
   findInvoiceById,
   findLiveInvoiceForQuote,
-  insertInvoice,
   type Invoice,
   type Issuer,
-  lockInvoice,
-  updateInvoiceRow,
 } from "@/db/invoices";
 import { findJobById } from "@/db/jobs";
 import { takeNextNumber } from "@/db/number-sequences";
 import { findQuoteById } from "@/db/quotes";
 import { findShopSettings } from "@/db/settings";
 import {
+  changeDocument,
+  createDocument,
   type LineInput,
   linesWithTotals,
   lockedAt,
   type PricedLineValues,
   priceLines,
-  repriceDocumentLines,
+  refuseInState,
+  replaceDraftLines,
   totalsColumns,
 } from "./document-lines";
 import { BillingInputError } from "./errors";
@@ -64,29 +63,21 @@ export async function createInvoice(
     }
     const settings = await findShopSettings(trx);
     const { lines, totals } = linesWithTotals(priced, settings.taxRate);
-    const id = await insertInvoice(trx, {
-      job_id: input.jobId,
-      quote_id: input.quoteId ?? null,
-      ...totalsColumns(totals, settings),
-      created_by: actorId,
-      created_at: now.toISOString(),
-      updated_at: now.toISOString(),
-    });
-    await replaceDocumentLines(trx, "invoice", id, lines);
-    const after = (await findInvoiceById(trx, id))!;
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "create",
-      entity: "invoice",
-      entityId: id,
-      after,
-    });
-    return after;
+    return createDocument(
+      trx,
+      "invoice",
+      {
+        job_id: input.jobId,
+        quote_id: input.quoteId ?? null,
+        ...totalsColumns(totals, settings),
+        created_by: actorId,
+        created_at: now.toISOString(),
+        updated_at: now.toISOString(),
+      },
+      lines,
+      actorId,
+    );
   });
-}
-
-function refuse(status: InvoiceStatus, doing: string): never {
-  throw new ConflictError("status", `An invoice that is ${status} cannot be ${doing}.`);
 }
 
 /** Replaces a draft invoice's lines; kept lines (by lineId) keep their price. */
@@ -98,26 +89,9 @@ export async function replaceInvoiceLines(
   actorId: number | null,
   now = new Date(),
 ): Promise<Invoice> {
-  return db.transaction().execute(async (trx) => {
-    const before = lockedAt(await lockInvoice(trx, id), "invoice", baseVersion);
-    if (before.status !== "draft") refuse(before.status, "changed");
-    const settings = await findShopSettings(trx);
-    const totals = await repriceDocumentLines(trx, "invoice", before, lines, settings.taxRate);
-    await updateInvoiceRow(trx, id, before.version, {
-      ...totalsColumns(totals, settings),
-      updated_at: now.toISOString(),
-    });
-    const after = (await findInvoiceById(trx, id))!;
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "update",
-      entity: "invoice",
-      entityId: id,
-      before,
-      after,
-    });
-    return after;
-  });
+  return db
+    .transaction()
+    .execute((trx) => replaceDraftLines(trx, "invoice", id, baseVersion, lines, actorId, now));
 }
 
 function billToText(c: {
@@ -139,45 +113,44 @@ export async function issueInvoice(
   actorId: number | null,
   now = new Date(),
 ): Promise<Invoice> {
-  return db.transaction().execute(async (trx) => {
-    const before = lockedAt(await lockInvoice(trx, id), "invoice");
-    if (before.status !== "draft") refuse(before.status, "issued");
-    if (before.lines.length === 0)
-      throw new BillingInputError("lines", "Add at least one line first.");
-    const settings = await findShopSettings(trx);
-    const { totals } = linesWithTotals(before.lines, settings.taxRate);
-    if (compareMoney(totals.total, "0") <= 0) {
-      throw new BillingInputError("lines", "An invoice must be for more than nothing.");
-    }
-    const customer = await findCustomerById(trx, before.customerId);
-    if (!customer) throw new NotFoundError("customer");
-    const issuer: Issuer = {
-      shopName: settings.shopName,
-      address: settings.address,
-      phone: settings.phone,
-      email: settings.email,
-    };
-    await updateInvoiceRow(trx, id, before.version, {
-      number: await takeNextNumber(trx, "invoice", now),
-      status: "issued",
-      ...totalsColumns(totals, settings),
-      issuer_json: JSON.stringify(issuer),
-      bill_to: billToText(customer),
-      footer: settings.invoiceFooter,
-      issued_at: now.toISOString(),
-      updated_at: now.toISOString(),
-    });
-    const after = (await findInvoiceById(trx, id))!;
-    await createAuditEntry(trx, {
-      userId: actorId,
+  return db.transaction().execute((trx) =>
+    changeDocument(trx, "invoice", id, {
       action: "issue",
-      entity: "invoice",
-      entityId: id,
-      before: { status: before.status },
-      after: { status: after.status, number: after.number, total: after.total },
-    });
-    return after;
-  });
+      actorId,
+      decide: async (before) => {
+        if (before.status !== "draft") refuseInState("invoice", before.status, "issued");
+        if (before.lines.length === 0)
+          throw new BillingInputError("lines", "Add at least one line first.");
+        const settings = await findShopSettings(trx);
+        const { totals } = linesWithTotals(before.lines, settings.taxRate);
+        if (compareMoney(totals.total, "0") <= 0) {
+          throw new BillingInputError("lines", "An invoice must be for more than nothing.");
+        }
+        const customer = await findCustomerById(trx, before.customerId);
+        if (!customer) throw new NotFoundError("customer");
+        const issuer: Issuer = {
+          shopName: settings.shopName,
+          address: settings.address,
+          phone: settings.phone,
+          email: settings.email,
+        };
+        return {
+          number: await takeNextNumber(trx, "invoice", now),
+          status: "issued",
+          ...totalsColumns(totals, settings),
+          issuer_json: JSON.stringify(issuer),
+          bill_to: billToText(customer),
+          footer: settings.invoiceFooter,
+          issued_at: now.toISOString(),
+          updated_at: now.toISOString(),
+        };
+      },
+      logged: (before, after) => ({
+        before: { status: before.status },
+        after: { status: after.status, number: after.number, total: after.total },
+      }),
+    }),
+  );
 }
 
 /** Voids an issued invoice nothing has been paid on; it keeps its number. */
@@ -187,31 +160,26 @@ export async function voidInvoice(
   actorId: number | null,
   now = new Date(),
 ): Promise<Invoice> {
-  return db.transaction().execute(async (trx) => {
-    const before = lockedAt(await lockInvoice(trx, id), "invoice");
-    if (before.status !== "issued") refuse(before.status, "voided");
-    if (compareMoney(before.amountPaid, "0") !== 0) {
-      throw new ConflictError(
-        "status",
-        "Money has been received on this invoice: it cannot be voided.",
-      );
-    }
-    await updateInvoiceRow(trx, id, before.version, {
-      status: "void",
-      voided_at: now.toISOString(),
-      updated_at: now.toISOString(),
-    });
-    const after = (await findInvoiceById(trx, id))!;
-    await createAuditEntry(trx, {
-      userId: actorId,
+  return db.transaction().execute((trx) =>
+    changeDocument(trx, "invoice", id, {
       action: "void",
-      entity: "invoice",
-      entityId: id,
-      before: { status: before.status },
-      after: { status: after.status },
-    });
-    return after;
-  });
+      actorId,
+      decide: (before) => {
+        if (before.status !== "issued") refuseInState("invoice", before.status, "voided");
+        if (compareMoney(before.amountPaid, "0") !== 0) {
+          throw new ConflictError(
+            "status",
+            "Money has been received on this invoice: it cannot be voided.",
+          );
+        }
+        return { status: "void", voided_at: now.toISOString(), updated_at: now.toISOString() };
+      },
+      logged: (before, after) => ({
+        before: { status: before.status },
+        after: { status: after.status },
+      }),
+    }),
+  );
 }
 
 /** Throws away a draft (it never had a number). */
@@ -221,8 +189,9 @@ export async function deleteDraftInvoice(
   actorId: number | null,
 ): Promise<void> {
   await db.transaction().execute(async (trx) => {
-    const before = lockedAt(await lockInvoice(trx, id), "invoice");
-    if (before.status !== "draft") refuse(before.status, "deleted");
+    await lockDocument(trx, "invoice", id);
+    const before = lockedAt(await findInvoiceById(trx, id), "invoice");
+    if (before.status !== "draft") refuseInState("invoice", before.status, "deleted");
     await deleteInvoiceRow(trx, id);
     await createAuditEntry(trx, {
       userId: actorId,

@@ -1,9 +1,9 @@
 import { createAuditEntry } from "@/db/audit";
 import type { PaymentMethod } from "@/db/billing-schema";
 import type { DB } from "@/db/client";
-import type { Db } from "@/db/document-lines";
+import { type Db, lockDocument, updateDocument } from "@/db/document-lines";
 import { ConflictError, NotFoundError } from "@/db/errors";
-import { lockInvoice, updateInvoiceRow } from "@/db/invoices";
+import { findInvoiceById, type Invoice } from "@/db/invoices";
 import {
   insertPayment,
   insertPaymentSession,
@@ -14,6 +14,12 @@ import {
 } from "@/db/payments";
 import { BillingInputError } from "./errors";
 import { compareMoney, subtractMoney, sumMoney } from "./money";
+
+/** The invoice with its row locked for the rest of the transaction (see lockRow). */
+async function lockInvoice(trx: Db, id: number): Promise<Invoice | undefined> {
+  await lockDocument(trx, "invoice", id);
+  return findInvoiceById(trx, id);
+}
 
 interface MoneyReceived {
   method: PaymentMethod;
@@ -62,7 +68,7 @@ async function addPayment(
   });
   const amountPaid = sumMoney([invoice.amountPaid, amount]);
   const paid = compareMoney(amountPaid, invoice.total) >= 0;
-  await updateInvoiceRow(trx, invoiceId, invoice.version, {
+  await updateDocument(trx, "invoice", invoiceId, invoice.version, {
     amount_paid: amountPaid,
     status: paid ? "paid" : "issued",
     paid_at: paid ? receivedAt : null,

@@ -1,27 +1,20 @@
-import { createAuditEntry } from "@/db/audit";
 import type { QuoteStatus } from "@/db/billing-schema";
 import type { DB } from "@/db/client";
-import { replaceDocumentLines } from "@/db/document-lines";
 import { ConflictError, NotFoundError } from "@/db/errors";
 import { findJobById } from "@/db/jobs";
 import { takeNextNumber } from "@/db/number-sequences";
-import {
-  findLiveQuoteForJob,
-  findQuoteById,
-  insertQuote,
-  lockQuote,
-  type Quote,
-  updateQuoteRow,
-} from "@/db/quotes";
+import { findLiveQuoteForJob, type Quote } from "@/db/quotes";
 import { findShopSettings } from "@/db/settings";
 import type { User } from "@/db/users";
 import { findQuoteForUser } from "./access";
 import {
+  changeDocument,
+  createDocument,
   type LineInput,
   linesWithTotals,
-  lockedAt,
   priceLines,
-  repriceDocumentLines,
+  refuseInState,
+  replaceDraftLines,
   totalsColumns,
 } from "./document-lines";
 import { BillingInputError } from "./errors";
@@ -46,29 +39,21 @@ export async function createQuote(
     }
     const settings = await findShopSettings(trx);
     const { lines, totals } = linesWithTotals(await priceLines(trx, input.lines), settings.taxRate);
-    const id = await insertQuote(trx, {
-      number: await takeNextNumber(trx, "quote", now),
-      job_id: input.jobId,
-      ...totalsColumns(totals, settings),
-      created_by: actorId,
-      created_at: now.toISOString(),
-      updated_at: now.toISOString(),
-    });
-    await replaceDocumentLines(trx, "quote", id, lines);
-    const after = (await findQuoteById(trx, id))!;
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "create",
-      entity: "quote",
-      entityId: id,
-      after,
-    });
-    return after;
+    return createDocument(
+      trx,
+      "quote",
+      {
+        number: await takeNextNumber(trx, "quote", now),
+        job_id: input.jobId,
+        ...totalsColumns(totals, settings),
+        created_by: actorId,
+        created_at: now.toISOString(),
+        updated_at: now.toISOString(),
+      },
+      lines,
+      actorId,
+    );
   });
-}
-
-function refuse(status: QuoteStatus, doing: string): never {
-  throw new ConflictError("status", `A quote that is ${status} cannot be ${doing}.`);
 }
 
 /** Replaces a draft quote's lines (at today's prices and tax rate, kept lines at theirs). */
@@ -80,26 +65,9 @@ export async function replaceQuoteLines(
   actorId: number | null,
   now = new Date(),
 ): Promise<Quote> {
-  return db.transaction().execute(async (trx) => {
-    const before = lockedAt(await lockQuote(trx, id), "quote", baseVersion);
-    if (before.status !== "draft") refuse(before.status, "changed");
-    const settings = await findShopSettings(trx);
-    const totals = await repriceDocumentLines(trx, "quote", before, lines, settings.taxRate);
-    await updateQuoteRow(trx, id, before.version, {
-      ...totalsColumns(totals, settings),
-      updated_at: now.toISOString(),
-    });
-    const after = (await findQuoteById(trx, id))!;
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "update",
-      entity: "quote",
-      entityId: id,
-      before,
-      after,
-    });
-    return after;
-  });
+  return db
+    .transaction()
+    .execute((trx) => replaceDraftLines(trx, "quote", id, baseVersion, lines, actorId, now));
 }
 
 type QuoteMove = "offer" | "accept" | "withdraw";
@@ -124,34 +92,35 @@ export async function moveQuote(
   options: { acceptFromDraft?: boolean; now?: Date } = {},
 ): Promise<Quote> {
   const now = (options.now ?? new Date()).toISOString();
-  return db.transaction().execute(async (trx) => {
-    const before = lockedAt(await lockQuote(trx, id), "quote");
-    const rule = MOVES[move];
-    const from =
-      move === "accept" && options.acceptFromDraft ? [...rule.from, "draft" as const] : rule.from;
-    if (!from.includes(before.status)) refuse(before.status, rule.doing);
-    if (move !== "withdraw" && before.lines.length === 0) {
-      throw new BillingInputError("lines", "Add at least one line first.");
-    }
-    await updateQuoteRow(trx, id, before.version, {
-      status: rule.to,
-      offered_at: move === "offer" ? now : undefined,
-      accepted_at: move === "accept" ? now : undefined,
-      accepted_by: move === "accept" ? actorId : undefined,
-      withdrawn_at: move === "withdraw" ? now : undefined,
-      updated_at: now,
-    });
-    const after = (await findQuoteById(trx, id))!;
-    await createAuditEntry(trx, {
-      userId: actorId,
+  return db.transaction().execute((trx) =>
+    changeDocument(trx, "quote", id, {
       action: move,
-      entity: "quote",
-      entityId: id,
-      before: { status: before.status },
-      after: { status: after.status },
-    });
-    return after;
-  });
+      actorId,
+      decide: (before) => {
+        const rule = MOVES[move];
+        const from =
+          move === "accept" && options.acceptFromDraft
+            ? [...rule.from, "draft" as const]
+            : rule.from;
+        if (!from.includes(before.status)) refuseInState("quote", before.status, rule.doing);
+        if (move !== "withdraw" && before.lines.length === 0) {
+          throw new BillingInputError("lines", "Add at least one line first.");
+        }
+        return {
+          status: rule.to,
+          offered_at: move === "offer" ? now : undefined,
+          accepted_at: move === "accept" ? now : undefined,
+          accepted_by: move === "accept" ? actorId : undefined,
+          withdrawn_at: move === "withdraw" ? now : undefined,
+          updated_at: now,
+        };
+      },
+      logged: (before, after) => ({
+        before: { status: before.status },
+        after: { status: after.status },
+      }),
+    }),
+  );
 }
 
 /**

@@ -1,11 +1,11 @@
 import { readFileSync } from "node:fs";
 import { beforeEach, describe, expect, it } from "vitest";
 import type { DB } from "@/db/client";
-import { listDocumentLines, replaceDocumentLines } from "@/db/document-lines";
+import { listDocumentLines, replaceDocumentLines, updateDocument } from "@/db/document-lines";
 import { NotFoundError, StaleWriteError } from "@/db/errors";
-import { findInvoiceById, updateInvoiceRow } from "@/db/invoices";
+import { findInvoiceById } from "@/db/invoices";
 import { findPriceItemById, updatePriceItemRow } from "@/db/prices";
-import { findQuoteById, updateQuoteRow } from "@/db/quotes";
+import { findQuoteById } from "@/db/quotes";
 import { createInvoice } from "@/lib/billing/invoices";
 import { createQuote, replaceQuoteLines } from "@/lib/billing/quotes";
 import { type BillingWorld, setUpBilling } from "../api/billing/fixtures";
@@ -52,8 +52,10 @@ describe("versioned writes", () => {
       null,
     );
     // Two people read the same version; the first write wins and moves it on one.
-    await updateQuoteRow(db, quote.id, quote.version, { updated_at: "2026-12-02T06:00:00.000Z" });
-    const second = updateQuoteRow(db, quote.id, quote.version, {
+    await updateDocument(db, "quote", quote.id, quote.version, {
+      updated_at: "2026-12-02T06:00:00.000Z",
+    });
+    const second = updateDocument(db, "quote", quote.id, quote.version, {
       updated_at: "2026-12-02T06:05:00.000Z",
     });
     await expect(second).rejects.toBeInstanceOf(StaleWriteError);
@@ -70,11 +72,11 @@ describe("versioned writes", () => {
       null,
     );
     await expect(
-      updateInvoiceRow(db, invoice.id, invoice.version - 1, { footer: "late" }),
+      updateDocument(db, "invoice", invoice.id, invoice.version - 1, { footer: "late" }),
     ).rejects.toBeInstanceOf(StaleWriteError);
     expect((await findInvoiceById(db, invoice.id))?.footer).toBe(invoice.footer);
     await expect(
-      updateInvoiceRow(db, invoice.id + 999, 1, { footer: "nobody" }),
+      updateDocument(db, "invoice", invoice.id + 999, 1, { footer: "nobody" }),
     ).rejects.toBeInstanceOf(NotFoundError);
   });
 
