@@ -280,8 +280,9 @@ export function buildCardData(input: CardDataInput): CardData {
     resolution: finished.resolution,
     tolerance: finished.tolerance,
     matching: finished.matching,
-    scaleName: job.spec.scaleName,
-    balancerName: job.spec.balancerName,
+    // A name cleared in the settings is saved as ""; the card then says it was not named.
+    scaleName: job.spec.scaleName?.trim() || null,
+    balancerName: job.spec.balancerName?.trim() || null,
     kinds,
     targets: finished.targets,
     cylinders,
