@@ -190,7 +190,7 @@ function HelperCard({
 }) {
   return (
     <form
-      className="rounded border border-graphite-200 p-3"
+      className="min-w-0 rounded border border-graphite-200 p-3"
       onSubmit={(e) => {
         e.preventDefault();
         onSubmit();
@@ -227,10 +227,10 @@ function MaterialSelect({
   onPick: (density: string) => void;
 }) {
   return (
-    <label className="text-sm">
+    <label className="max-w-full min-w-0 text-sm">
       <span className="block font-semibold">{label}</span>
       <select
-        className="rounded border border-graphite-300 px-2 py-1.5"
+        className="max-w-full rounded border border-graphite-300 px-2 py-1.5"
         defaultValue={choices[0]}
         onChange={(e) => onPick(MATERIAL_DENSITIES[e.target.value as MaterialId].density)}
       >
