@@ -74,7 +74,12 @@ export function BuildPanel({
   note?: ReactNode;
 }) {
   return (
-    <section className="panel p-4" aria-labelledby={`build-${section}`} data-section={section}>
+    // Wide tables (springs, rings, deck) scroll inside their panel on a phone, not the page.
+    <section
+      className="panel min-w-0 overflow-x-auto p-4"
+      aria-labelledby={`build-${section}`}
+      data-section={section}
+    >
       <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2">
         <h2 id={`build-${section}`} className="font-semibold">
           {title}
