@@ -4,6 +4,7 @@ import { useState } from "react";
 import type { BuildCardSummary } from "@/db/build-record";
 import type { Role } from "@/db/schema";
 import { ApiError, apiFetch } from "@/lib/api-client";
+import { shopDate } from "@/lib/dates/shop-time";
 
 const groups = (code: string) => `${code.slice(0, 5)}-${code.slice(5)}`;
 
@@ -12,10 +13,13 @@ export function BuildCards({
   jobId,
   role,
   initial,
+  timeZone,
 }: {
   jobId: number;
   role: Role;
   initial: BuildCardSummary[];
+  /** The shop's time zone (IANA name): the day issued on the shop's calendar. */
+  timeZone: string;
 }) {
   const [cards, setCards] = useState(initial);
   const [busy, setBusy] = useState(false);
@@ -97,7 +101,7 @@ export function BuildCards({
                 {i === 0 ? "current" : "replaced"}
               </span>
               <span className="text-graphite-600">
-                {c.issuedAt.slice(0, 10)}
+                {shopDate(new Date(c.issuedAt), timeZone)}
                 {c.issuedBy ? ` · ${c.issuedBy}` : ""}
               </span>
               <span className="font-mono">{groups(c.verificationCode)}</span>

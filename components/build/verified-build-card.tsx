@@ -1,5 +1,6 @@
 import { BUILD_CARD_CAUTIONS } from "@/lib/build-record/card-lines";
 import type { VerifiedBuildCard } from "@/lib/build-record/card";
+import { shopDate } from "@/lib/dates/shop-time";
 
 /** The public check of an issued engine build record: its figures as issued, no customer. */
 export function VerifiedBuildCardView({ card }: { card: VerifiedBuildCard }) {
@@ -8,7 +9,7 @@ export function VerifiedBuildCardView({ card }: { card: VerifiedBuildCard }) {
       <h1 className="text-2xl font-semibold">Engine build record {card.verificationCode}</h1>
       <p className="text-sm" data-testid="build-card-status">
         {card.shopName} · job <span className="font-mono">{card.jobNumber}</span> · {card.engine} ·
-        revision {card.revision}, issued {card.issuedAt.slice(0, 10)} ·{" "}
+        revision {card.revision}, issued {shopDate(new Date(card.issuedAt), card.timeZone)} ·{" "}
         {card.status === "current" ? (
           <span className="font-semibold text-within">the current record</span>
         ) : (

@@ -6,10 +6,9 @@ import { useEffect, useRef, useState } from "react";
 import type { CardPageSize } from "@/db/cards-schema";
 import { apiFetch } from "@/lib/api-client";
 import type { CardStatus } from "@/lib/cards/status";
+import { shopDateTime } from "@/lib/dates/shop-time";
 import { cardStatusKey, useCardsIssued } from "./card-queries";
 import { IssueCardForm } from "./issue-card-form";
-
-const when = (iso: string) => `${iso.slice(0, 16).replace("T", " ")} UTC`;
 
 /**
  * Shown on every page of a job while its current balance card no longer matches the job (a
@@ -22,11 +21,14 @@ export function CardStaleBanner({
   initial,
   canIssue,
   defaultPageSize,
+  timeZone,
 }: {
   jobId: number;
   initial: CardStatus;
   canIssue: boolean;
   defaultPageSize: CardPageSize;
+  /** The shop's time zone (IANA name): the issue time is shown on the shop's clock. */
+  timeZone: string;
 }) {
   const client = useQueryClient();
   const { data, refetch } = useQuery({
@@ -94,8 +96,9 @@ export function CardStaleBanner({
       </h2>
       <p className="text-sm">
         Revision {current.revision} (code {current.verificationCode}, issued{" "}
-        {when(current.issuedAt)}) shows figures this job no longer has. {status.message} Issue a new
-        revision so the card in the customer&apos;s hands matches the parts.
+        {shopDateTime(current.issuedAt, timeZone)}) shows figures this job no longer has.{" "}
+        {status.message} Issue a new revision so the card in the customer&apos;s hands matches the
+        parts.
       </p>
       {canIssue ? (
         <IssueCardForm

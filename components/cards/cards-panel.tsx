@@ -4,6 +4,7 @@ import { useQuery } from "@tanstack/react-query";
 import { type FormEvent, useState } from "react";
 import type { CardPageSize } from "@/db/cards-schema";
 import { ApiError, apiFetch } from "@/lib/api-client";
+import { shopDateTime } from "@/lib/dates/shop-time";
 import type { CardSendResult } from "@/lib/cards/send";
 import type { CardMailSummary, CardSummary } from "@/lib/cards/summary";
 import { cardsKey, useCardsIssued } from "./card-queries";
@@ -20,12 +21,13 @@ export interface CardsPanelProps {
   exceptions: string[];
   customerEmail: string | null;
   defaultPageSize: CardPageSize;
+  /** The shop's time zone (IANA name): times are shown on the shop's clock. */
+  timeZone: string;
 }
 
 type Status =
   { kind: "idle" } | { kind: "busy"; text: string } | { kind: "done" | "failed"; text: string };
 
-const when = (iso: string) => `${iso.slice(0, 16).replace("T", " ")} UTC`;
 const PAPER: Record<CardPageSize, string> = { A4: "A4", LETTER: "US Letter" };
 
 function messageOf(error: unknown): string {
@@ -72,6 +74,7 @@ export function CardsPanel(props: CardsPanelProps) {
               jobId={jobId}
               canSend={canSend}
               customerEmail={customerEmail}
+              timeZone={props.timeZone}
               onSent={() => refresh().catch(() => undefined)}
             />
           ))}
@@ -106,14 +109,17 @@ function CardRow({
   jobId,
   canSend,
   customerEmail,
+  timeZone,
   onSent,
 }: {
   card: CardSummary;
   jobId: number;
   canSend: boolean;
   customerEmail: string | null;
+  timeZone: string;
   onSent: () => void;
 }) {
+  const when = (iso: string) => shopDateTime(iso, timeZone);
   const [open, setOpen] = useState(false);
   const last: CardMailSummary | undefined = card.mail[0];
   return (

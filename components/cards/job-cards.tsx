@@ -1,4 +1,5 @@
 import { getDb } from "@/db/client";
+import { findCounterSettings } from "@/db/counter-settings";
 import { findCustomerById } from "@/db/customers";
 import type { User } from "@/db/users";
 import { cardBlocker } from "@/lib/cards/blocker";
@@ -18,10 +19,11 @@ export async function JobCards({ jobId, user }: { jobId: number; user: User }) {
   const job = await findJobForUser(db, jobId, user);
   const canIssue = user.role === "machinist" || user.role === "owner";
   const canSend = user.role !== "customer";
-  const [cards, workshop, customer] = await Promise.all([
+  const [cards, workshop, customer, { timeZone }] = await Promise.all([
     listJobCards(db, job.id, user),
     canIssue ? loadWorkshop(db, job) : null,
     canSend ? findCustomerById(db, job.customerId) : null,
+    findCounterSettings(db),
   ]);
   return (
     <section className="panel space-y-3 p-4" aria-labelledby={`cards-${job.id}`}>
@@ -42,6 +44,7 @@ export async function JobCards({ jobId, user }: { jobId: number; user: User }) {
         exceptions={workshop ? cardExceptions(workshop).map((e) => e.text) : []}
         customerEmail={customer?.email ?? null}
         defaultPageSize={env().CARD_PAGE_SIZE}
+        timeZone={timeZone}
       />
       {canIssue ? (
         <p className="text-xs text-graphite-500">

@@ -2,12 +2,13 @@ import type { ReactNode } from "react";
 import type { VerifiedCard } from "@/lib/cards/verify";
 import { CARD_CAUTIONS, NO_BOBWEIGHT_TEXT } from "@/lib/cards/wording";
 
-const day = (iso: string) =>
+/** The day as the card states it: on the issuing shop's calendar (UTC for older cards). */
+const day = (iso: string, timeZone: string) =>
   new Intl.DateTimeFormat("en-GB", {
     day: "numeric",
     month: "long",
     year: "numeric",
-    timeZone: "UTC",
+    timeZone,
   }).format(new Date(iso));
 const grade = (g: string) => `G ${g.replace(/^G\s?/i, "")}`;
 
@@ -30,7 +31,8 @@ export function VerifiedCardView({ card }: { card: VerifiedCard }) {
         >
           Issued by {card.shopName}, but replaced: revision {card.supersededByRevision} is the
           current card for job {card.jobNumber}
-          {card.supersededAt ? ` (since ${day(card.supersededAt)})` : ""}. Ask the shop for it.
+          {card.supersededAt ? ` (since ${day(card.supersededAt, card.timeZone)})` : ""}. Ask the
+          shop for it.
         </p>
       )}
       <dl className="grid gap-x-6 gap-y-3 sm:grid-cols-3">
@@ -39,7 +41,7 @@ export function VerifiedCardView({ card }: { card: VerifiedCard }) {
           <span className="font-mono">{card.jobNumber}</span>
         </Fact>
         <Fact term="Engine">{card.engine}</Fact>
-        <Fact term="Issued">{day(card.issuedAt)}</Fact>
+        <Fact term="Issued">{day(card.issuedAt, card.timeZone)}</Fact>
         <Fact term="Revision">{card.revision}</Fact>
         <Fact term="Verification code">
           <span className="font-mono">{card.verificationCode}</span>

@@ -18,6 +18,8 @@ export interface BuildCardData {
   code: string;
   verifyUrl: string;
   issuedAt: string;
+  /** The shop's time zone when issued: the day printed is that day there (absent on older records: UTC). */
+  timeZone?: string;
   issuedBy: string;
   record: BuildRecordData;
   settings: BuildSettings;

@@ -9,6 +9,7 @@ import {
   insertBuildCard,
   listBuildCards,
 } from "@/db/build-record";
+import { findCounterSettings } from "@/db/counter-settings";
 import { findCustomerById } from "@/db/customers";
 import type { Job } from "@/db/jobs";
 import type { Database } from "@/db/schema";
@@ -50,10 +51,11 @@ export async function issueBuildCard(
     const message = "Nothing is recorded yet: type the build figures first.";
     throw new HttpError(422, "empty_record", message, { record: message });
   }
-  const [settings, customer, revision] = await Promise.all([
+  const [settings, customer, revision, counter] = await Promise.all([
     findShopSettings(db),
     findCustomerById(db, job.customerId),
     findNextBuildCardRevision(db, job.id),
+    findCounterSettings(db),
   ]);
   const code = newVerificationCode();
   const data: BuildCardData = {
@@ -63,6 +65,7 @@ export async function issueBuildCard(
     code,
     verifyUrl: cardVerifyUrl(code),
     issuedAt: now.toISOString(),
+    timeZone: counter.timeZone,
     issuedBy: actor.name,
     record: view.data,
     settings: view.settings,
@@ -185,6 +188,8 @@ export interface VerifiedBuildCard {
   status: "current" | "superseded";
   latestRevision: number;
   issuedAt: string;
+  /** The time zone the record states its date in (UTC for records issued before it was stored). */
+  timeZone: string;
   shopName: string;
   jobNumber: string;
   engine: string;
@@ -208,6 +213,7 @@ export async function verifyBuildCardCode(
     status: card.revision === card.latestRevision ? "current" : "superseded",
     latestRevision: card.latestRevision,
     issuedAt: card.issuedAt,
+    timeZone: data.timeZone ?? "UTC",
     shopName: data.shopName,
     jobNumber: data.job.number,
     engine: data.job.engine,

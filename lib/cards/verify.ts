@@ -15,6 +15,8 @@ export interface VerifiedCard {
   supersededByRevision: number | null;
   supersededAt: string | null;
   issuedAt: string;
+  /** The time zone the card states its date in (stored with it; UTC for cards issued before). */
+  timeZone: string;
   shopName: string;
   jobNumber: string;
   engine: string;
@@ -43,6 +45,7 @@ export function toVerifiedCard(card: StoredCard): VerifiedCard {
     supersededByRevision: card.supersededByRevision,
     supersededAt: card.supersededAt,
     issuedAt: card.issuedAt,
+    timeZone: data.timeZone ?? "UTC",
     shopName: data.shop.name,
     jobNumber: data.job.number,
     engine: data.job.engine,
@@ -112,9 +115,16 @@ export function findCodesInPdf(bytes: Uint8Array): string[] {
  * Checks an uploaded file against the cards issued: the very file we issued ("genuine"), a PDF
  * that names one of our cards but differs from it by even one byte ("altered"), or neither.
  *
+ * `spendOnCodes`, when given, is called with the number of codes the file names before they are
+ * looked up (the per-address rate limit counts each one) and may throw to refuse the lookup.
+ *
  * @throws HttpError 422 when the file is not a PDF, or names more than MAX_CODES_PER_CHECK codes
  */
-export async function checkCardPdf(db: DB, bytes: Uint8Array): Promise<CardCheck> {
+export async function checkCardPdf(
+  db: DB,
+  bytes: Uint8Array,
+  spendOnCodes?: (count: number) => Promise<void>,
+): Promise<CardCheck> {
   const type = await fileTypeFromBuffer(bytes);
   if (type?.mime !== "application/pdf") {
     const message = "Only PDF files can be checked: choose the balance card PDF.";
@@ -128,6 +138,7 @@ export async function checkCardPdf(db: DB, bytes: Uint8Array): Promise<CardCheck
     const message = `This file names ${codes.length} verification codes; a balance card names one. Choose the card PDF itself.`;
     throw new HttpError(422, "too_many_codes", message, { file: message });
   }
+  if (spendOnCodes && codes.length > 0) await spendOnCodes(codes.length);
   const named = await findFirstCard(db, codes);
   if (named) return { result: "altered", sha256, card: toVerifiedCard(named) };
   return { result: "unknown", sha256 };

@@ -5,6 +5,7 @@ import {
   buildCardTables,
 } from "@/lib/build-record/card-lines";
 import { formatCode } from "@/lib/cards/code";
+import { shopDate } from "@/lib/dates/shop-time";
 import { cardQrDataUrl } from "./balance-card";
 import { PDF_FONTS, registerPdfFonts } from "./fonts";
 
@@ -86,7 +87,8 @@ function BuildRecordDocument({ data, qr }: { data: BuildCardData; qr: string }) 
             <Text style={s.title}>ENGINE BUILD RECORD</Text>
             <Text style={s.job}>{data.job.number}</Text>
             <Text style={[s.small, { textAlign: "right" }]}>
-              Revision {data.revision} · issued {data.issuedAt.slice(0, 10)} by {data.issuedBy}
+              Revision {data.revision} · issued{" "}
+              {shopDate(new Date(data.issuedAt), data.timeZone ?? "UTC")} by {data.issuedBy}
             </Text>
           </View>
         </View>

@@ -51,19 +51,37 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-function renderBanner(initial: CardStatus, canIssue = true) {
+function renderBanner(initial: CardStatus, canIssue = true, timeZone = "UTC") {
   const client = new QueryClient({
     defaultOptions: { queries: { retry: false, staleTime: Infinity } },
   });
   render(
     <QueryClientProvider client={client}>
-      <CardStaleBanner jobId={7} initial={initial} canIssue={canIssue} defaultPageSize="A4" />
+      <CardStaleBanner
+        jobId={7}
+        initial={initial}
+        canIssue={canIssue}
+        defaultPageSize="A4"
+        timeZone={timeZone}
+      />
     </QueryClientProvider>,
   );
   return userEvent.setup();
 }
 
 describe("the card-no-longer-matches banner", () => {
+  it("gives the time the card was issued on the shop's clock, west of Greenwich", () => {
+    // 01:30 UTC on 3 Dec is 18:30 on 2 Dec in Denver (MST, UTC−7), worked by hand.
+    const evening = {
+      ...stale,
+      current: { ...stale.current!, issuedAt: "2026-12-03T01:30:00.000Z" },
+    };
+    renderBanner(evening, false, "America/Denver");
+    const banner = screen.getByTestId("card-stale-banner");
+    expect(banner.textContent).toContain("issued 2026-12-02 18:30 MST");
+    expect(banner.textContent).not.toContain("2026-12-03");
+  });
+
   it("says what changed and re-issues in one step, then goes away", async () => {
     const user = renderBanner(stale);
     const banner = screen.getByTestId("card-stale-banner");

@@ -1,4 +1,7 @@
+import { createElement } from "react";
+import { renderToStaticMarkup } from "react-dom/server";
 import { beforeEach, describe, expect, it } from "vitest";
+import { VerifiedCardView } from "@/components/cards/verified-card-view";
 import type { DB } from "@/db/client";
 import { findCardPdf } from "@/db/cards";
 import { updateCounterSettings } from "@/db/counter-settings";
@@ -7,6 +10,7 @@ import type { Role } from "@/db/schema";
 import type { User } from "@/db/users";
 import { showDate } from "@/lib/cards/format";
 import { issueCard } from "@/lib/cards/issue";
+import { verifyCardCode } from "@/lib/cards/verify";
 import { addOneOfEachRole, freshDb } from "../../helpers/db";
 import { createFourCylinderJob, readPdf } from "./fixtures";
 
@@ -51,5 +55,16 @@ describe("the balance card's date", () => {
   it("keeps a card issued before the zone was stored reading in UTC", () => {
     expect(showDate(EVENING)).toBe("3 Dec 2026");
     expect(showDate(EVENING, "America/Denver")).toBe("2 Dec 2026");
+  });
+});
+
+describe("the public check of a balance card", () => {
+  it("gives the day the card states, on the issuing shop's calendar", async () => {
+    const card = await issueCard(db, job.id, users.machinist, { now: new Date(EVENING) });
+    const verified = await verifyCardCode(db, card.verificationCode);
+    expect(verified.timeZone).toBe("America/Denver");
+    const html = renderToStaticMarkup(createElement(VerifiedCardView, { card: verified }));
+    expect(html).toContain("2 December 2026");
+    expect(html).not.toContain("3 December 2026");
   });
 });

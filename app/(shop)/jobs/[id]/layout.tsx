@@ -3,6 +3,7 @@ import { CardStaleBanner } from "@/components/cards/card-stale-banner";
 import { JobTabs } from "@/components/jobs/job-tabs";
 import { StatusBadge } from "@/components/jobs/status-badge";
 import { getDb } from "@/db/client";
+import { findCounterSettings } from "@/db/counter-settings";
 import { findCardStatus } from "@/lib/cards/status";
 import { env } from "@/lib/env";
 import { loadPageJob } from "@/lib/jobs/page-job";
@@ -17,7 +18,10 @@ export default async function JobLayout({
   const { id } = await params;
   const { job, user } = await loadPageJob(id, `/jobs/${id}`);
   // Shop staff see when the job has moved on from its balance card, on every page of the job.
-  const cardStatus = user.role === "customer" ? null : await findCardStatus(getDb(), job.id, user);
+  const [cardStatus, { timeZone }] = await Promise.all([
+    user.role === "customer" ? null : findCardStatus(getDb(), job.id, user),
+    findCounterSettings(getDb()),
+  ]);
   return (
     <div>
       <header className="mb-4 flex flex-wrap items-baseline gap-x-4 gap-y-1">
@@ -34,6 +38,7 @@ export default async function JobLayout({
           initial={cardStatus}
           canIssue={user.role === "machinist" || user.role === "owner"}
           defaultPageSize={env().CARD_PAGE_SIZE}
+          timeZone={timeZone}
         />
       ) : null}
       {children}

@@ -2,6 +2,7 @@ import { BuildCards } from "@/components/build/build-cards";
 import { BuildRecordScreen } from "@/components/build/build-record-screen";
 import { listBuildCards } from "@/db/build-record";
 import { getDb } from "@/db/client";
+import { findCounterSettings } from "@/db/counter-settings";
 import { loadBuildRecord, recordShownTo } from "@/lib/build-record/record";
 import { loadPageJob } from "@/lib/jobs/page-job";
 
@@ -23,10 +24,13 @@ export default async function BuildRecordPage({ params }: { params: Promise<{ id
     s.boreEntered !== null
       ? { value: s.boreEntered, unit: s.lengthUnit === "in" ? ("in" as const) : ("mm" as const) }
       : null;
-  const cards = await listBuildCards(getDb(), job.id);
+  const [cards, { timeZone }] = await Promise.all([
+    listBuildCards(getDb(), job.id),
+    findCounterSettings(getDb()),
+  ]);
   return (
     <div className="space-y-6">
-      <BuildCards jobId={job.id} role={user.role} initial={cards} />
+      <BuildCards jobId={job.id} role={user.role} initial={cards} timeZone={timeZone} />
       <BuildRecordScreen
         initial={record}
         cylinders={s.cylinders ?? 8}
