@@ -1,13 +1,6 @@
 import type { ThrottleNotice } from "@/db/sign-in-failures";
 
-const when = new Intl.DateTimeFormat("en-GB", {
-  day: "numeric",
-  month: "short",
-  hour: "2-digit",
-  minute: "2-digit",
-  timeZone: "UTC",
-  timeZoneName: "short",
-});
+import { shopDateTime } from "@/lib/dates/shop-time";
 
 function describe(n: ThrottleNotice): string {
   const who = n.email ?? "several e-mails";
@@ -19,7 +12,14 @@ function describe(n: ThrottleNotice): string {
  * The owner's notice that sign-in is being slowed: an e-mail (or a client address) had enough
  * failed tries that further tries now wait. A stranger guessing a password shows up here.
  */
-export function SignInNotices({ notices }: { notices: ThrottleNotice[] }) {
+export function SignInNotices({
+  notices,
+  timeZone,
+}: {
+  notices: ThrottleNotice[];
+  /** The shop's time zone (IANA name): times on the shop's clock. */
+  timeZone: string;
+}) {
   if (notices.length === 0) return null;
   return (
     <div className="panel space-y-2 p-4" data-testid="sign-in-notices">
@@ -27,7 +27,7 @@ export function SignInNotices({ notices }: { notices: ThrottleNotice[] }) {
       <ul className="space-y-1 text-sm">
         {notices.map((n) => (
           <li key={`${n.at}-${n.email}-${n.address}`}>
-            <span className="font-mono text-graphite-600">{when.format(new Date(n.at))}</span>{" "}
+            <span className="font-mono text-graphite-600">{shopDateTime(n.at, timeZone)}</span>{" "}
             {describe(n)}
           </li>
         ))}

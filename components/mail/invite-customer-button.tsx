@@ -1,6 +1,7 @@
 "use client";
 
 import { useId, useState } from "react";
+import { shopDateTime } from "@/lib/dates/shop-time";
 
 type Outcome = { ok: boolean; message: string } | null;
 
@@ -17,9 +18,12 @@ interface InviteResponse {
 export function InviteCustomerButton({
   customerId,
   email,
+  timeZone,
 }: {
   customerId: number;
   email: string | null;
+  /** The shop's time zone (IANA name): the link's end is given on the shop's clock. */
+  timeZone: string;
 }) {
   const id = useId();
   const [open, setOpen] = useState(false);
@@ -44,7 +48,7 @@ export function InviteCustomerButton({
       setOutcome({ ok: false, message: body?.error?.message ?? "The invite could not be made." });
       return;
     }
-    const until = `${body.invite.expiresAt.slice(0, 16).replace("T", " ")} UTC`;
+    const until = shopDateTime(body.invite.expiresAt, timeZone);
     setOutcome(
       body.mail?.status === "sent"
         ? {

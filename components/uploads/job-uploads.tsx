@@ -1,6 +1,8 @@
 import { getDb } from "@/db/client";
+import { findCounterSettings } from "@/db/counter-settings";
 import type { User } from "@/db/users";
 import { SHOP_ROLES } from "@/lib/auth/guard";
+import { shopDateTime } from "@/lib/dates/shop-time";
 import { uploadLimitBytes } from "@/lib/uploads/limits";
 import { listJobUploads } from "@/lib/uploads/save";
 import { DeleteUploadButton } from "./delete-upload-button";
@@ -12,7 +14,10 @@ import { UploadDropZone } from "./upload-drop-zone";
  * people may add and delete. Checks access itself, so it is safe wherever it is placed.
  */
 export async function JobUploads({ jobId, user }: { jobId: number; user: User }) {
-  const uploads = await listJobUploads(getDb(), jobId, user);
+  const [uploads, { timeZone }] = await Promise.all([
+    listJobUploads(getDb(), jobId, user),
+    findCounterSettings(getDb()),
+  ]);
   const canChange = SHOP_ROLES.includes(user.role);
 
   return (
@@ -53,7 +58,7 @@ export async function JobUploads({ jobId, user }: { jobId: number; user: User })
                 </p>
                 <p className="text-xs text-graphite-500">
                   {u.uploadedByName ?? "Someone"},{" "}
-                  <span className="font-mono">{u.createdAt.slice(0, 16).replace("T", " ")}</span>
+                  <span className="font-mono">{shopDateTime(u.createdAt, timeZone)}</span>
                 </p>
                 <p className="flex gap-3">
                   <a href={`${u.url}?download=1`} className="text-sm underline">

@@ -5,6 +5,7 @@ import { useState } from "react";
 import type { PartKind } from "@/db/schema";
 import { formatDerivedMass, formatMass, type PartResult } from "@/lib/balance";
 import { ApiError, apiFetch } from "@/lib/api-client";
+import { shopDateTime } from "@/lib/dates/shop-time";
 import type { Workshop } from "@/lib/workshop/load";
 import {
   HOW_TO_REMOVE,
@@ -51,10 +52,13 @@ export function RemovalPlan({
   jobId,
   initial,
   canEdit,
+  timeZone = "UTC",
 }: {
   jobId: number;
   initial: Workshop;
   canEdit: boolean;
+  /** The shop's time zone (IANA name): the last pairing's time on the shop's clock. */
+  timeZone?: string;
 }) {
   const { data } = useWorkshop(jobId, initial);
   const workshop = data ?? initial;
@@ -193,7 +197,13 @@ export function RemovalPlan({
         />
       ))}
 
-      <Pairing jobId={jobId} workshop={workshop} canEdit={canEdit} show={show} />
+      <Pairing
+        jobId={jobId}
+        workshop={workshop}
+        canEdit={canEdit}
+        show={show}
+        timeZone={timeZone}
+      />
 
       {removal.warnings.length > 0 ? (
         <section className="panel p-4">
@@ -512,11 +522,13 @@ function Pairing({
   workshop,
   canEdit,
   show,
+  timeZone,
 }: {
   jobId: number;
   workshop: Workshop;
   canEdit: boolean;
   show: Show;
+  timeZone: string;
 }) {
   const update = useUpdateWorkshop(jobId);
   const [confirming, setConfirming] = useState(false);
@@ -641,7 +653,7 @@ function Pairing({
       {canUndo ? (
         <div className="mt-3 text-sm" data-testid="pairing-undo">
           <p>
-            Last pairing applied {lastPairing.at.slice(0, 16).replace("T", " ")}:{" "}
+            Last pairing applied {shopDateTime(lastPairing.at, timeZone)}:{" "}
             {describePairingMoves(lastPairing.moves)}.
           </p>
           <button

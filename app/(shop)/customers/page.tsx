@@ -3,6 +3,7 @@ import { AddCustomerForm } from "@/components/customers/add-customer-form";
 import { InviteCustomerButton } from "@/components/mail/invite-customer-button";
 import { Pager } from "@/components/ui/pager";
 import { getDb } from "@/db/client";
+import { findCounterSettings } from "@/db/counter-settings";
 import { listCustomers } from "@/db/customers";
 import { requirePageUser, SHOP_ROLES } from "@/lib/auth/guard";
 import { listQuerySchema } from "@/lib/validation/customers";
@@ -18,11 +19,14 @@ export default async function CustomersPage({
   const raw = await searchParams;
   const parsed = listQuerySchema.safeParse(raw);
   const query = parsed.success ? parsed.data : listQuerySchema.parse({});
-  const { customers, total } = await listCustomers(getDb(), {
-    search: query.search,
-    limit: query.pageSize,
-    offset: (query.page - 1) * query.pageSize,
-  });
+  const [{ customers, total }, { timeZone }] = await Promise.all([
+    listCustomers(getDb(), {
+      search: query.search,
+      limit: query.pageSize,
+      offset: (query.page - 1) * query.pageSize,
+    }),
+    findCounterSettings(getDb()),
+  ]);
   const canAdd = user.role === "owner" || user.role === "counter";
 
   return (
@@ -53,7 +57,9 @@ export default async function CustomersPage({
             {c.company ? <p>{c.company}</p> : null}
             {c.email ? <p className="break-all">{c.email}</p> : null}
             {c.phone ? <p>{c.phone}</p> : null}
-            {canAdd ? <InviteCustomerButton customerId={c.id} email={c.email} /> : null}
+            {canAdd ? (
+              <InviteCustomerButton customerId={c.id} email={c.email} timeZone={timeZone} />
+            ) : null}
           </li>
         ))}
         {customers.length === 0 ? (
@@ -84,7 +90,7 @@ export default async function CustomersPage({
                 <td className="px-4 py-2">{c.phone}</td>
                 {canAdd ? (
                   <td className="px-4 py-2">
-                    <InviteCustomerButton customerId={c.id} email={c.email} />
+                    <InviteCustomerButton customerId={c.id} email={c.email} timeZone={timeZone} />
                   </td>
                 ) : null}
               </tr>

@@ -2,6 +2,7 @@ import { SignInNotices } from "@/components/auth/sign-in-notices";
 import { AddUserForm } from "@/components/users/add-user-form";
 import { UserRow } from "@/components/users/user-row";
 import { getDb } from "@/db/client";
+import { findCounterSettings } from "@/db/counter-settings";
 import { listCustomers } from "@/db/customers";
 import { listThrottleNotices } from "@/db/sign-in-failures";
 import { listUsers } from "@/db/users";
@@ -12,10 +13,11 @@ export const metadata = { title: "Staff & access" };
 export default async function UsersPage() {
   await requirePageUser(["owner"], "/users");
   const db = getDb();
-  const [users, { customers }, notices] = await Promise.all([
+  const [users, { customers }, notices, { timeZone }] = await Promise.all([
     listUsers(db),
     listCustomers(db, { limit: 500 }),
     listThrottleNotices(db, new Date(Date.now() - 7 * 24 * 60 * 60_000)),
+    findCounterSettings(db),
   ]);
   return (
     <section className="space-y-4">
@@ -38,7 +40,7 @@ export default async function UsersPage() {
           </tbody>
         </table>
       </div>
-      <SignInNotices notices={notices} />
+      <SignInNotices notices={notices} timeZone={timeZone} />
       <AddUserForm customers={customers.map((c) => ({ id: c.id, name: c.name }))} />
     </section>
   );

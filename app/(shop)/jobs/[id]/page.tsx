@@ -8,6 +8,7 @@ import { JobCards } from "@/components/cards/job-cards";
 import { listJobChanges } from "@/db/audit";
 import { listBuildRequests } from "@/db/build-record";
 import { getDb } from "@/db/client";
+import { findCounterSettings } from "@/db/counter-settings";
 import { findLayoutPreset } from "@/lib/balance";
 import { showLength } from "@/lib/jobs/lengths";
 import { loadJobBilling } from "@/lib/billing/job-billing";
@@ -36,7 +37,10 @@ export default async function JobOverviewPage({ params }: { params: Promise<{ id
   }
   const shop = true;
   const changes = shop ? await listJobChanges(getDb(), job.id) : [];
-  const requests = await listBuildRequests(getDb(), job.id);
+  const [requests, { timeZone }] = await Promise.all([
+    listBuildRequests(getDb(), job.id),
+    findCounterSettings(getDb()),
+  ]);
   const preset = job.spec.layout ? findLayoutPreset(job.spec.layout) : undefined;
   const s = job.spec;
   return (
@@ -92,7 +96,7 @@ export default async function JobOverviewPage({ params }: { params: Promise<{ id
         the balancing machine&apos;s instructions and local codes and licensed practice; wear eye
         protection when machining.
       </p>
-      <JobChanges changes={changes} unit={job.spec.massUnit} />
+      <JobChanges changes={changes} unit={job.spec.massUnit} timeZone={timeZone} />
     </div>
   );
 }

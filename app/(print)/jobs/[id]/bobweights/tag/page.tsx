@@ -1,7 +1,9 @@
 import { oilAllowanceLine, pinList, rodsWord } from "@/components/workshop/bobweight-text";
 import { PrintButton } from "@/components/ui/print-button";
 import { getDb } from "@/db/client";
+import { findCounterSettings } from "@/db/counter-settings";
 import { formatDerivedMass, formatMass } from "@/lib/balance";
+import { shopToday } from "@/lib/dates/shop-time";
 import { loadPageJob } from "@/lib/jobs/page-job";
 import { loadWorkshop } from "@/lib/workshop/load";
 
@@ -15,7 +17,10 @@ export const dynamic = "force-dynamic";
 export default async function BobweightTagPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const { job } = await loadPageJob(id, `/jobs/${id}/bobweights/tag`);
-  const { plan } = await loadWorkshop(getDb(), job);
+  const [{ plan }, { timeZone }] = await Promise.all([
+    loadWorkshop(getDb(), job),
+    findCounterSettings(getDb()),
+  ]);
   const result = plan.finished;
   const unit = job.spec.massUnit;
   const resolution = job.spec.scaleResolution;
@@ -72,7 +77,7 @@ export default async function BobweightTagPage({ params }: { params: Promise<{ i
           <p className="mt-3 text-xs">
             Factor {result.balanceFactor} % ·{" "}
             {oil?.none ? <strong>no oil allowance included</strong> : oil?.text} · printed{" "}
-            {new Date().toISOString().slice(0, 10)}
+            {shopToday(timeZone)}
           </p>
         ) : null}
       </div>
