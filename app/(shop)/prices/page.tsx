@@ -20,7 +20,7 @@ export default async function PricesPage() {
           entry off rather than reusing its code for different work.
         </p>
       </div>
-      <div className="panel overflow-x-auto">
+      <div className="panel relative overflow-x-auto">
         <table className="w-full text-left text-sm">
           <thead className="border-b border-graphite-200 bg-graphite-50 text-graphite-600">
             <tr>

@@ -22,7 +22,7 @@ export default async function UsersPage() {
   return (
     <section className="space-y-4">
       <h1 className="text-2xl font-semibold">Staff & access</h1>
-      <div className="panel overflow-x-auto">
+      <div className="panel relative overflow-x-auto">
         <table className="w-full text-left text-sm">
           <thead className="border-b border-graphite-200 bg-graphite-50 text-graphite-600">
             <tr>
