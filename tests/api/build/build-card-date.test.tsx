@@ -79,7 +79,7 @@ describe("the engine build record's date", () => {
       .execute();
     const older = await verifyBuildCardCode(db, card.verificationCode);
     expect(older?.timeZone).toBe("UTC");
-    expect(renderToStaticMarkup(<VerifiedBuildCardView card={older} />)).toContain(
+    expect(renderToStaticMarkup(<VerifiedBuildCardView card={older!} />)).toContain(
       "issued 2026-12-03",
     );
   });
