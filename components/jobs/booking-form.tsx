@@ -497,7 +497,7 @@ export function BookingForm({ timeZone }: { timeZone?: string } = {}) {
           {BROUGHT_ITEMS.map((item) => {
             const qty = errors.items?.[item]?.quantity;
             return (
-              <div key={item} className="text-sm">
+              <div key={item} className="min-w-0 text-sm">
                 <div className="flex items-center gap-2">
                   <label className="flex w-40 items-center gap-2">
                     <input type="checkbox" {...form.register(`items.${item}.brought`)} />
@@ -513,7 +513,7 @@ export function BookingForm({ timeZone }: { timeZone?: string } = {}) {
                     {...form.register(`items.${item}.quantity`)}
                   />
                   <input
-                    className="w-36 rounded border border-graphite-300 px-2 py-1"
+                    className="w-36 min-w-0 rounded border border-graphite-300 px-2 py-1"
                     aria-label={`${BROUGHT_ITEM_LABEL[item]} condition`}
                     placeholder="condition"
                     {...form.register(`items.${item}.condition`)}
