@@ -3,6 +3,7 @@ import Link from "next/link";
 import { CardCheckForm } from "@/components/cards/card-check-form";
 import { CardCautions, VerifiedCardView } from "@/components/cards/verified-card-view";
 import { getDb } from "@/db/client";
+import { spendRateLimitForPage } from "@/lib/auth/rate-limit";
 import { type VerifiedCard, verifyCardCode } from "@/lib/cards/verify";
 import { HttpError } from "@/lib/http/errors";
 
@@ -24,7 +25,9 @@ export default async function VerifyPage({
 }) {
   const { code } = await searchParams;
   const typed = typeof code === "string" ? code.trim().slice(0, 40) : "";
-  const card = typed ? await lookUp(typed) : null;
+  // Each code looked up counts against the address's limit (lib/auth/rate-limit.ts).
+  const limited = typed ? await spendRateLimitForPage("verify") : null;
+  const card = typed && !limited ? await lookUp(typed) : null;
   return (
     <>
       <h1 className="text-2xl font-semibold">Check a balance card</h1>
@@ -55,7 +58,11 @@ export default async function VerifyPage({
       </form>
       {typed ? (
         <div aria-live="polite" data-testid="code-result">
-          {card ? (
+          {limited ? (
+            <p className="text-replace" data-testid="rate-limited">
+              {limited}
+            </p>
+          ) : card ? (
             <>
               <VerifiedCardView card={card} />
               <p className="mt-2 text-sm">

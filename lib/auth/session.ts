@@ -14,8 +14,8 @@ export interface SessionClaim {
 export async function readSession(): Promise<SessionClaim | null> {
   const session = await getServerSession(authOptions());
   const user = session?.user;
-  const id = user?.id;
-  if (typeof id !== "number" || !Number.isInteger(id)) return null;
+  if (!user || typeof user.id !== "number" || !Number.isInteger(user.id)) return null;
+  const id = user.id;
   return {
     userId: id,
     sid: typeof user.sid === "string" ? user.sid : null,

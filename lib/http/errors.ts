@@ -9,6 +9,8 @@ export class HttpError extends Error {
     readonly code: string,
     message: string,
     readonly fields?: Record<string, string>,
+    /** Headers the answer carries as well (Retry-After on a 429). */
+    readonly headers?: Record<string, string>,
   ) {
     super(message);
   }

@@ -73,8 +73,8 @@ export function route<P = Record<string, string>>(
       guardRequest(req, options);
       res = await handler(req, ctx);
     } catch (error) {
-      const { status, body, extra } = toErrorBody(error);
-      res = NextResponse.json({ ...body, ...extra }, { status });
+      const { status, body, extra, headers } = toErrorBody(error);
+      res = NextResponse.json({ ...body, ...extra }, { status, headers });
     }
     return withPrivateHeaders(res);
   };

@@ -17,11 +17,13 @@ export function toErrorBody(error: unknown): {
   status: number;
   body: ErrorBody;
   extra?: Record<string, unknown>;
+  headers?: Record<string, string>;
 } {
   if (error instanceof HttpError) {
     return {
       status: error.status,
       body: { error: { code: error.code, message: error.message, fields: error.fields } },
+      headers: error.headers,
     };
   }
   if (error instanceof ZodError) {

@@ -3,6 +3,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { CardCautions, VerifiedCardView } from "@/components/cards/verified-card-view";
 import { getDb } from "@/db/client";
+import { spendRateLimitForPage } from "@/lib/auth/rate-limit";
 import { HttpError } from "@/lib/http/errors";
 import { verifyCardCode } from "@/lib/cards/verify";
 import { verifyBuildCardCode } from "@/lib/build-record/card";
@@ -13,6 +14,14 @@ export const metadata: Metadata = { title: "Balance card check", robots: { index
 export default async function VerifiedCardPage({ params }: { params: Promise<{ code: string }> }) {
   const { code } = await params;
   const typed = decodeURIComponent(code);
+  const limited = await spendRateLimitForPage("verify");
+  if (limited) {
+    return (
+      <p className="text-replace" data-testid="rate-limited">
+        {limited}
+      </p>
+    );
+  }
   const card = await verifyCardCode(getDb(), typed).catch(async (error: unknown) => {
     if (error instanceof HttpError && error.status === 404) return null;
     throw error;

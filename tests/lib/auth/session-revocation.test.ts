@@ -80,7 +80,7 @@ describe("a session ends for good", () => {
       users.owner.id,
       await hashPassword("a new long pass"),
     );
-    expect(version).toBe(testSession.sessionVersion + 1);
+    expect(version).toBe(Number(testSession.sessionVersion) + 1);
     expect((await listUsers()).status).toBe(401);
   });
 
