@@ -11,6 +11,7 @@ import {
   holeRequestSchema,
 } from "@/lib/validation/balance";
 import { customerSchema, listQuerySchema } from "@/lib/validation/customers";
+import { mergeCustomerSchema } from "@/lib/customers/merge-schema";
 import { jobChangesSchema, jobListQuerySchema } from "@/lib/validation/jobs";
 import { newUserSchema, userChangesSchema } from "@/lib/validation/users";
 import {
@@ -173,6 +174,12 @@ export const API_PATHS: ZodOpenApiPathsObject = {
   "/api/customers/{id}": {
     get: op("One customer"),
     patch: op("Change a customer", customerSchema),
+  },
+  "/api/customers/{id}/merge": {
+    post: op(
+      "Merge another customer into this one: jobs, quotes, invoices, accounts and invites move here; the other is removed (counter, owner)",
+      mergeCustomerSchema,
+    ),
   },
   "/api/jobs": {
     get: op(
