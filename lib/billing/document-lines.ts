@@ -177,17 +177,40 @@ export function refuseInState(kind: DocumentKind, status: string, doing: string)
   throw new ConflictError("status", `${ARTICLE[kind]} that is ${status} cannot be ${doing}.`);
 }
 
+/** What a new document's header says of its own; totals, tax, currency and times are filled in. */
+export type OwnHeader<K extends DocumentKind> = Omit<
+  NewDocument[K],
+  | "tax_rate"
+  | "currency"
+  | "subtotal"
+  | "tax"
+  | "total"
+  | "created_by"
+  | "created_at"
+  | "updated_at"
+>;
+
 /**
- * Stores a new document with its lines and logs its creation. The caller owns the transaction.
+ * Stores a new document with its priced lines, totalled at the shop's tax rate and in its
+ * currency as they are now, and logs its creation. The caller owns the transaction.
  */
 export async function createDocument<K extends DocumentKind>(
   trx: Db,
   kind: K,
-  header: NewDocument[K],
-  lines: readonly DocumentLineValues[],
+  header: OwnHeader<K>,
+  priced: readonly PricedLineValues[],
   actorId: number | null,
+  now: Date,
 ): Promise<Documents[K]> {
-  const id = await insertDocument(trx, kind, header);
+  const settings = await findShopSettings(trx);
+  const { lines, totals } = linesWithTotals(priced, settings.taxRate);
+  const id = await insertDocument(trx, kind, {
+    ...header,
+    ...totalsColumns(totals, settings),
+    created_by: actorId,
+    created_at: now.toISOString(),
+    updated_at: now.toISOString(),
+  } as NewDocument[K]);
   await replaceDocumentLines(trx, kind, id, lines);
   const after = (await findDocument(trx, kind, id))!;
   await createAuditEntry(trx, {

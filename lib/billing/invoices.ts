@@ -61,21 +61,13 @@ export async function createInvoice(
     } else {
       priced = await priceLines(trx, input.lines);
     }
-    const settings = await findShopSettings(trx);
-    const { lines, totals } = linesWithTotals(priced, settings.taxRate);
     return createDocument(
       trx,
       "invoice",
-      {
-        job_id: input.jobId,
-        quote_id: input.quoteId ?? null,
-        ...totalsColumns(totals, settings),
-        created_by: actorId,
-        created_at: now.toISOString(),
-        updated_at: now.toISOString(),
-      },
-      lines,
+      { job_id: input.jobId, quote_id: input.quoteId ?? null },
+      priced,
       actorId,
+      now,
     );
   });
 }

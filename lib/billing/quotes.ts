@@ -4,18 +4,15 @@ import { ConflictError, NotFoundError } from "@/db/errors";
 import { findJobById } from "@/db/jobs";
 import { takeNextNumber } from "@/db/number-sequences";
 import { findLiveQuoteForJob, type Quote } from "@/db/quotes";
-import { findShopSettings } from "@/db/settings";
 import type { User } from "@/db/users";
 import { findQuoteForUser } from "./access";
 import {
   changeDocument,
   createDocument,
   type LineInput,
-  linesWithTotals,
   priceLines,
   refuseInState,
   replaceDraftLines,
-  totalsColumns,
 } from "./document-lines";
 import { BillingInputError } from "./errors";
 
@@ -37,21 +34,13 @@ export async function createQuote(
           : `This job already has quote ${live.number}: change it, or withdraw it first.`,
       );
     }
-    const settings = await findShopSettings(trx);
-    const { lines, totals } = linesWithTotals(await priceLines(trx, input.lines), settings.taxRate);
     return createDocument(
       trx,
       "quote",
-      {
-        number: await takeNextNumber(trx, "quote", now),
-        job_id: input.jobId,
-        ...totalsColumns(totals, settings),
-        created_by: actorId,
-        created_at: now.toISOString(),
-        updated_at: now.toISOString(),
-      },
-      lines,
+      { number: await takeNextNumber(trx, "quote", now), job_id: input.jobId },
+      await priceLines(trx, input.lines),
       actorId,
+      now,
     );
   });
 }
