@@ -7,15 +7,13 @@ import { ActionMessage, Field } from "@/components/ui/field";
 
 /** The customer's details, editable by the counter and the owner. */
 export function EditCustomerForm({ customer }: { customer: Customer }) {
-  const [result, action, pending] = useActionState(
-    updateCustomerAction.bind(null, customer.id),
-    null,
-  );
+  const [result, action, pending] = useActionState(updateCustomerAction, null);
   const fields = result && !result.ok ? result.fields : undefined;
   const shown = result?.ok ? result.data : customer;
   return (
     <form action={action} className="panel grid gap-3 p-4 sm:grid-cols-2" aria-label="Details">
       <h2 className="font-semibold sm:col-span-2">Details</h2>
+      <input type="hidden" name="customerId" value={customer.id} />
       <Field label="Name" name="name" required defaultValue={shown.name} error={fields?.name} />
       <Field
         label="Company"

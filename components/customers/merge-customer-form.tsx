@@ -22,11 +22,12 @@ export function MergeCustomerForm({
   keepName: string;
   candidates: MergeCandidate[];
 }) {
-  const [result, action, pending] = useActionState(mergeCustomerAction.bind(null, keepId), null);
+  const [result, action, pending] = useActionState(mergeCustomerAction, null);
   const fields = result && !result.ok ? result.fields : undefined;
   return (
     <form action={action} className="panel space-y-3 p-4" aria-label="Merge a duplicate">
       <h2 className="font-semibold">Merge a duplicate into this customer</h2>
+      <input type="hidden" name="customerId" value={keepId} />
       <p className="text-sm text-graphite-600">
         For a customer entered twice. Everything of the duplicate (jobs with their quotes and
         invoices, online accounts, invites) moves to {keepName}, and the duplicate is removed. This

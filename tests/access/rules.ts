@@ -61,6 +61,7 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "POST /api/customers": { allowed: DESK },
   "GET /api/customers/[id]": { allowed: SHOP },
   "PATCH /api/customers/[id]": { allowed: DESK },
+  "POST /api/customers/[id]/merge": { allowed: DESK },
   "POST /api/invites": { allowed: DESK },
 
   // Jobs: everyone sees (customers their own); the desk books; the bench weighs and balances.
@@ -146,6 +147,8 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
 export const ACTION_RULES: Record<string, readonly Role[]> = {
   "app/(shop)/account/password/actions.ts#changePasswordAction": EVERYONE,
   "app/(shop)/customers/actions.ts#createCustomerAction": DESK,
+  "app/(shop)/customers/actions.ts#mergeCustomerAction": DESK,
+  "app/(shop)/customers/actions.ts#updateCustomerAction": DESK,
   "app/(shop)/outbox/actions.ts#retryMailAction": OWNER,
   "app/(shop)/prices/actions.ts#createPriceAction": OWNER,
   "app/(shop)/prices/actions.ts#updatePriceAction": OWNER,

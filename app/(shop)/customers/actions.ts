@@ -1,8 +1,10 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
+import { z } from "zod";
 import { redirect } from "next/navigation";
 import { getDb } from "@/db/client";
+import { NotFoundError } from "@/db/errors";
 import { createCustomer, type Customer, updateCustomer } from "@/db/customers";
 import { checkAccess } from "@/lib/auth/guard";
 import { mergeCustomers } from "@/lib/customers/merge";
@@ -27,16 +29,26 @@ export async function createCustomerAction(
   }
 }
 
-/** Saves a customer's details from their page (the id is bound by the page). */
+const customerIdField = z.coerce.number().int().positive();
+
+/** The customer a form is about, from its hidden `customerId` box. */
+function customerIdOf(form: FormData): number {
+  const parsed = customerIdField.safeParse(form.get("customerId") ?? undefined);
+  if (!parsed.success) throw new NotFoundError("customer");
+  return parsed.data;
+}
+
+/** Saves a customer's details from their page (the customer named by the hidden `customerId`). */
 export async function updateCustomerAction(
-  id: number,
   _prev: ActionResult<Customer> | null,
   form: FormData,
 ): Promise<ActionResult<Customer>> {
   const access = await checkAccess(["owner", "counter"]);
   if (!access.ok) return { ok: false, status: access.status, message: access.message };
   try {
-    const input = customerSchema.parse(formValues(form));
+    const { customerId: _id, ...values } = formValues(form);
+    const input = customerSchema.parse(values);
+    const id = customerIdOf(form);
     const customer = await updateCustomer(getDb(), id, input, access.user.id);
     revalidatePath("/customers");
     revalidatePath(`/customers/${id}`);
@@ -46,14 +58,17 @@ export async function updateCustomerAction(
   }
 }
 
-/** Merges the chosen customer into the one whose page this is, then shows the kept customer. */
+/**
+ * Merges the chosen customer (`removeId`) into the one whose page this is (the hidden
+ * `customerId`), then shows the kept customer.
+ */
 export async function mergeCustomerAction(
-  keepId: number,
   _prev: ActionResult<undefined> | null,
   form: FormData,
 ): Promise<ActionResult<undefined>> {
   const access = await checkAccess(["owner", "counter"]);
   if (!access.ok) return { ok: false, status: access.status, message: access.message };
+  let keepId: number;
   try {
     if (form.get("confirm") !== "yes") {
       return {
@@ -64,6 +79,7 @@ export async function mergeCustomerAction(
       };
     }
     const { removeId } = mergeCustomerSchema.parse({ removeId: form.get("removeId") || undefined });
+    keepId = customerIdOf(form);
     await mergeCustomers(getDb(), keepId, removeId, access.user.id);
     revalidatePath("/customers");
   } catch (error) {

@@ -92,13 +92,15 @@ function form(values: Record<string, string>) {
 describe("the customer page's actions", () => {
   it("saves details and names the field refused", async () => {
     const saved = await updateCustomerAction(
-      kept.id,
       null,
-      form({ name: "Ansel Dorrance", phone: "555 0199" }),
+      form({ customerId: String(kept.id), name: "Ansel Dorrance", phone: "555 0199" }),
     );
     expect(saved).toMatchObject({ ok: true, message: "Details saved." });
     expect((await findCustomerById(db, kept.id))?.phone).toBe("555 0199");
-    const refused = await updateCustomerAction(kept.id, null, form({ name: "" }));
+    const refused = await updateCustomerAction(
+      null,
+      form({ customerId: String(kept.id), name: "" }),
+    );
     expect(refused).toMatchObject({
       ok: false,
       status: 422,
@@ -107,19 +109,24 @@ describe("the customer page's actions", () => {
   });
 
   it("asks for the tick and a customer before merging, and refuses a machinist", async () => {
-    const unticked = await mergeCustomerAction(kept.id, null, form({ removeId: String(dup.id) }));
+    const unticked = await mergeCustomerAction(
+      null,
+      form({ customerId: String(kept.id), removeId: String(dup.id) }),
+    );
     expect(unticked).toMatchObject({
       ok: false,
       fields: { confirm: "Tick the box to confirm the merge." },
     });
-    const none = await mergeCustomerAction(kept.id, null, form({ confirm: "yes" }));
+    const none = await mergeCustomerAction(
+      null,
+      form({ customerId: String(kept.id), confirm: "yes" }),
+    );
     expect(none).toMatchObject({ ok: false, status: 422 });
     expect(none.ok ? undefined : none.fields?.removeId).toMatch(/customer to merge/);
     signInAs(users.machinist);
     const denied = await mergeCustomerAction(
-      kept.id,
       null,
-      form({ confirm: "yes", removeId: String(dup.id) }),
+      form({ customerId: String(kept.id), confirm: "yes", removeId: String(dup.id) }),
     );
     expect(denied).toMatchObject({ ok: false, status: 403 });
     expect(await findCustomerById(db, dup.id)).toBeDefined();
