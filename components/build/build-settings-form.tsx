@@ -90,19 +90,19 @@ export function BuildSettingsForm({
         void save();
       }}
     >
-      <section className="panel p-4">
+      <section className="panel overflow-x-auto p-4">
         <h2 className="mb-1 font-semibold">Ring gap factors</h2>
         <p className="mb-3 text-sm text-graphite-600">
           End gap = factor × finished bore (0.0045 means 0.0045 in per inch of bore, or mm per mm).
           One row per ring set, ring and use, from that ring maker&apos;s figures.
         </p>
-        <table className="w-full text-sm">
+        <table className="w-full min-w-[36rem] text-sm">
           <thead>
             <tr className="text-left text-graphite-500">
               <th className="py-1 font-semibold">Ring maker or set</th>
               <th className="py-1 font-semibold">Ring</th>
               <th className="py-1 font-semibold">Use</th>
-              <th className="py-1 font-semibold">Factor</th>
+              <th className="w-28 py-1 font-semibold">Factor</th>
               <th />
             </tr>
           </thead>
