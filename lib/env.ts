@@ -28,7 +28,7 @@ const schema = z.object({
   // Request rate limits per client address (lib/auth/rate-limit.ts), shared by every app server
   // through the database: sign-in posts a minute, invite acceptances an hour, card codes looked
   // up an hour (each code a bulk PDF check names counts).
-  RATE_LIMIT_SIGN_IN_PER_MINUTE: z.coerce.number().int().positive().default(30),
+  RATE_LIMIT_SIGN_IN_PER_MINUTE: z.coerce.number().int().positive().default(60),
   RATE_LIMIT_INVITES_PER_HOUR: z.coerce.number().int().positive().default(20),
   RATE_LIMIT_VERIFY_PER_HOUR: z.coerce.number().int().positive().default(300),
   // Strict-Transport-Security on every answer: turn on where the app is reached over https only.

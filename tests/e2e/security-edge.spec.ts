@@ -355,6 +355,153 @@ test.describe("headers (findings 10 and 11)", () => {
   });
 });
 
+/** An API answer over plain fetch with this Cookie header (no cookie jar of Playwright's). */
+const getWith = (baseURL: string, p: string, cookie: string) =>
+  fetch(`${baseURL}${p}`, { headers: { cookie }, redirect: "manual" });
+
+/** The Cookie header with the session cookie replaced by the one a Set-Cookie header sent. */
+function withNewSession(cookie: string, setCookies: string[]): string {
+  const fresh = setCookies
+    .map((c) => c.split(";")[0]!)
+    .find((pair) => /next-auth\.session-token=/.test(pair));
+  if (!fresh) throw new Error("no new session cookie was sent");
+  return cookie
+    .split("; ")
+    .map((pair) => (/next-auth\.session-token=/.test(pair) ? fresh : pair))
+    .join("; ");
+}
+
+test.describe("sessions that end (finding 7)", () => {
+  test("after sign-out the same cookie is refused: 401 on the API, sign-in page with the note", async ({
+    request,
+    baseURL,
+  }) => {
+    const { cookie: owner } = await signInOverHttp(baseURL!, DEMO_EMAIL.owner, DEMO_PASSWORD);
+    const account = await addAccount(request, owner);
+    const { cookie } = await signInOverHttp(baseURL!, account.email, account.password);
+    const elsewhere = await signInOverHttp(baseURL!, account.email, account.password);
+    expect((await getWith(baseURL!, "/api/jobs", cookie)).status).toBe(200);
+
+    const csrf = (await (await getWith(baseURL!, "/api/auth/csrf", cookie)).json()) as {
+      csrfToken: string;
+    };
+    const out = await fetch(`${baseURL}/api/auth/signout`, {
+      method: "POST",
+      redirect: "manual",
+      headers: { "content-type": "application/x-www-form-urlencoded", cookie },
+      body: new URLSearchParams({ csrfToken: csrf.csrfToken, callbackUrl: `${baseURL}/sign-in` }),
+    });
+    expect(out.status).toBeLessThan(400);
+
+    // Measured before: the copied cookie kept working for the rest of its 12 hours.
+    const api = await getWith(baseURL!, "/api/jobs", cookie);
+    expect(api.status).toBe(401);
+    expect(((await api.json()) as { error: { message: string } }).error.message).toMatch(
+      /session ended/,
+    );
+    const page = await getWith(baseURL!, "/jobs", cookie);
+    expect(page.status).toBeGreaterThanOrEqual(300);
+    expect(page.status).toBeLessThan(400);
+    expect(page.headers.get("location")).toMatch(/\/sign-in\?next=[^&]*&expired=1/);
+    // The same account signed in elsewhere stays signed in.
+    expect((await getWith(baseURL!, "/api/jobs", elsewhere.cookie)).status).toBe(200);
+  });
+
+  test("after a disable and re-enable the old cookie stays refused; a new sign-in works", async ({
+    request,
+    baseURL,
+  }) => {
+    const { cookie: owner } = await signInOverHttp(baseURL!, DEMO_EMAIL.owner, DEMO_PASSWORD);
+    const account = await addAccount(request, owner, "machinist");
+    const { cookie } = await signInOverHttp(baseURL!, account.email, account.password);
+    expect((await getWith(baseURL!, "/api/jobs", cookie)).status).toBe(200);
+    for (const disabled of [true, false]) {
+      const res = await request.patch(`/api/users/${account.id}`, {
+        headers: { cookie: owner, "content-type": "application/json" },
+        data: { disabled },
+      });
+      expect(res.status()).toBe(200);
+    }
+    // Measured before: the cookie issued before the disable worked again after the re-enable.
+    expect((await getWith(baseURL!, "/api/jobs", cookie)).status).toBe(401);
+    const again = await signInOverHttp(baseURL!, account.email, account.password);
+    expect((await getWith(baseURL!, "/api/jobs", again.cookie)).status).toBe(200);
+  });
+
+  test("a password change ends the other sessions and keeps this one", async ({
+    request,
+    baseURL,
+  }) => {
+    const { cookie: owner } = await signInOverHttp(baseURL!, DEMO_EMAIL.owner, DEMO_PASSWORD);
+    const account = await addAccount(request, owner);
+    const here = await signInOverHttp(baseURL!, account.email, account.password);
+    const there = await signInOverHttp(baseURL!, account.email, account.password);
+    const newPassword = `${account.password}-changed`;
+    const res = await fetch(`${baseURL}/api/account/password`, {
+      method: "POST",
+      headers: { cookie: here.cookie, "content-type": "application/json", origin: baseURL! },
+      body: JSON.stringify({
+        currentPassword: account.password,
+        newPassword,
+        confirmPassword: newPassword,
+      }),
+    });
+    expect(res.status, await res.clone().text()).toBe(200);
+    expect(await res.json()).toEqual({ changed: true, keptSignedIn: true });
+    const kept = withNewSession(here.cookie, res.headers.getSetCookie());
+    expect((await getWith(baseURL!, "/api/jobs", kept)).status).toBe(200);
+    expect((await getWith(baseURL!, "/api/jobs", there.cookie)).status).toBe(401);
+    // The cookie as it was before the change is one of the older sessions too.
+    expect((await getWith(baseURL!, "/api/jobs", here.cookie)).status).toBe(401);
+    expect(
+      (await trySignIn(baseURL!, account.email, account.password, "192.0.2.71")).signedIn,
+    ).toBe(false);
+    expect((await trySignIn(baseURL!, account.email, newPassword, "192.0.2.72")).signedIn).toBe(
+      true,
+    );
+  });
+});
+
+test.describe("rate limits (finding 9)", () => {
+  test("checking card codes in bulk from one address is 429 with Retry-After once the hour's codes are spent", async ({
+    baseURL,
+  }) => {
+    const alphabet = "0123456789ABCDEFGHJKMNPQRSTVWXYZ";
+    const code = (n: number) =>
+      Array.from({ length: 10 }, (_, i) => alphabet[Math.floor(n / 32 ** (9 - i)) % 32]).join("");
+    // The most codes one check reads (200); each counts against RATE_LIMIT_VERIFY_PER_HOUR (300).
+    const pdf = (from: number) =>
+      new TextEncoder().encode(
+        `%PDF-1.4\n% ${Array.from({ length: 200 }, (_, i) => `counterpoise-card ${code(from + i)}`).join("\n")}\n%%EOF\n`,
+      );
+    const post = (bytes: Uint8Array<ArrayBuffer>) => {
+      const form = new FormData();
+      form.set("file", new File([bytes], "card.pdf", { type: "application/pdf" }));
+      return fetch(`${baseURL}/api/verify/check`, {
+        method: "POST",
+        headers: { "x-forwarded-for": "192.0.2.99" },
+        body: form,
+      });
+    };
+    // 1 + 200 of 300.
+    expect((await post(pdf(1))).status).toBe(200);
+    // 1 more, then 200 more codes would make 402: refused before they are looked up.
+    const refused = await post(pdf(1001));
+    expect(refused.status).toBe(429);
+    expect(Number(refused.headers.get("retry-after"))).toBeGreaterThan(0);
+    expect(((await refused.json()) as { error: { code: string } }).error.code).toBe("rate_limited");
+    // Another address is not held up.
+    const other = new FormData();
+    other.set("file", new File([pdf(2001)], "card.pdf", { type: "application/pdf" }));
+    const fine = await fetch(`${baseURL}/api/verify/check`, {
+      method: "POST",
+      headers: { "x-forwarded-for": "192.0.2.100" },
+      body: other,
+    });
+    expect(fine.status).toBe(200);
+  });
+});
+
 test.describe("limits that work (finding 13), on servers of this spec's own", () => {
   const port = PORT + 7;
 
