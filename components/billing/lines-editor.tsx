@@ -1,6 +1,7 @@
 "use client";
 
-import { type ReactNode, useMemo, useRef, useState } from "react";
+import { type ReactNode, useRef } from "react";
+import { useFieldArray, useForm } from "react-hook-form";
 import type { PriceItem } from "@/db/prices";
 import type { DocumentLine } from "@/db/quotes";
 import { formatMoney } from "@/lib/billing/format";
@@ -9,7 +10,6 @@ import { PRICE_KIND_LABEL } from "./labels";
 import { TotalsFoot } from "./document-lines";
 
 interface Row {
-  key: string;
   lineId?: number;
   priceItemId?: number;
   code: string | null;
@@ -22,7 +22,6 @@ const QUANTITY = /^\d{1,5}(\.\d{1,3})?$/;
 
 function rowsFrom(lines: DocumentLine[]): Row[] {
   return lines.map((l) => ({
-    key: `line-${l.id}`,
     lineId: l.id,
     code: l.code,
     description: l.description,
@@ -37,8 +36,9 @@ export type LinePayload =
   | { priceItemId: number; quantity: string; description: string };
 
 /**
- * Lines of a draft quote or invoice. Prices come from the list and cannot be typed here; the
- * totals below follow the same rule as the server's (lib/billing/totals.ts).
+ * Lines of a draft quote or invoice, in the order they will print: added from the price list,
+ * changed, moved up or removed. Prices come from the list and cannot be typed here; the totals
+ * below follow the same rule as the server's (lib/billing/totals.ts).
  */
 export function LinesEditor({
   lines,
@@ -57,50 +57,42 @@ export function LinesEditor({
   onSave: (lines: LinePayload[]) => void;
   actions: (dirty: boolean) => ReactNode;
 }) {
-  const [rows, setRows] = useState<Row[]>(() => rowsFrom(lines));
-  const [dirty, setDirty] = useState(false);
-  const counter = useRef(0);
+  const form = useForm<{ rows: Row[] }>({ defaultValues: { rows: rowsFrom(lines) } });
+  const { fields, append, remove, move } = useFieldArray({ control: form.control, name: "rows" });
+  const rows = form.watch("rows");
+  const dirty = form.formState.isDirty;
   const tableRef = useRef<HTMLTableSectionElement>(null);
 
-  const totals = useMemo(() => {
-    if (rows.some((r) => !QUANTITY.test(r.quantity.trim()))) return null;
-    return computeTotals(
-      rows.map((r) => ({ quantity: r.quantity.trim(), unitPrice: r.unitPrice })),
-      taxRate,
-    );
-  }, [rows, taxRate]);
-
-  const change = (key: string, patch: Partial<Row>) => {
-    setRows((rs) => rs.map((r) => (r.key === key ? { ...r, ...patch } : r)));
-    setDirty(true);
-  };
+  const totals = rows.some((r) => !QUANTITY.test(r.quantity.trim()))
+    ? null
+    : computeTotals(
+        rows.map((r) => ({ quantity: r.quantity.trim(), unitPrice: r.unitPrice })),
+        taxRate,
+      );
 
   const add = (priceId: number) => {
     const item = prices.find((p) => p.id === priceId);
     if (!item) return;
-    counter.current += 1;
-    const key = `new-${counter.current}`;
-    setRows((rs) => [
-      ...rs,
+    const index = fields.length;
+    append(
       {
-        key,
         priceItemId: item.id,
         code: item.code,
         description: item.description,
         quantity: "1",
         unitPrice: item.unitPrice,
       },
-    ]);
-    setDirty(true);
+      { shouldFocus: false },
+    );
     // Straight to the new line's quantity: pick, type, pick the next.
     requestAnimationFrame(() =>
-      tableRef.current?.querySelector<HTMLInputElement>(`[data-qty="${key}"]`)?.select(),
+      tableRef.current?.querySelector<HTMLInputElement>(`[data-qty="${index}"]`)?.select(),
     );
   };
 
   const save = () =>
     onSave(
-      rows.map((r) =>
+      form.getValues("rows").map((r) =>
         r.lineId !== undefined
           ? { lineId: r.lineId, quantity: r.quantity.trim(), description: r.description }
           : {
@@ -131,38 +123,37 @@ export function LinesEditor({
             </tr>
           </thead>
           <tbody ref={tableRef}>
-            {rows.map((r, i) => {
+            {fields.map((field, i) => {
+              const r = rows[i] ?? field;
               const valid = QUANTITY.test(r.quantity.trim());
               return (
                 <tr
-                  key={r.key}
+                  key={field.id}
                   className="border-b border-graphite-100"
                   data-testid={`line-${i + 1}`}
                 >
                   <td className="py-1.5 pr-3 font-mono text-xs">{r.code}</td>
                   <td className="py-1.5 pr-3">
-                    <label className="sr-only" htmlFor={`${r.key}-description`}>
+                    <label className="sr-only" htmlFor={`${field.id}-description`}>
                       Line {i + 1} work
                     </label>
                     <input
-                      id={`${r.key}-description`}
-                      value={r.description}
+                      id={`${field.id}-description`}
                       maxLength={200}
-                      onChange={(e) => change(r.key, { description: e.target.value })}
+                      {...form.register(`rows.${i}.description`)}
                       className="field-input min-w-56 py-1"
                     />
                   </td>
                   <td className="py-1.5 pr-3 text-right">
-                    <label className="sr-only" htmlFor={`${r.key}-quantity`}>
+                    <label className="sr-only" htmlFor={`${field.id}-quantity`}>
                       Line {i + 1} quantity
                     </label>
                     <input
-                      id={`${r.key}-quantity`}
-                      data-qty={r.key}
-                      value={r.quantity}
+                      id={`${field.id}-quantity`}
+                      data-qty={i}
                       inputMode="decimal"
                       aria-invalid={valid ? undefined : true}
-                      onChange={(e) => change(r.key, { quantity: e.target.value })}
+                      {...form.register(`rows.${i}.quantity`)}
                       className={`field-input w-20 py-1 text-right font-mono ${valid ? "" : "border-replace"}`}
                     />
                   </td>
@@ -170,14 +161,21 @@ export function LinesEditor({
                   <td className="py-1.5 pr-3 text-right font-mono">
                     {totals ? money(totals.lineTotals[i]!) : "—"}
                   </td>
-                  <td className="py-1.5">
+                  <td className="whitespace-nowrap py-1.5">
+                    {i > 0 ? (
+                      <button
+                        type="button"
+                        className="btn-secondary mr-1 px-2 py-0.5 text-xs"
+                        aria-label={`Move line ${i + 1} up`}
+                        onClick={() => move(i, i - 1)}
+                      >
+                        ↑
+                      </button>
+                    ) : null}
                     <button
                       type="button"
                       className="btn-secondary px-2 py-0.5 text-xs"
-                      onClick={() => {
-                        setRows((rs) => rs.filter((x) => x.key !== r.key));
-                        setDirty(true);
-                      }}
+                      onClick={() => remove(i)}
                     >
                       Remove
                     </button>
@@ -197,7 +195,9 @@ export function LinesEditor({
             />
           ) : null}
         </table>
-        {rows.length === 0 ? <p className="py-3 text-sm text-graphite-600">No lines yet.</p> : null}
+        {fields.length === 0 ? (
+          <p className="py-3 text-sm text-graphite-600">No lines yet.</p>
+        ) : null}
       </div>
       <div className="flex flex-wrap items-end gap-3">
         <label className="text-sm">
