@@ -4,7 +4,7 @@ import { POST as acceptInviteRoute } from "@/app/api/invites/accept/route";
 import { GET as verifyCodeRoute } from "@/app/api/verify/[code]/route";
 import { POST as postCheck } from "@/app/api/verify/check/route";
 import type { DB } from "@/db/client";
-import { findRateLimit, upsertRateLimit } from "@/db/rate-limits";
+import { upsertRateLimit } from "@/db/rate-limits";
 import { KyselyRateLimiter } from "@/lib/auth/rate-limit-store";
 import { resetEnvCache } from "@/lib/env";
 import { freshDb } from "../helpers/db";
@@ -72,25 +72,6 @@ describe("the database store under rate-limiter-flexible", () => {
     expect(refused!.msBeforeNext).toBeLessThanOrEqual(60_000);
     // Another key counts on its own.
     expect((await limiter.consume("b")).remainingPoints).toBe(2);
-  });
-
-  it("adds in one statement and restarts a window that has ended", async () => {
-    const t0 = 1_000_000;
-    expect(await upsertRateLimit(db, "k", 2, 1000, false, t0)).toEqual({
-      points: 2,
-      expire: t0 + 1000,
-    });
-    expect(await upsertRateLimit(db, "k", 5, 1000, false, t0 + 500)).toEqual({
-      points: 7,
-      expire: t0 + 1000,
-    });
-    expect(await findRateLimit(db, "k", t0 + 999)).toEqual({ points: 7, expire: t0 + 1000 });
-    expect(await findRateLimit(db, "k", t0 + 1000)).toBeNull();
-    // At or after the end the count starts from the new points with a new window.
-    expect(await upsertRateLimit(db, "k", 1, 1000, false, t0 + 1000)).toEqual({
-      points: 1,
-      expire: t0 + 2000,
-    });
   });
 });
 
