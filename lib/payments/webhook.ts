@@ -8,6 +8,7 @@ import {
 } from "@/db/payments";
 import { fromMinorUnits } from "@/lib/billing/money";
 import { applyOnlinePayment } from "@/lib/billing/payments";
+import { tellPaymentReceived } from "@/lib/mail/events";
 
 export interface WebhookResult {
   status: 200 | 400;
@@ -57,6 +58,7 @@ export async function handlePaymentWebhook(
     };
   }
 
+  let applied = null as { invoiceId: number; amount: string } | null;
   const outcome = await db.transaction().execute(async (trx) => {
     const rowId = await createPaymentEvent(trx, {
       eventId: event.id,
@@ -75,19 +77,21 @@ export async function handlePaymentWebhook(
       if (session.payment_status !== "paid") result = "not-paid-yet";
       else if (invoiceId === null || session.amount_total === null) result = "unknown-invoice";
       else {
+        const amount = fromMinorUnits(session.amount_total);
         result = await applyOnlinePayment(
           trx,
           {
             invoiceId,
             sessionId: session.id,
             eventId: event.id,
-            amount: fromMinorUnits(session.amount_total),
+            amount,
             currency: session.currency ?? "",
             reference:
               typeof session.payment_intent === "string" ? session.payment_intent : session.id,
           },
           now,
         );
+        if (result === "paid" || result === "part-paid") applied = { invoiceId, amount };
       }
     } else if (event.type === "checkout.session.expired") {
       invoiceId = invoiceIdOf(event.data.object);
@@ -98,6 +102,9 @@ export async function handlePaymentWebhook(
     await updatePaymentEventOutcome(trx, rowId, result, known ? invoiceId : null);
     return result;
   });
+  // The customer's receipt goes out once the payment is on the books (through the outbox; a mail
+  // failure is logged there and never undoes the payment).
+  if (applied) await tellPaymentReceived(db, applied.invoiceId, applied.amount, null);
   if (outcome !== "paid" && outcome !== "ignored") {
     console.info(`payment notification ${event.id} (${event.type}): ${outcome}`);
   }

@@ -18,6 +18,7 @@ import { freshDb } from "../../helpers/db";
 import { jsonRequest, noParams, params } from "../../helpers/http";
 import { signInAs } from "../../helpers/session";
 import { freePort, MailHarness } from "../../lib/mail/fake-mail";
+import { completedEvent, deliver } from "../../payments/support";
 
 let db: DB;
 let w: BillingWorld;
@@ -131,6 +132,25 @@ describe("the shop's e-mails come from the shop", () => {
     // 342.00 − 100.00 = 242.00
     expect(receipt!.text).toContain("received $100.00");
     expect(receipt!.text).toContain("Still to pay on this invoice: $242.00.");
+  });
+
+  it("a payment made online is acknowledged once the provider's signed notice applies it, and only once", async () => {
+    const invoice = await issuedInvoice();
+    vi.spyOn(console, "info").mockImplementation(() => {});
+    const event = completedEvent(invoice.id, 34200);
+    expect((await deliver(JSON.stringify(event))).body).toEqual({
+      received: true,
+      outcome: "paid",
+    });
+    // The same notice delivered again changes nothing and sends nothing.
+    expect((await deliver(JSON.stringify(event))).body).toMatchObject({ outcome: "duplicate" });
+    const receipts = (await mail.captured()).filter((m) =>
+      m.subject?.startsWith("Payment received"),
+    );
+    expect(receipts).toHaveLength(1);
+    // 342.00 paid in full: nothing left to pay, so no "still to pay" line.
+    expect(receipts[0]!.text).toContain("received $342.00");
+    expect(receipts[0]!.text).not.toContain("Still to pay");
   });
 
   it("moving the job to ready to collect tells the customer once; the owner can switch it off", async () => {
