@@ -4,6 +4,7 @@ import { useActionState } from "react";
 import { changeUserAction } from "@/app/(shop)/users/actions";
 import { ROLES } from "@/db/schema";
 import type { User } from "@/db/users";
+import { ResetPasswordForm } from "./reset-password-form";
 
 export function UserRow({ user }: { user: User }) {
   const [result, action, pending] = useActionState(changeUserAction, null);
@@ -53,6 +54,7 @@ export function UserRow({ user }: { user: User }) {
           <span className="text-within">Active</span>
         )}
         {result && !result.ok ? <span className="ml-2 text-replace">{result.message}</span> : null}
+        <ResetPasswordForm user={user} />
       </td>
     </tr>
   );

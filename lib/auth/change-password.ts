@@ -1,8 +1,8 @@
 import type { DB } from "@/db/client";
-import { findUserByEmail, updateUserPassword, type User } from "@/db/users";
+import { findUserByEmail, findUserById, updateUserPassword, type User } from "@/db/users";
 import { HttpError } from "@/lib/http/errors";
 import { hashPassword, verifyPassword } from "./password";
-import type { ChangePasswordInput } from "./password-schema";
+import type { ChangePasswordInput, ResetPasswordInput } from "./password-schema";
 
 export const WRONG_CURRENT_PASSWORD = "That is not your current password.";
 
@@ -34,4 +34,26 @@ export async function changeOwnPassword(
   );
   if (version === undefined) throw new HttpError(401, "unauthenticated", "Sign in again.");
   return version;
+}
+
+/**
+ * The owner sets a new password for another person (who forgot theirs, or whose password may be
+ * known to someone else): every session of theirs ends. The owner's own password is changed on
+ * the change-password page, which asks for the current one.
+ *
+ * @throws HttpError 404 for no such user; 409 `own_password` for the owner's own account.
+ */
+export async function resetUserPassword(
+  db: DB,
+  actor: User,
+  input: ResetPasswordInput,
+): Promise<User> {
+  const target = await findUserById(db, input.userId);
+  if (!target) throw new HttpError(404, "not_found", "No such user.");
+  if (target.id === actor.id) {
+    const message = "Change your own password on the Password page: it asks for the current one.";
+    throw new HttpError(409, "own_password", message, { newPassword: message });
+  }
+  await updateUserPassword(db, target.id, await hashPassword(input.newPassword), actor.id);
+  return target;
 }

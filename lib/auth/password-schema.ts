@@ -19,3 +19,12 @@ export const changePasswordSchema = z
     message: "Choose a password different from the current one.",
   });
 export type ChangePasswordInput = z.infer<typeof changePasswordSchema>;
+
+/** The owner sets a new password for someone else (the Staff & access screen). */
+export const resetPasswordSchema = z
+  .object({
+    userId: z.coerce.number().int().positive(),
+    newPassword: passwordField,
+  })
+  .strict();
+export type ResetPasswordInput = z.infer<typeof resetPasswordSchema>;

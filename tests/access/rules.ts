@@ -155,6 +155,7 @@ export const ACTION_RULES: Record<string, readonly Role[]> = {
   "app/(shop)/settings/actions.ts#saveSettingsAction": OWNER,
   "app/(shop)/users/actions.ts#createUserAction": OWNER,
   "app/(shop)/users/actions.ts#changeUserAction": OWNER,
+  "app/(shop)/users/actions.ts#resetPasswordAction": OWNER,
 };
 
 export const CALLERS: readonly Caller[] = [

@@ -1,5 +1,6 @@
 import { beforeEach, describe, expect, it, vi } from "vitest";
 import { changePasswordAction } from "@/app/(shop)/account/password/actions";
+import { resetPasswordAction } from "@/app/(shop)/users/actions";
 import { POST as changePasswordRoute } from "@/app/api/account/password/route";
 import { GET as listJobsRoute } from "@/app/api/jobs/route";
 import type { DB } from "@/db/client";
@@ -122,5 +123,53 @@ describe("the change-password form's action", () => {
       }),
     );
     expect(done).toMatchObject({ ok: true, message: expect.stringMatching(/other sessions/) });
+  });
+});
+
+describe("the owner sets a new password for someone on the Staff & access screen", () => {
+  const form = (entries: Record<string, string>) => {
+    const f = new FormData();
+    for (const [k, v] of Object.entries(entries)) f.set(k, v);
+    return f;
+  };
+
+  it("ends every session of that person; the new password signs in, the old one not", async () => {
+    const owner = await addTestUser(db, "owner");
+    signInAs(owner);
+    const done = await resetPasswordAction(
+      null,
+      form({ userId: String(user.id), newPassword: NEW_PASSWORD }),
+    );
+    expect(done).toMatchObject({ ok: true });
+    expect(await findSessionVersion(db, user.id)).toBe(1);
+    expect((await signInWithPassword(db, user.email, TEST_PASSWORD)).ok).toBe(false);
+    expect((await signInWithPassword(db, user.email, NEW_PASSWORD)).ok).toBe(true);
+    // The person's cookie from before (version 0) is refused.
+    signInAs(user);
+    testSession.sessionVersion = 0;
+    expect((await listJobsRoute(jsonRequest("GET", "/api/jobs"), noParams)).status).toBe(401);
+  });
+
+  it("is the owner's alone, and not for the owner's own password", async () => {
+    signInAs(user);
+    expect(
+      await resetPasswordAction(null, form({ userId: String(user.id), newPassword: NEW_PASSWORD })),
+    ).toMatchObject({ ok: false, status: 403 });
+    const owner = await addTestUser(db, "owner");
+    signInAs(owner);
+    expect(
+      await resetPasswordAction(
+        null,
+        form({ userId: String(owner.id), newPassword: NEW_PASSWORD }),
+      ),
+    ).toMatchObject({ ok: false, status: 409, fields: { newPassword: expect.any(String) } });
+    expect(
+      await resetPasswordAction(null, form({ userId: String(user.id), newPassword: "short" })),
+    ).toMatchObject({
+      ok: false,
+      status: 422,
+      fields: { newPassword: "Use at least 10 characters." },
+    });
+    expect(await findSessionVersion(db, user.id)).toBe(0);
   });
 });
