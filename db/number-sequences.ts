@@ -1,5 +1,4 @@
 import type { Kysely } from "kysely";
-import { formatDocumentNumber, type NumberedDocument, sequenceName } from "@/lib/billing/numbering";
 import type { Database } from "./schema";
 
 /**
@@ -8,7 +7,7 @@ import type { Database } from "./schema";
  * the statement takes makes simultaneous callers wait their turn on PostgreSQL, so each gets its
  * own value; SQLite runs one writer at a time anyway. Values are integers, compared as integers.
  */
-async function increment(db: Kysely<Database>, name: string): Promise<number> {
+export async function incrementSequence(db: Kysely<Database>, name: string): Promise<number> {
   const row = await db
     .insertInto("number_sequences")
     .values({ name, last_value: 1 })
@@ -24,20 +23,6 @@ async function increment(db: Kysely<Database>, name: string): Promise<number> {
   return Number(row.last_value);
 }
 
-/**
- * Draws the next number for a document kind in the year of `now` (UTC): INV-2026-0001, then
- * INV-2026-0002, … Call it inside the transaction that stores the document, so a failed write
- * gives the number back.
- */
-export async function takeNextNumber(
-  db: Kysely<Database>,
-  kind: NumberedDocument,
-  now: Date,
-): Promise<string> {
-  const year = now.getUTCFullYear();
-  return formatDocumentNumber(kind, year, await increment(db, sequenceName(kind, year)));
-}
-
 /** The counter job numbers of one year are drawn from. */
 export function jobSequenceName(year: number): string {
   return `job-${year}`;
@@ -50,6 +35,6 @@ export function jobSequenceName(year: number): string {
  */
 export async function takeNextJobNumber(db: Kysely<Database>, now: Date): Promise<string> {
   const year = now.getUTCFullYear();
-  const value = await increment(db, jobSequenceName(year));
+  const value = await incrementSequence(db, jobSequenceName(year));
   return `${year}-${String(value).padStart(4, "0")}`;
 }

@@ -11,7 +11,7 @@ import {
   type Issuer,
 } from "@/db/invoices";
 import { findJobById } from "@/db/jobs";
-import { takeNextNumber } from "@/db/number-sequences";
+import { takeNextNumber } from "./numbering";
 import { findQuoteById } from "@/db/quotes";
 import { findShopSettings } from "@/db/settings";
 import {

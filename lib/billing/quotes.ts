@@ -2,7 +2,7 @@ import type { QuoteStatus } from "@/db/billing-schema";
 import type { DB } from "@/db/client";
 import { ConflictError, NotFoundError } from "@/db/errors";
 import { findJobById } from "@/db/jobs";
-import { takeNextNumber } from "@/db/number-sequences";
+import { takeNextNumber } from "./numbering";
 import { findLiveQuoteForJob, type Quote } from "@/db/quotes";
 import type { User } from "@/db/users";
 import { findQuoteForUser } from "./access";

@@ -1,4 +1,4 @@
-import { readFileSync } from "node:fs";
+import { readdirSync, readFileSync } from "node:fs";
 import { beforeEach, describe, expect, it } from "vitest";
 import type { DB } from "@/db/client";
 import { listDocumentLines, replaceDocumentLines, updateDocument } from "@/db/document-lines";
@@ -34,6 +34,14 @@ describe("billing layers", () => {
     const text = read(path);
     expect(text).not.toMatch(/from "@\/lib\//);
     expect(text).not.toMatch(/\.transaction\(/);
+  });
+
+  it("no module in db/ imports from lib/ but the configuration (lib/env)", () => {
+    const dir = new URL("../../db/", import.meta.url);
+    const offenders = readdirSync(dir)
+      .filter((f) => f.endsWith(".ts"))
+      .filter((f) => /from "@\/lib\/(?!env")/.test(read(`db/${f}`)));
+    expect(offenders).toEqual([]);
   });
 
   it.each(["lib/payments/checkout.ts", "lib/payments/webhook.ts", "lib/billing/quotes.ts"])(

@@ -3,7 +3,8 @@ import { describe, expect, it } from "vitest";
 import type { DB } from "@/db/client";
 import { createJob } from "@/db/jobs";
 import { migrateToLatest } from "@/db/migrate";
-import { takeNextJobNumber, takeNextNumber } from "@/db/number-sequences";
+import { takeNextJobNumber } from "@/db/number-sequences";
+import { takeNextNumber } from "@/lib/billing/numbering";
 import { migrations } from "@/migrations";
 import { emptyDb, freshDb, testEngine } from "../helpers/db";
 
