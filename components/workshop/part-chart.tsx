@@ -71,6 +71,7 @@ export function PartChart({
   const low = Math.min(...values, Number(target));
   const high = Math.max(...values, bandTop.toNumber());
   const pad = Math.max((high - low) * 0.25, Number(tolerance));
+  const { ticks, domain } = evenTicks(low - pad, high + pad, Number(res));
   const targetText = formatDerivedMass(target, res);
   const bandText = formatDerivedMass(bandTop.toString(), res);
   const tick = (v: number) => formatMass(v.toFixed(9), res);
@@ -84,7 +85,8 @@ export function PartChart({
           <CartesianGrid strokeDasharray="3 3" stroke="#e6e8eb" />
           <XAxis dataKey="cylinder" tick={{ fontSize: 12 }} />
           <YAxis
-            domain={[low - pad, high + pad]}
+            domain={domain}
+            ticks={ticks}
             tick={{ fontSize: 11 }}
             width={52}
             tickFormatter={tick}
@@ -110,4 +112,23 @@ export function PartChart({
       </ResponsiveContainer>
     </figure>
   );
+}
+
+/**
+ * Axis marks evenly spaced at a whole number of scale steps (about four gaps), so every mark reads
+ * at the scale resolution and the gaps between the printed figures are equal.
+ */
+export function evenTicks(
+  from: number,
+  to: number,
+  resolution: number,
+): { ticks: number[]; domain: [number, number] } {
+  const step = resolution * Math.max(1, Math.ceil((to - from) / 4 / resolution - 1e-9));
+  const first = Math.floor(from / step + 1e-9) * step;
+  const ticks: number[] = [];
+  for (let v = first; ticks.length < 12; v += step) {
+    ticks.push(Number(v.toFixed(9)));
+    if (v >= to - 1e-9) break;
+  }
+  return { ticks, domain: [ticks[0]!, ticks[ticks.length - 1]!] };
 }
