@@ -20,6 +20,12 @@ const actionsKeyFile = path.join(dataDir, ".demo-actions-key");
 if (!existsSync(actionsKeyFile))
   writeFileSync(actionsKeyFile, randomBytes(32).toString("base64"), { mode: 0o600 });
 
+// The payment fake signs its notifications with a secret of this install's own, so nobody who can
+// reach a demo can sign payment events with a documented default.
+const webhookSecretFile = path.join(dataDir, ".demo-webhook-secret");
+if (!existsSync(webhookSecretFile))
+  writeFileSync(webhookSecretFile, `whsec_${randomBytes(24).toString("hex")}`, { mode: 0o600 });
+
 const env: NodeJS.ProcessEnv = {
   ...process.env,
   DATABASE_PATH: process.env.DATABASE_PATH ?? path.join(dataDir, "counterpoise.db"),
@@ -33,7 +39,8 @@ const env: NodeJS.ProcessEnv = {
   STRIPE_API_BASE: process.env.STRIPE_API_BASE ?? "http://127.0.0.1:4242",
   // Test keys of the local payment fake; `next start` runs in production mode, which requires them set.
   STRIPE_SECRET_KEY: process.env.STRIPE_SECRET_KEY ?? "sk_test_local",
-  STRIPE_WEBHOOK_SECRET: process.env.STRIPE_WEBHOOK_SECRET ?? "whsec_local",
+  STRIPE_WEBHOOK_SECRET:
+    process.env.STRIPE_WEBHOOK_SECRET ?? readFileSync(webhookSecretFile, "utf8").trim(),
 };
 
 function run(label: string, args: string[]) {
