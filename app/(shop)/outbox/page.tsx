@@ -23,7 +23,7 @@ export default async function OutboxPage() {
       <h1 className="text-2xl font-semibold">Mail outbox</h1>
 
       <div className="space-y-2">
-        <h2 className="text-lg font-semibold">Everything the workbench has sent or tried to</h2>
+        <h2 className="text-lg font-semibold">Every message sent or attempted</h2>
         <div className="panel overflow-x-auto">
           <table className="w-full text-left text-sm" data-testid="mail-log">
             <thead className="border-b border-graphite-200 bg-graphite-50 text-graphite-600">
