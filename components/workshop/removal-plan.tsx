@@ -28,7 +28,9 @@ const STATUS: Record<PartResult["status"], { label: string; className: string }>
 export function StatusTag({ status }: { status: PartResult["status"] }) {
   const s = STATUS[status];
   return (
-    <span className={`inline-block rounded px-2 py-0.5 text-xs ${s.className}`}>{s.label}</span>
+    <span className={`inline-block rounded px-2 py-0.5 text-xs whitespace-nowrap ${s.className}`}>
+      {s.label}
+    </span>
   );
 }
 
@@ -42,7 +44,11 @@ function ProgressTag({ progress, show }: { progress: PartProgress; show: (v: str
     over: [`Over-machined, ${amount} light`, "bg-red-50 text-replace font-semibold"],
     reselect: ["Re-select or replace", "bg-red-50 text-replace font-semibold"],
   }[progress.state];
-  return <span className={`inline-block rounded px-2 py-0.5 text-xs ${className}`}>{label}</span>;
+  return (
+    <span className={`inline-block rounded px-2 py-0.5 text-xs whitespace-nowrap ${className}`}>
+      {label}
+    </span>
+  );
 }
 
 type Show = { weighed: (v: string) => string; derived: (v: string) => string; unit: string };
