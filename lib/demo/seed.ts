@@ -105,8 +105,12 @@ const JOBS: {
     spec: {
       layout: "v6-90",
       cylinders: 6,
-      boreMm: "95",
-      strokeMm: "88.4",
+      // Measured in inches like the engine line says: 3.74 × 25.4 = 94.996 mm, 3.48 × 25.4 = 88.392 mm.
+      lengthUnit: "in",
+      boreEntered: "3.74",
+      boreMm: "94.996",
+      strokeEntered: "3.48",
+      strokeMm: "88.392",
       maxRpm: 6000,
       balanceType: "external",
     },
