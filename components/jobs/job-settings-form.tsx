@@ -8,7 +8,7 @@ import { type Resolver, useForm } from "react-hook-form";
 import { z } from "zod";
 import type { Job } from "@/db/jobs";
 import { JOB_STATUSES } from "@/db/schema";
-import { LAYOUT_PRESETS, MATERIAL_DENSITIES } from "@/lib/balance";
+import { LAYOUT_PRESETS } from "@/lib/balance";
 import { ApiError, apiFetch } from "@/lib/api-client";
 import { jobSpecSchema } from "@/lib/validation/workshop";
 import { lengthAsEntered, showDrillSize } from "@/lib/jobs/lengths";
@@ -236,26 +236,8 @@ export function JobSettingsForm({ job: initial, role }: { job: Job; role: string
         inputMode: "decimal",
       })}
       {field("drillSize", "Drill for crank work (8.5 mm, 3/8, #21, F; blank: none)")}
-      <label className="text-sm">
-        <span className="mb-1 block font-semibold">Rods are</span>
-        <select className={box} disabled={!machinist} {...form.register("rodMaterial")}>
-          {Object.entries(MATERIAL_DENSITIES).map(([id, m]) => (
-            <option key={id} value={id}>
-              {m.label} ({m.density} g/cm³)
-            </option>
-          ))}
-        </select>
-      </label>
-      <label className="text-sm">
-        <span className="mb-1 block font-semibold">Pistons are</span>
-        <select className={box} disabled={!machinist} {...form.register("pistonMaterial")}>
-          {Object.entries(MATERIAL_DENSITIES).map(([id, m]) => (
-            <option key={id} value={id}>
-              {m.label} ({m.density} g/cm³)
-            </option>
-          ))}
-        </select>
-      </label>
+      {/* Pistons are milled and rods ground, not drilled, so their material no longer reaches a
+          figure; the stored choice is kept and sent back unchanged. */}
       <label className="text-sm">
         <span className="mb-1 block font-semibold">Balance</span>
         <select className={box} disabled={!machinist} {...form.register("balanceType")}>
