@@ -1,47 +1,46 @@
 "use client";
 
-import { useActionState } from "react";
+import { useActionState, useState } from "react";
 import { updateCustomerAction } from "@/app/(shop)/customers/actions";
 import type { Customer } from "@/db/customers";
 import { ActionMessage, Field } from "@/components/ui/field";
 
-/** The customer's details, editable by the counter and the owner. */
+type Values = Record<"name" | "company" | "email" | "phone" | "address" | "notes", string>;
+
+const valuesOf = (c: Customer): Values => ({
+  name: c.name,
+  company: c.company ?? "",
+  email: c.email ?? "",
+  phone: c.phone ?? "",
+  address: c.address ?? "",
+  notes: c.notes ?? "",
+});
+
+/**
+ * The customer's details, editable by the counter and the owner. The boxes hold what was typed
+ * (controlled), so a refusal keeps the machinist's typing rather than resetting the form.
+ */
 export function EditCustomerForm({ customer }: { customer: Customer }) {
   const [result, action, pending] = useActionState(updateCustomerAction, null);
+  const [values, setValues] = useState<Values>(() => valuesOf(customer));
   const fields = result && !result.ok ? result.fields : undefined;
-  const shown = result?.ok ? result.data : customer;
+  const box = (name: keyof Values) => ({
+    name,
+    value: values[name],
+    onChange: (e: { target: { value: string } }) =>
+      setValues((v) => ({ ...v, [name]: e.target.value })),
+    error: fields?.[name],
+  });
   return (
     <form action={action} className="panel grid gap-3 p-4 sm:grid-cols-2" aria-label="Details">
       <h2 className="font-semibold sm:col-span-2">Details</h2>
       <input type="hidden" name="customerId" value={customer.id} />
-      <Field label="Name" name="name" required defaultValue={shown.name} error={fields?.name} />
-      <Field
-        label="Company"
-        name="company"
-        defaultValue={shown.company ?? ""}
-        error={fields?.company}
-      />
-      <Field
-        label="E-mail"
-        name="email"
-        type="email"
-        defaultValue={shown.email ?? ""}
-        error={fields?.email}
-      />
-      <Field
-        label="Phone"
-        name="phone"
-        type="tel"
-        defaultValue={shown.phone ?? ""}
-        error={fields?.phone}
-      />
+      <Field label="Name" required {...box("name")} />
+      <Field label="Company" {...box("company")} />
+      <Field label="E-mail" type="email" {...box("email")} />
+      <Field label="Phone" type="tel" {...box("phone")} />
       <div className="sm:col-span-2">
-        <Field
-          label="Address"
-          name="address"
-          defaultValue={shown.address ?? ""}
-          error={fields?.address}
-        />
+        <Field label="Address" {...box("address")} />
       </div>
       <div className="sm:col-span-2">
         <label htmlFor="field-notes" className="mb-1 block text-sm font-semibold">
@@ -51,7 +50,8 @@ export function EditCustomerForm({ customer }: { customer: Customer }) {
           id="field-notes"
           name="notes"
           rows={3}
-          defaultValue={shown.notes ?? ""}
+          value={values.notes}
+          onChange={(e) => setValues((v) => ({ ...v, notes: e.target.value }))}
           className="field-input w-full"
           aria-invalid={fields?.notes ? true : undefined}
         />

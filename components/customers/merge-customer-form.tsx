@@ -1,6 +1,6 @@
 "use client";
 
-import { useActionState } from "react";
+import { useActionState, useState } from "react";
 import { mergeCustomerAction } from "@/app/(shop)/customers/actions";
 import { ActionMessage } from "@/components/ui/field";
 
@@ -24,6 +24,9 @@ export function MergeCustomerForm({
 }) {
   const [result, action, pending] = useActionState(mergeCustomerAction, null);
   const fields = result && !result.ok ? result.fields : undefined;
+  // Controlled, so a refusal (no tick yet) keeps the choice instead of resetting the form.
+  const [removeId, setRemoveId] = useState("");
+  const [confirmed, setConfirmed] = useState(false);
   return (
     <form action={action} className="panel space-y-3 p-4" aria-label="Merge a duplicate">
       <h2 className="font-semibold">Merge a duplicate into this customer</h2>
@@ -41,7 +44,8 @@ export function MergeCustomerForm({
           id="merge-remove"
           name="removeId"
           className="field-input w-full"
-          defaultValue=""
+          value={removeId}
+          onChange={(e) => setRemoveId(e.target.value)}
           aria-invalid={fields?.removeId ? true : undefined}
         >
           <option value="">Choose a customer…</option>
@@ -54,7 +58,14 @@ export function MergeCustomerForm({
         {fields?.removeId ? <p className="mt-1 text-sm text-replace">{fields.removeId}</p> : null}
       </div>
       <label className="flex items-start gap-2 text-sm">
-        <input type="checkbox" name="confirm" value="yes" className="mt-1" />
+        <input
+          type="checkbox"
+          name="confirm"
+          value="yes"
+          className="mt-1"
+          checked={confirmed}
+          onChange={(e) => setConfirmed(e.target.checked)}
+        />
         <span>
           I have checked these are the same customer; move everything to {keepName} and remove the
           duplicate.

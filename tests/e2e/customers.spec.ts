@@ -7,7 +7,7 @@ import { signInAs } from "./helpers";
 
 test.use({ viewport: { width: 390, height: 844 } });
 
-test("edit a customer and merge a duplicate into it at phone width", async ({ page }) => {
+test("edit a customer and merge a duplicate into it at phone width", async ({ page }, testInfo) => {
   test.setTimeout(120_000);
   const tag = Date.now().toString(36);
   await signInAs(page, "counter");
@@ -22,7 +22,11 @@ test("edit a customer and merge a duplicate into it at phone width", async ({ pa
   const keepId: number = (await keep.json()).customer.id;
   const dupId: number = (await dup.json()).customer.id;
   const booked = await page.request.post("/api/jobs", {
-    data: { customerId: dupId, engine: "Flat-plane V8 invented for the merge test" },
+    data: {
+      customerId: dupId,
+      engine: "In-line four with a long-stroke crank, invented for the merge test",
+      spec: { layout: "inline-4", cylinders: 4 },
+    },
   });
   expect(booked.status()).toBe(201);
   const jobNumber: string = (await booked.json()).job.number;
@@ -72,4 +76,18 @@ test("edit a customer and merge a duplicate into it at phone width", async ({ pa
   await page.goto("/jobs");
   await expect(page.getByTestId("job-cards")).toBeVisible();
   await expect(page.getByTestId("jobs-table")).toBeHidden();
+  await page.screenshot({ path: testInfo.outputPath("jobs-390.png"), fullPage: true });
+  await page.goto(`/customers/${keepId}`);
+  await page.screenshot({ path: testInfo.outputPath("customer-390.png"), fullPage: true });
+
+  // At desk width the same lists are tables again.
+  await page.setViewportSize({ width: 1280, height: 900 });
+  await page.goto("/jobs");
+  await expect(page.getByTestId("jobs-table")).toBeVisible();
+  await expect(page.getByTestId("job-cards")).toBeHidden();
+  await page.screenshot({ path: testInfo.outputPath("jobs-1280.png"), fullPage: true });
+  await page.goto(`/customers?search=${tag}`);
+  await expect(page.getByTestId("customer-cards")).toBeHidden();
+  await expect(page.getByRole("table")).toBeVisible();
+  await page.screenshot({ path: testInfo.outputPath("customers-1280.png"), fullPage: true });
 });
