@@ -1,3 +1,4 @@
+import { createRequire } from "node:module";
 import path from "node:path";
 import fc from "fast-check";
 import { NextRequest } from "next/server";
@@ -32,6 +33,24 @@ import { type Body, hostileBodies, hostileValue, jsonSchemaOf } from "./bodies";
 // request leaves the database as it was, and after an accepted one the reads of the same area
 // still answer. Path parameters and query strings get the same treatment. FUZZ_RUNS=1000 (and
 // FUZZ_SEED=<seed> to replay a reported failure) runs a longer search than the default 30.
+
+// The per-address rate limits count every request in their own table by design, which would read
+// as "a refused request wrote"; they have their own tests (tests/security/rate-limits.test.ts and
+// the browser spec), so here they let everything through and write nothing.
+vi.mock("@/lib/auth/rate-limit", async (importOriginal) => ({
+  ...(await importOriginal<typeof import("@/lib/auth/rate-limit")>()),
+  spendRateLimit: async () => {},
+  spendRateLimitForPage: async () => null,
+}));
+
+// next-auth's own route reads cookies and headers through next/headers, which only answer inside
+// a running Next server, and loads them with a plain require() that vi.mock does not reach: while
+// this file runs they answer "no cookies, no headers" (as in tests/access/access-matrix.test.ts).
+const nextHeaders = createRequire(import.meta.url)("next/headers") as Record<string, unknown>;
+const realNextHeaders = { cookies: nextHeaders.cookies, headers: nextHeaders.headers };
+nextHeaders.cookies = async () => ({ getAll: () => [], get: () => undefined, has: () => false });
+nextHeaders.headers = async () => new Headers();
+afterAll(() => Object.assign(nextHeaders, realNextHeaders));
 
 /** Write methods that take no JSON body, and why they are left out here. */
 const NOT_FUZZED: Record<string, string> = {
