@@ -41,6 +41,11 @@ const env = appEnvironment(PORT, PORT === 3100 ? "e2e" : `e2e-${PORT}`, {
   STRIPE_SECRET_KEY: "sk_test_local",
   STRIPE_WEBHOOK_SECRET: "whsec_local",
   FAKE_PAYMENTS_WEBHOOK_URL: `http://127.0.0.1:${PORT}/api/payments/webhook`,
+  // Every browser test signs in from 127.0.0.1, so the per-address sign-in limits would trip on
+  // the suite's own wrong-password cases; they are tested in process (tests/lib/auth/sign-in.test.ts,
+  // tests/security/rate-limits.test.ts). The per-e-mail limits keep their defaults here.
+  SIGN_IN_MAX_FAILURES_PER_ADDRESS: "100000",
+  RATE_LIMIT_SIGN_IN_PER_MINUTE: "100000",
 });
 const SERVICES: LocalService[] = [
   { name: "mail capture", args: [TSX_CLI, "scripts/fake-smtp.ts"], readyPort: SMTP_PORT },
