@@ -278,7 +278,7 @@ export function planToCsv(plan: WorkshopPlan, job: Job): string {
       part: EXPORT_NAMES[p.kind],
       weighed,
       target: target ? formatDerivedMass(target, res) : "",
-      remove: p.status === "remove" ? formatDerivedMass(p.remove, res) : "0",
+      remove: formatDerivedMass(p.status === "remove" ? p.remove : "0", res),
       how:
         p.status === "remove"
           ? (HOW_TO_REMOVE[p.kind] ?? "")

@@ -125,6 +125,8 @@ describe("the removal plan as CSV", () => {
     const piston = (c: number) => rows.find((r) => r.part === "piston" && r.cylinder === String(c));
     // The lightest piston, one reading: at the 0.1 g resolution, left as weighed.
     expect(piston(1)).toMatchObject({ weighed: "400.0", finished: "400.0", state: "in band" });
+    // Nothing to take off is written to the same digits as a figure to take off.
+    expect(piston(1)).toMatchObject({ remove: "0.00" });
     // Three readings: 1203.5 / 3 = 401.1666… g (by hand), 1.1666… g over the 400.0 g target,
     // outside the 0.5 g band: machined to the target (common practice).
     expect(piston(2)).toMatchObject({
