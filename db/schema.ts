@@ -4,7 +4,7 @@ import type { BuildRecordTables } from "./build-record-schema";
 import type { CardTables } from "./cards-schema";
 import type { UploadsAndMailTables } from "./uploads-schema";
 
-/** The roles of PRODUCT.md; the order is not a hierarchy. */
+/** The shop's roles; the order is not a hierarchy. */
 export const ROLES = ["owner", "machinist", "counter", "customer"] as const;
 export type Role = (typeof ROLES)[number];
 

@@ -42,7 +42,7 @@ export const DEFAULT_SETTINGS: ShopSettings = {
   currency: "USD",
   invoiceFooter: null,
   maxUploadMb: "10",
-  // 2 g per rod: the low end of the 2–5 g per rod of common practice (DOMAIN §3), and the same as
+  // 2 g per rod: the low end of the 2–5 g per rod of common practice, and the same as
   // the 4 g per two-rod crankpin some shops use. The owner changes it on the settings screen.
   oilAllowancePerRodG: "2",
   // 5 %: a matched set sits within a percent or two, a slipped decimal point is 10× (common practice).

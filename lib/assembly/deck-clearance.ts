@@ -28,7 +28,7 @@ export interface DeckClearanceResult {
 }
 
 /**
- * Deck clearance at TDC from the stack of parts (DOMAIN §7, common practice): the piston top
+ * Deck clearance at TDC from the stack of parts (common practice): the piston top
  * stands stroke/2 + rod length + compression height above the crank centreline, so the
  * clearance is block deck height minus that stack. Unit-agnostic (in or mm, consistently).
  * Measure it too, with a dial indicator at both ends of the piston: rod, pin and bearing

@@ -34,7 +34,7 @@ export interface IntakeCentrelineResult {
 }
 
 /**
- * The intake centreline measured by the equal-lift method (DOMAIN §7, common practice): with a
+ * The intake centreline measured by the equal-lift method (as cam makers publish it; common practice): with a
  * dial indicator on the intake lifter and a degree wheel on the crank set to true TDC, read
  * the crank angle at the same lift on each side of full lift; full lift — the centreline —
  * lies midway: ICL = (θ₁ + θ₂) / 2. Reading both sides at one lift cancels the lobe's ramp

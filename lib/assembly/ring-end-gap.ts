@@ -38,7 +38,7 @@ export interface RingEndGapResult {
 const MAX_FACTOR = new Dec("0.05");
 
 /**
- * Ring end gap to file to (DOMAIN §7, common practice): gap = factor × bore, the factor taken
+ * Ring end gap to file to (common practice): gap = factor × bore, the factor taken
  * from the ring maker for the ring and the engine's use. Unit-agnostic: bore in inches gives
  * the gap in inches, bore in millimetres gives millimetres. Rings are gapped by filing the
  * ring ends square; a gap that is too tight can butt when hot and scuff or break the ring, so

@@ -21,7 +21,7 @@ export interface TrueTdcResult {
 }
 
 /**
- * True TDC by the piston-stop method (DOMAIN §7, common practice): turn the crank until the
+ * True TDC by the piston-stop method (common practice): turn the crank until the
  * piston touches a stop screwed into the plug hole (or bolted across the bore), read the
  * wheel, turn back the other way to the stop and read again; the piston reaches the stop at
  * equal angles either side of TDC, so true TDC lies midway. Turn by hand only and never

@@ -37,7 +37,7 @@ export interface ValveSpringResult {
 
 /**
  * Seat and open loads of a valve spring and its coil-bind margin, by Hooke's law for a linear
- * spring (DOMAIN §7): seat load = rate × (free length − installed height) when no measured
+ * spring (Hooke's law): seat load = rate × (free length − installed height) when no measured
  * load is given; a shim of thickness t shortens the installed height by t and adds rate × t;
  * open load = seat load + rate × lift. Real springs are not perfectly linear (progressive and
  * beehive springs least of all): check loads on a spring tester and keep to the cam and spring

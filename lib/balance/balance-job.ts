@@ -33,7 +33,7 @@ export const MATCHED_KINDS: readonly MatchedKind[] = [
   "smallEnd",
   "bigEnd",
 ];
-/** The kinds making up the reciprocating mass of a cylinder (DOMAIN §3). */
+/** The kinds making up the reciprocating mass of a cylinder (common practice). */
 export const RECIPROCATING_KINDS: readonly MatchedKind[] = [
   "piston",
   "wristPin",
@@ -130,7 +130,7 @@ export interface BalanceInput {
    */
   oilAllowance?: string;
   /**
-   * Oil allowance per rod (2–5 g per rod is common practice, DOMAIN §3): each bobweight adds it
+   * Oil allowance per rod (2–5 g per rod is common practice): each bobweight adds it
    * once for every rod on its crankpin, so a two-rod pin takes twice the figure.
    */
   oilAllowancePerRod?: string;

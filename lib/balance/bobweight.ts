@@ -29,14 +29,14 @@ export interface BobweightInput {
    */
   oilAllowance?: string;
   /**
-   * Oil allowance per rod (2–5 g per rod is common practice, DOMAIN §3): the pin takes it once
+   * Oil allowance per rod (2–5 g per rod is common practice): the pin takes it once
    * for each rod on it, i.e. once per entry of `rotating`.
    */
   oilAllowancePerRod?: string;
 }
 
 /**
- * The bobweight for one crankpin (DOMAIN §3, common practice):
+ * The bobweight for one crankpin (common practice):
  * Σ rotating + oil allowance + balance factor × Σ reciprocating, where the oil allowance is the
  * per-rod figure times the rods on the pin (or a figure for the whole pin, the older form).
  * For a 90° V8 at 50 %: 2 × rotating + 1 × reciprocating + 2 × oil per rod.

@@ -41,7 +41,7 @@ export interface BobweightSet {
  * matched parts still leave each crankpin's figure a little different. Pins that carry the
  * same number of rods share one figure, the mean of their bobweights; the per-pin figures and
  * their spread come with it, and a flag when the spread is wider than the scale resolution
- * (DOMAIN §2 treats repeated readings the same way; common practice). Pins with a different
+ * (repeated readings of one part are treated the same way; common practice). Pins with a different
  * number of rods (custom layouts only) make a separate set: their bobweights are never averaged
  * together.
  *

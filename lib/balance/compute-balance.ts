@@ -138,7 +138,7 @@ export interface BalanceResult {
  * Works out a balancing job: matches every kind of part, then the reciprocating and rotating
  * mass of each cylinder and the bobweight of each crankpin, from the final (matched) weights.
  *
- * Matching `by-part` (the default; DOMAIN §2, common practice): per kind the target is the
+ * Matching `by-part` (the default; common practice): per kind the target is the
  * lightest part unless `targets` sets one; a part heavier than target + tolerance is machined
  * to the target, one within the band is left alone, one lighter than a set target is `light`
  * (warning: it needs a heavier replacement or added weight, and keeps its weight in the sums).
@@ -155,7 +155,7 @@ export interface BalanceResult {
  * its heavier pin, retainers or rings). Big ends are matched end to end as `by-part`. Which
  * piston rides on which rod then changes what is removed (see `suggestPairing`).
  *
- * Masses (DOMAIN §3): reciprocating = piston + wrist pin + retainers (the cylinder's pair) +
+ * Masses (common practice): reciprocating = piston + wrist pin + retainers (the cylinder's pair) +
  * ring set + small end. bobweight = Σ (big end + bearing) + the pin's oil + factor × Σ
  * reciprocating. The oil allowance is given per rod (`oilAllowancePerRod`: the pin's oil is
  * rods on the pin × the figure, and each cylinder's `rotating` carries one figure) or, the
@@ -453,7 +453,7 @@ function spreadWarnings(job: ParsedJob): BalanceWarning[] {
   return warnings;
 }
 
-/** Rods whose two end weights do not add up to the recorded whole-rod weight (DOMAIN §2). */
+/** Rods whose two end weights do not add up to the recorded whole-rod weight (common practice). */
 function rodTotalWarnings(job: ParsedJob): BalanceWarning[] {
   const { cylinders, resolution, unit } = job;
   const show = messageMasses(job);

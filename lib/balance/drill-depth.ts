@@ -2,7 +2,7 @@ import { Dec, PI, out, radians } from "./decimal";
 import { parseQuantity } from "./parse";
 import { BalanceInputError } from "./errors";
 
-/** Point angle of a standard twist drill, degrees (common practice; DOMAIN §4). */
+/** Point angle of a standard twist drill, degrees (common practice; geometry). */
 export const DEFAULT_POINT_ANGLE_DEG = "118";
 /** Cubic millimetres in one cubic centimetre. */
 const MM3_PER_CM3 = 1000;
@@ -34,7 +34,7 @@ export interface DrillDepth {
 }
 
 /**
- * Depth to drill to remove a mass (DOMAIN §4, geometry). V = m/ρ. The point is a cone of
+ * Depth to drill to remove a mass (geometry). V = m/ρ. The point is a cone of
  * length h = (D/2)·cot(α) with α half the point angle. When V is more than the whole cone,
  * V = πr²(T − 2h/3), so T = V/(πr²) + 2h/3. Otherwise only part of the cone is cut:
  * V = (1/3)·π·(T·tan α)²·T, so T = ∛(3V / (π tan²α)).

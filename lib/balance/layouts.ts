@@ -68,7 +68,7 @@ const HALF_TURNS_WITH_CRANK =
   "Each cylinder's primary force along its axis is half a force turning with its crankpin and half a force turning the other way, m·r·ω²·cos(θ − φ)·u(φ) = ½·m·r·ω²·[u(θ) + u(2φ − θ)]; a counterweight turns with the crank, so it can only cancel the first half.";
 
 const NO_BOBWEIGHT =
-  "DOMAIN §3, common practice: the throws cancel each other's primary forces and couples, so equal bobweights would cancel too; the crank is spun bare.";
+  "The throws cancel each other's primary forces and couples (common practice), so equal bobweights would cancel too; the crank is spun bare.";
 
 function fixed(
   id: string,
@@ -108,7 +108,7 @@ export const LAYOUT_PRESETS: readonly LayoutPreset[] = [
     1,
     1,
     { factor: "50", range: ["50", "60"] },
-    "DOMAIN §3, common practice: singles need a bobweight; 50–60 % is the usual range, 50 % taken as the start.",
+    "Singles need a bobweight; 50–60 % is the usual range (common practice), 50 % taken as the start.",
   ),
   fixed(
     "parallel-twin-360",
@@ -116,7 +116,7 @@ export const LAYOUT_PRESETS: readonly LayoutPreset[] = [
     2,
     1,
     { factor: "50", range: ["50", "90"] },
-    "DOMAIN §3, common practice: 360° twins need bobweights; factors vary widely (50–90 %). Both pistons move together, so it is treated like a single for the 50 % start (from memory).",
+    "360° twins need bobweights; factors vary widely (50–90 %, common practice). Both pistons move together, so it is treated like a single for the 50 % start (from memory).",
   ),
   fixed(
     "parallel-twin-180",
@@ -124,7 +124,7 @@ export const LAYOUT_PRESETS: readonly LayoutPreset[] = [
     2,
     1,
     { factor: "50", range: ["50", "90"] },
-    "Primary forces cancel but a rocking couple remains, which the counterweights only share between planes, so bobweights are used; 50 % start and 50–90 % range from memory (DOMAIN §3 gives 50–90 % for twins).",
+    "Primary forces cancel but a rocking couple remains, which the counterweights only share between planes, so bobweights are used; 50 % start and 50–90 % range from memory (the trade quotes 50–90 % for twins).",
   ),
   fixed(
     "inline-3",
@@ -152,7 +152,7 @@ export const LAYOUT_PRESETS: readonly LayoutPreset[] = [
     2,
     2,
     { factor: "50" },
-    `Textbook engine balance (NPTEL "Dynamics of Machines", V-engine balancing; DOMAIN §3): ${HALF_TURNS_WITH_CRANK} At 90° the two counter-rotating halves point opposite ways and cancel, so the primary force of both cylinders is a constant vector of half their reciprocating mass turning with the crank: 50 % cancels all of it. Use the engine maker's figure where it differs.`,
+    `Textbook engine balance (NPTEL "Dynamics of Machines", V-engine balancing; common practice): ${HALF_TURNS_WITH_CRANK} At 90° the two counter-rotating halves point opposite ways and cancel, so the primary force of both cylinders is a constant vector of half their reciprocating mass turning with the crank: 50 % cancels all of it. Use the engine maker's figure where it differs.`,
   ),
   fixed(
     "v-twin-narrow",
@@ -160,7 +160,7 @@ export const LAYOUT_PRESETS: readonly LayoutPreset[] = [
     2,
     2,
     { factor: "60", range: ["55", "65"] },
-    `DOMAIN §3, common practice: narrow V-twins roughly 55–65 %, 60 % taken as the start. Below 90° the counter-rotating halves no longer cancel (what is left is cos(V angle) of one cylinder's primary force) and no counterweight can cancel it; a factor over 50 % only moves the remaining shake from one direction to another, which is why makers choose their own figure. ${HALF_TURNS_WITH_CRANK}`,
+    `Narrow V-twins roughly 55–65 % (common practice), 60 % taken as the start. Below 90° the counter-rotating halves no longer cancel (what is left is cos(V angle) of one cylinder's primary force) and no counterweight can cancel it; a factor over 50 % only moves the remaining shake from one direction to another, which is why makers choose their own figure. ${HALF_TURNS_WITH_CRANK}`,
   ),
   {
     ...fixed(
@@ -169,7 +169,7 @@ export const LAYOUT_PRESETS: readonly LayoutPreset[] = [
       2,
       2,
       { factor: "60", range: ["55", "65"] },
-      "Kept for jobs booked before the V angle was asked, with the 60 % they were worked out with (narrow V-twins 55–65 %, common practice, DOMAIN §3). A 90° twin needs 50 %: change the job to the 90° or the narrower V-twin layout.",
+      "Kept for jobs booked before the V angle was asked, with the 60 % they were worked out with (narrow V-twins 55–65 %, common practice). A 90° twin needs 50 %: change the job to the 90° or the narrower V-twin layout.",
     ),
     replacedBy: ["v-twin-90", "v-twin-narrow"],
   },
@@ -179,7 +179,7 @@ export const LAYOUT_PRESETS: readonly LayoutPreset[] = [
     6,
     1,
     { factor: "50" },
-    "DOMAIN §3: V6 cranks need bobweights. Even-fire 60° V6 cranks give each rod its own (split) throw; the 50 % start is from memory — use the engine maker's figure.",
+    "V6 cranks need bobweights. Even-fire 60° V6 cranks give each rod its own (split) throw; the 50 % start is from memory — use the engine maker's figure.",
   ),
   fixed(
     "v6-90-split",
@@ -187,7 +187,7 @@ export const LAYOUT_PRESETS: readonly LayoutPreset[] = [
     6,
     1,
     { factor: "50" },
-    `DOMAIN §3: V6 cranks need bobweights. Each rod has its own crankpin (the two pins of a throw are offset so that the cylinders fire every 120°), so there are six bobweights of one rod each. ${HALF_TURNS_WITH_CRANK} 50 % of each rod's reciprocating mass cancels the half that turns with its own pin exactly; the counter-rotating halves of the six cylinders add up to no force over the three throws but leave a rocking couple that no counterweight can cancel (the reason some of these engines carry a balance shaft). So 50 % leaves nothing that the crank's counterweights could still correct (textbook engine balance, derived, not a maker's figure): use the engine maker's figure where it differs.`,
+    `V6 cranks need bobweights. Each rod has its own crankpin (the two pins of a throw are offset so that the cylinders fire every 120°), so there are six bobweights of one rod each. ${HALF_TURNS_WITH_CRANK} 50 % of each rod's reciprocating mass cancels the half that turns with its own pin exactly; the counter-rotating halves of the six cylinders add up to no force over the three throws but leave a rocking couple that no counterweight can cancel (the reason some of these engines carry a balance shaft). So 50 % leaves nothing that the crank's counterweights could still correct (textbook engine balance, derived, not a maker's figure): use the engine maker's figure where it differs.`,
   ),
   fixed(
     "v6-90",
@@ -195,7 +195,7 @@ export const LAYOUT_PRESETS: readonly LayoutPreset[] = [
     6,
     2,
     { factor: "50" },
-    "DOMAIN §3: V6 cranks need bobweights. Two cylinders 90° apart on one pin: at 50 % their primary forces sum to a constant turning vector (textbook engine balance, as for the 90° V8). Even-fire cranks with split pins: use the split-crankpin V6 layout.",
+    "V6 cranks need bobweights. Two cylinders 90° apart on one pin: at 50 % their primary forces sum to a constant turning vector (textbook engine balance, as for the 90° V8). Even-fire cranks with split pins: use the split-crankpin V6 layout.",
   ),
   fixed(
     "v8-cross-plane",
@@ -203,7 +203,7 @@ export const LAYOUT_PRESETS: readonly LayoutPreset[] = [
     8,
     2,
     { factor: "50" },
-    "DOMAIN §3, common practice: 50 % for 90° V8s; textbook theory (NPTEL Dynamics of Machines, V-engine balancing): two cylinders 90° apart on one pin give a constant turning primary force at 50 %.",
+    "50 % for 90° V8s (common practice); textbook theory (NPTEL Dynamics of Machines, V-engine balancing): two cylinders 90° apart on one pin give a constant turning primary force at 50 %.",
   ),
   fixed("v8-flat-plane", "V8, flat-plane crank", 8, 2, null, NO_BOBWEIGHT),
   fixed(

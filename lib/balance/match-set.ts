@@ -2,7 +2,7 @@ import { BalanceInputError } from "./errors";
 import { Dec, out } from "./decimal";
 import { parseOptionalQuantity, parseQuantity } from "./parse";
 
-/** Default allowed spread of a finished set, in grams: "all within half a gram" (DOMAIN §2, common practice). */
+/** Default allowed spread of a finished set, in grams: "all within half a gram" (common practice). */
 export const DEFAULT_TOLERANCE_G = "0.5";
 
 /**
@@ -73,7 +73,7 @@ export function matchDecimals(
 }
 
 /**
- * Matches a set of parts of one kind (DOMAIN §2, common practice): the target is the lightest
+ * Matches a set of parts of one kind (common practice): the target is the lightest
  * part unless one is set; a part heavier than target + tolerance is machined to the target; a
  * part within the band is left alone; a part lighter than a set target is flagged `light`.
  * With `machined: false` (ring sets, wrist pins, pin retainers) a part over the band is

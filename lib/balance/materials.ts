@@ -7,7 +7,7 @@ export interface MaterialDensity {
 }
 
 /**
- * Densities for turning a mass into a hole or a plug, g/cm³ (DOMAIN §4). Typical values: a
+ * Densities for turning a mass into a hole or a plug, g/cm³ (ASM Metals Handbook Desk Edition). Typical values: a
  * given part's alloy may differ by a few percent, so the shop can set its own per material.
  *
  * @example

@@ -19,7 +19,7 @@ export interface MovedCorrection {
 
 /**
  * Moves a correction to another radius. Unbalance is mass × radius, so m₁ at r₁ equals
- * m₂ = m₁·r₁/r₂ at r₂ (DOMAIN §4).
+ * m₂ = m₁·r₁/r₂ at r₂ (geometry).
  *
  * @param input - mass (g), radius it applies at and radius wanted (mm)
  * @returns the mass at the new radius (g) and the unbalance (g·mm)

@@ -43,12 +43,12 @@ export interface PlugNetMass {
 }
 
 /**
- * Mass a cylindrical plug adds when fitted into a hole drilled for it (DOMAIN §4): the hole
+ * Mass a cylindrical plug adds when fitted into a hole drilled for it (geometry): the hole
  * removes ρ_host·V, the plug brings ρ_plug·V, so the net gain is (ρ_plug − ρ_host)·V, not
  * ρ_plug·V. V = π(D/2)²L, with 1 cm³ = 1000 mm³.
  *
  * A twist drill leaves a cone below the full-diameter depth, of length h = (D/2)·cot(α/2) for
- * a point angle α (DOMAIN §4). A flat-ended plug does not fill it, so that metal is lost with
+ * a point angle α (geometry). A flat-ended plug does not fill it, so that metal is lost with
  * nothing in its place: net = (ρ_plug − ρ_host)·V − ρ_host·π r² h / 3. Give `pointAngle` to
  * count it; without it the result is the flat-bottomed figure above.
  *

@@ -18,7 +18,7 @@ export interface SplitCorrection {
 }
 
 /**
- * Splits a correction over two holes at ±θ from the wanted angle (DOMAIN §4): their
+ * Splits a correction over two holes at ±θ from the wanted angle (geometry): their
  * components across the wanted direction cancel and along it add, so each needs m / (2 cos θ).
  *
  * @param input - the mass (g) and the half angle between the holes (degrees)

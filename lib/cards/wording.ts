@@ -1,6 +1,6 @@
 // The card's fixed wording, shared by the PDF, the job page and the public verification page.
 
-/** The cautions every balance card and verification page carries (PRODUCT.md, Cautions). */
+/** The cautions every balance card and verification page carries (the usual cautions of the trade). */
 export const CARD_CAUTIONS = [
   "Balancing figures are only as good as the scale and the balancer: this card names the scale resolution and the balancer used.",
   "A rotating assembly that fails at speed can kill. Follow the engine maker's figures, the balancing machine's instructions and local codes and licensed practice, and wear eye protection when machining.",

@@ -1,4 +1,4 @@
-/** The one error shape the web edge answers with (STYLE.md §9). */
+/** The one error shape the web edge answers with. */
 export interface ErrorBody {
   error: { code: string; message: string; fields?: Record<string, string> };
 }

@@ -76,7 +76,7 @@ async function workshop(jobId: number): Promise<Workshop> {
 }
 
 describe("the shop's oil allowance per rod", () => {
-  it("starts a fresh shop at 2 g per rod, within the 2–5 g per rod of common practice (DOMAIN §3)", async () => {
+  it("starts a fresh shop at 2 g per rod, within the 2–5 g per rod of common practice", async () => {
     signInAs(users.machinist);
     const res = await getSettings(jsonRequest("GET", "/api/settings"), noParams);
     const { settings } = await res.json();
@@ -97,7 +97,7 @@ describe("the shop's oil allowance per rod", () => {
     expect(job.spec.oilAllowancePerRod).toBe("2.5");
     await weighV8(job.id);
     const finished = (await workshop(job.id)).plan.finished!;
-    // Each pin, 50 %: 2 × 440.0 + 2 × 2.5 + 0.5 × 2 × 780.0 = 880 + 5 + 780 = 1665 (DOMAIN §3,
+    // Each pin, 50 %: 2 × 440.0 + 2 × 2.5 + 0.5 × 2 × 780.0 = 880 + 5 + 780 = 1665 (common practice,
     // worked by hand: 2 × rotating + 1 × reciprocating + 2 × oil per rod).
     expect(finished.bobweights.map((b) => [b.mass, b.oil])).toEqual(
       Array.from({ length: 4 }, () => ["1665", "5"]),

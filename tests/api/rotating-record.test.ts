@@ -95,7 +95,7 @@ describe("a flywheel balanced in one plane", () => {
       await getWorkshop(jsonRequest("GET", "/x"), params({ id: String(job.id) }))
     ).json()) as Workshop;
     const check = workshop.rotating.find((r) => r.part === "flywheel")!.check;
-    // U_per = 9549.3 × 6.3 × 12 / 6000 = 120.32 g·mm (DOMAIN §5); at 150 mm: 0.802 g.
+    // U_per = 9549.3 × 6.3 × 12 / 6000 = 120.32 g·mm (ISO 21940-11:2016); at 150 mm: 0.802 g.
     expect(check.planes).toBe("one");
     expect(Number(check.allowances[0]!.uPer)).toBeCloseTo(120.32, 2);
     expect(Number(check.allowances[0]!.massAtRadius)).toBeCloseTo(0.8021, 4);
@@ -138,7 +138,7 @@ describe("a record typed in ounces, pounds and inches", () => {
     const check = record.check;
     expect(check.units).toEqual({ mass: "oz", length: "in" });
     expect(check.radiusMm).toBe("127");
-    // U_per = 9549.3 × 6.3 × 12.020197805 / 6000 = 120.52 g·mm (DOMAIN §5); at 127 mm: 0.94899 g.
+    // U_per = 9549.3 × 6.3 × 12.020197805 / 6000 = 120.52 g·mm (ISO 21940-11:2016); at 127 mm: 0.94899 g.
     expect(Number(check.allowances[0]!.uPer)).toBeCloseTo(120.52, 1);
     expect(Number(check.allowances[0]!.massAtRadius)).toBeCloseTo(0.949, 3);
     // After: 0.010 oz = 0.28349523125 g × 127 mm = 36.00389436875 g·mm: within.

@@ -217,7 +217,7 @@ describe("targets, re-weighing and pairing", () => {
     await weigh(v8.id, 1, "piston", ["400.4"], 0, "final");
     const after = (await workshop(v8.id)).plan.finished!.bobweights[0]!;
     expect(after.cylinders).toContain(1);
-    // 50 % of the reciprocating mass counts: 0.4 g more piston → 0.2 g more bobweight (DOMAIN.md §3).
+    // 50 % of the reciprocating mass counts: 0.4 g more piston → 0.2 g more bobweight (common practice).
     expect(Number(after.mass) - Number(before)).toBeCloseTo(0.2, 9);
   });
 

@@ -190,7 +190,7 @@ describe("the correction helpers", () => {
     await user.type(drill.getByLabelText("Drill size"), "3/8");
     await user.type(drill.getByLabelText("Metal there is (mm, optional)"), "9");
     await user.click(drill.getByRole("button", { name: "Work it out" }));
-    // Hand check (DOMAIN §4): r = 4.7625 mm, V = 5 / 7.85 × 1000 = 636.94 mm³,
+    // Hand check (geometry): r = 4.7625 mm, V = 5 / 7.85 × 1000 = 636.94 mm³,
     // T = 636.94 / 71.256 + 2 × 2.8616 / 3 = 10.847 mm = 0.427 in.
     await waitFor(() =>
       expect(screen.getByTestId("helper-drill").textContent).toContain(
@@ -221,7 +221,7 @@ describe("the correction helpers", () => {
     await user.type(plug.getByLabelText("Plug size"), '1/2"');
     await user.type(plug.getByLabelText("Plug length (mm)"), "25");
     await user.click(plug.getByRole("button", { name: "Work it out" }));
-    // Worked by hand (DOMAIN §4): (18.0 − 7.85) × 3.16692 cm³ = 32.144 g, less the 118° cone's
+    // Worked by hand (geometry): (18.0 − 7.85) × 3.16692 cm³ = 32.144 g, less the 118° cone's
     // 161.11 mm³ of steel, 1.265 g: 30.88 g. Computed masses one decimal finer than 0.1 g.
     await waitFor(() =>
       expect(screen.getByTestId("helper-plug").textContent).toContain(

@@ -67,7 +67,7 @@ test("a V8 from booking in to ready to collect, weighed by keyboard only", async
   const pistons = page.getByRole("region", { name: "Piston" });
   await expect(pistons.getByRole("row").filter({ hasText: /^3/ })).toContainText("1.9");
 
-  // Bobweights worked by hand (DOMAIN.md §3: bobweight = Σ rotating + Σ oil + 50 % × Σ
+  // Bobweights worked by hand (common practice: bobweight = Σ rotating + Σ oil + 50 % × Σ
   // reciprocating), with the fresh shop's oil allowance of 2 g per rod the job was booked with.
   // Matched part by part to the lightest within 0.5 g (common practice), the finished weights are:
   //   pistons 500.1 500.4 500.1 500.1 500.1 500.1 500.1 500.5 (500.4 and 500.5 already in band)

@@ -54,7 +54,7 @@ test("a flexplate balanced in one plane, refusals beside their boxes, and the dr
   await drill.getByLabel("Mass to take out (g)").fill("5");
   await drill.getByLabel("Drill size").fill("3/8");
   await drill.getByRole("button", { name: "Work it out" }).click();
-  // DOMAIN §4: T = 636.94 / 71.256 + 2 × 2.8616 / 3 = 10.85 mm = 0.427 in.
+  // geometry: T = 636.94 / 71.256 + 2 × 2.8616 / 3 = 10.85 mm = 0.427 in.
   await expect(drill).toContainText('Drill 3/8" (9.53 mm) to 0.427 in (10.8 mm) at the tip');
   await expect(page.getByText("Wear eye protection when drilling")).toBeVisible();
 });

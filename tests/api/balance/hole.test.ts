@@ -33,7 +33,7 @@ describe("POST /api/balance/hole: drill sizes as written", () => {
       unit: "in",
     });
     expect(inch.body.tipDepth).toBe(mm.body.tipDepth);
-    // Hand check (DOMAIN §4): V = 5 / 7.85 × 1000 = 636.943 mm³, πr² = π × 4.7625² = 71.2557 mm²,
+    // Hand check (geometry): V = 5 / 7.85 × 1000 = 636.943 mm³, πr² = π × 4.7625² = 71.2557 mm²,
     // h = 4.7625 × cot 59° = 2.86160 mm; T = 636.943 / 71.2557 + 2 × 2.86160 / 3 = 8.93882 + 1.90773 = 10.8466 mm.
     expect(Number(inch.body.tipDepth)).toBeCloseTo(10.8466, 3);
   });
@@ -41,7 +41,7 @@ describe("POST /api/balance/hole: drill sizes as written", () => {
   it("keeps a bare number as millimetres, as before", async () => {
     const res = await hole({ kind: "drill", mass: "5", diameter: "10", density: "7.85" });
     expect(res.status).toBe(200);
-    // DOMAIN §4 worked example: 5 g of steel with a 10 mm drill, T = 10.1127 mm.
+    // Worked by hand: 5 g of steel with a 10 mm drill, T = 10.1127 mm.
     expect(Number(res.body.tipDepth)).toBeCloseTo(10.112675, 5);
     expect(res.body.fits).toBeNull();
   });
@@ -102,7 +102,7 @@ describe("POST /api/balance/hole: heavy-metal plug", () => {
 
 describe("POST /api/balance/hole: split and moved corrections", () => {
   it("splits over two holes at ±θ and refuses 90° with 422 naming halfAngleDeg", async () => {
-    // m / (2 cos 60°) = 10 / 1 = 10 g each (DOMAIN §4).
+    // m / (2 cos 60°) = 10 / 1 = 10 g each (geometry).
     expect((await hole({ kind: "split", mass: "10", halfAngleDeg: "60" })).body.massEach).toBe(
       "10",
     );
@@ -112,7 +112,7 @@ describe("POST /api/balance/hole: split and moved corrections", () => {
   });
 
   it("moves a correction to another radius: 12 g at 50 mm = 8 g at 75 mm", async () => {
-    // m₂ = m₁ r₁ / r₂ = 12 × 50 / 75 = 8 g (DOMAIN §4).
+    // m₂ = m₁ r₁ / r₂ = 12 × 50 / 75 = 8 g (geometry).
     expect(
       (await hole({ kind: "move", mass: "12", fromRadius: "50", toRadius: "75" })).body,
     ).toEqual({ mass: "8", unbalance: "600" });

@@ -133,7 +133,7 @@ describe("toDegreesAtdc", () => {
   });
 });
 
-describe("intakeCentreline (equal-lift method, DOMAIN §7)", () => {
+describe("intakeCentreline (equal-lift method, as cam makers publish it)", () => {
   it("puts the centreline midway and calls an earlier one advanced (worked by hand)", () => {
     // (62 + 146) / 2 = 104; card 106 − 104 = +2: the cam is 2° advanced
     expect(
@@ -270,7 +270,7 @@ describe("camCorrection (offset key, bushing or multi-keyway sprocket)", () => {
   });
 });
 
-describe("trueTdc (piston-stop method, DOMAIN §7)", () => {
+describe("trueTdc (piston-stop method, common practice)", () => {
   it("puts true TDC midway between the stops (worked by hand)", () => {
     // stops at 18 BTDC and 22 ATDC: (−18 + 22) / 2 = +2 is where the wheel reads at true TDC;
     // after correcting, each stop reads (22 + 18) / 2 = 20

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { AssemblyInputError, isAssemblyInputError, ringEndGap } from "@/lib/assembly";
 
-// Ring end gap = factor × bore (DOMAIN §7, common practice). The factors used here are
+// Ring end gap = factor × bore (common practice). The factors used here are
 // invented for the tests: real ones come from the ring maker and vary by maker and use.
 
 describe("ringEndGap", () => {

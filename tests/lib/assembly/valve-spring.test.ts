@@ -5,7 +5,7 @@ import { valveSpring } from "@/lib/assembly";
 // Reference library for the unit check: mathjs units (lbf, inch; 1 lbf = 4.4482216152605 N and
 // 1 in = 25.4 mm exactly, NIST SP 811 appendix B).
 
-// Hooke's law for a linear spring: F = k x (DOMAIN §7).
+// Hooke's law for a linear spring: F = k x.
 describe("valveSpring", () => {
   it("gives 250 lb open from 100 lb seat, 300 lb/in and 0.500 in lift (published worked example)", () => {
     const result = valveSpring({

@@ -22,10 +22,10 @@ const exact = (values: string[]) => {
  * A cross-plane V8 worked by hand (invented weights, g). Every cylinder: wrist pin 120.0,
  * retainers 2.0, ring set 40.0, small end 160.0, big end 440.0, bearing shells 50.0. Pistons
  * 500.0, 500.2, 500.4, 500.0, 500.1, 500.1, 500.3, 500.3: all within 0.5 g of the lightest
- * (500.0), so none is machined (DOMAIN §2).
+ * (500.0), so none is machined (common practice).
  *   reciprocating = piston + 120.0 + 2.0 + 40.0 + 160.0 = piston + 322.0
  *   rotating per rod = 440.0 + 50.0 = 490.0, + 2.5 oil per rod = 492.5
- * Bobweight at 50 % (DOMAIN §3: 2 × rotating + 1 × reciprocating + 2 × oil where the pistons
+ * Bobweight at 50 % (common practice: 2 × rotating + 1 × reciprocating + 2 × oil where the pistons
  * match):
  *   pin 1 (cyl. 1, 2): 2 × 490 + 2 × 2.5 + 0.5 × (822.0 + 822.2) = 980 + 5 + 822.1 = 1807.1
  *   pin 2 (cyl. 3, 4): 985 + 0.5 × (822.4 + 822.0) = 985 + 822.2 = 1807.2
@@ -51,7 +51,7 @@ const v8 = (oil: Pick<BalanceInput, "oilAllowance" | "oilAllowancePerRod">) =>
 describe("bobweight with the oil allowance per rod", () => {
   const result = v8({ oilAllowancePerRod: "2.5" });
 
-  it("adds rods on the pin × the per-rod figure: 2 × rotating + 1 × reciprocating + 2 × oil on a V8 (hand-worked, DOMAIN §3)", () => {
+  it("adds rods on the pin × the per-rod figure: 2 × rotating + 1 × reciprocating + 2 × oil on a V8 (hand-worked, common practice)", () => {
     expect(result.bobweights.map((b) => [b.crankpin, b.mass, b.oil])).toEqual([
       [1, "1807.1", "5"],
       [2, "1807.2", "5"],
@@ -110,7 +110,7 @@ describe("bobweight with the oil allowance per rod", () => {
 
 describe("bobweight on the split-pin 90° V6", () => {
   // One rod per pin, 50 %: big end 390.0 + bearing 45.0 + oil 3 + 0.5 × (402.0 + 98.0 + 150.0)
-  // = 438 + 325 = 763 on each of the six pins (DOMAIN §3 formula, worked by hand).
+  // = 438 + 325 = 763 on each of the six pins (common practice, worked by hand).
   const cylinder = (number: number): CylinderInput => ({
     number,
     piston: "402.0",

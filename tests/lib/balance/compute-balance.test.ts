@@ -10,7 +10,7 @@ import {
 /**
  * Worked by hand (invented weights, grams). Cross-plane V8, 2 rods per pin (1-2, 3-4, 5-6, 7-8),
  * tolerance 0.5 g (common practice), 50 % balance factor (common practice for 90° V8s,
- * DOMAIN §3), oil allowance 4 g per crankpin → 2 g shown on each rod.
+ * common practice), oil allowance 4 g per crankpin → 2 g shown on each rod.
  *
  *            piston  pin    ret  rings  small  big    bearing
  *   cyl 1    512.4*  140.2  2.0  38.5   180.6  520.5  30.0     * readings 512.3 / 512.5 / 512.4
@@ -222,7 +222,7 @@ describe("computeBalance: cross-plane V8 worked by hand", () => {
     ]);
   });
 
-  it("gives one bobweight per crankpin: 2 × rotating + 1 × reciprocating at 50 % (DOMAIN §3)", () => {
+  it("gives one bobweight per crankpin: 2 × rotating + 1 × reciprocating at 50 % (common practice)", () => {
     expect(result.bobweightNeeded).toBe(true);
     expect(result.balanceFactor).toBe("50");
     expect(result.bobweights).toEqual([
@@ -431,7 +431,7 @@ describe("bobweight", () => {
     expect(forFactor("50")).toBe("511.65");
   });
 
-  it("is Σ rotating + oil allowance + factor × Σ reciprocating for one crankpin (DOMAIN §3)", () => {
+  it("is Σ rotating + oil allowance + factor × Σ reciprocating for one crankpin (common practice)", () => {
     // 90° V8 pin at 50 %: 2 × 550 + 4 + 0.5 × 2 × 870 = 2 × rotating + 1 × reciprocating + oil
     expect(
       bobweightForCrankpin({
@@ -452,7 +452,7 @@ describe("bobweight", () => {
   });
 
   it.each(["inline-4", "inline-6", "v8-flat-plane", "flat-4", "flat-6", "v12"])(
-    "is not needed for the %s layout (DOMAIN §3, common practice)",
+    "is not needed for the %s layout (common practice)",
     (preset) => {
       const n = {
         "inline-4": 4,

@@ -10,7 +10,7 @@ import {
 
 describe("material densities", () => {
   it("carries the handbook values, g/cm³", () => {
-    // ASM Metals Handbook Desk Edition (DOMAIN §4): steel 7.85, grey cast iron ≈ 7.2, ductile iron ≈ 7.15.
+    // ASM Metals Handbook Desk Edition: steel 7.85, grey cast iron ≈ 7.2, ductile iron ≈ 7.15.
     expect(MATERIAL_DENSITIES.steel.density).toBe("7.85");
     expect(MATERIAL_DENSITIES.greyCastIron.density).toBe("7.2");
     expect(MATERIAL_DENSITIES.ductileIron.density).toBe("7.15");
@@ -27,7 +27,7 @@ describe("material densities", () => {
 });
 
 describe("drillDepthForMass", () => {
-  it("has a 118° point of length 0.3004 × D (DOMAIN §4, geometry)", () => {
+  it("has a 118° point of length 0.3004 × D (geometry)", () => {
     expect(DEFAULT_POINT_ANGLE_DEG).toBe("118");
     const result = drillDepthForMass({ mass: "5", diameter: "10", density: "7.85" });
     // h = (D/2)·cot 59° = 5 × 0.600861 = 3.004303 mm
@@ -104,7 +104,7 @@ describe("drillDepthForMass", () => {
 });
 
 describe("plugNetMass", () => {
-  it("adds (ρ_plug − ρ_host) × V, not ρ_plug × V (DOMAIN §4)", () => {
+  it("adds (ρ_plug − ρ_host) × V, not ρ_plug × V (geometry)", () => {
     // 12.7 mm × 25 mm: V = π × 6.35² × 25 = 3166.922 mm³ = 3.166922 cm³.
     // ASTM B777 class 3 (18.0) in steel (7.85): (18.0 − 7.85) × 3.166922 = 32.14426 g.
     const result = plugNetMass({
@@ -121,7 +121,7 @@ describe("plugNetMass", () => {
 
   it("counts the empty cone a 118° point leaves under a flat-ended ½ in plug (worked by hand)", () => {
     // ½ in = 12.7 mm (NIST SP 811), r = 6.35 mm, r² = 40.3225 mm².
-    // Point length h = r·cot 59° = 6.35 × 0.6008606 = 3.8154649 mm (DOMAIN §4: 0.3004·D).
+    // Point length h = r·cot 59° = 6.35 × 0.6008606 = 3.8154649 mm (geometry: 0.3004·D).
     // Cone V = π r² h / 3 = 126.67687 × 3.8154649 / 3 = 161.11038 mm³.
     // Its steel (7.85 g/cm³): 161.11038 × 7.85 / 1000 = 1.2647165 g, nothing in its place.
     // Net = 32.1442557 − 1.2647165 = 30.8795392 g: 1.26 g less, 3.9 % of the flat figure.
@@ -200,7 +200,7 @@ describe("plugNetMass", () => {
 });
 
 describe("moveCorrection", () => {
-  it("keeps the unbalance m·r: m₂ = m₁ r₁ / r₂ (DOMAIN §4)", () => {
+  it("keeps the unbalance m·r: m₂ = m₁ r₁ / r₂ (geometry)", () => {
     expect(moveCorrection({ mass: "12", fromRadius: "50", toRadius: "75" })).toEqual({
       mass: "8",
       unbalance: "600",
@@ -216,7 +216,7 @@ describe("moveCorrection", () => {
 });
 
 describe("splitCorrection", () => {
-  it("needs m / (2 cos θ) in each of two holes at ±θ (DOMAIN §4)", () => {
+  it("needs m / (2 cos θ) in each of two holes at ±θ (geometry)", () => {
     expect(splitCorrection({ mass: "10", halfAngleDeg: "0" }).massEach).toBe("5");
     expect(splitCorrection({ mass: "10", halfAngleDeg: "60" })).toEqual({
       massEach: "10",

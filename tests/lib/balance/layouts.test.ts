@@ -115,7 +115,7 @@ describe("layout presets: narrow V-twins", () => {
     }
   });
 
-  it("start within the 55–65 % quoted for narrow V-twins (DOMAIN §3, common practice) and say so", () => {
+  it("start within the 55–65 % quoted for narrow V-twins (common practice) and say so", () => {
     const narrow = fixed("v-twin-narrow");
     const [low, high] = (narrow.balanceFactorRange ?? ["0", "0"]).map(Number) as [number, number];
     expect([low, high]).toEqual([55, 65]);
@@ -205,18 +205,18 @@ describe("layout presets: the even-fire 90° V6 with split crankpins", () => {
 });
 
 describe("layout presets: the rest", () => {
-  it("needs no bobweight where the throws cancel: in-line 4 and 6, flat-plane V8, flat 4 and 6 (DOMAIN §3, common practice)", () => {
+  it("needs no bobweight where the throws cancel: in-line 4 and 6, flat-plane V8, flat 4 and 6 (common practice)", () => {
     for (const id of ["inline-4", "inline-6", "v8-flat-plane", "flat-4", "flat-6", "v12"]) {
       expect(fixed(id)).toMatchObject({ bobweightNeeded: false, defaultBalanceFactor: null });
     }
   });
 
-  it("uses the 90° V-twin's factor for the cross-plane V8, whose pins carry the same 90° pair (DOMAIN §3)", () => {
+  it("uses the 90° V-twin's factor for the cross-plane V8, whose pins carry the same 90° pair (common practice)", () => {
     expect(fixed("v8-cross-plane")).toMatchObject({ bobweightNeeded: true, rodsPerPin: 2 });
     expect(factorOf("v8-cross-plane")).toBeCloseTo(abs(split(vTwin(90)).withCrank) / 2, 12);
   });
 
-  it("starts singles within the 50–60 % quoted in the trade (DOMAIN §3, common practice)", () => {
+  it("starts singles within the 50–60 % quoted in the trade (common practice)", () => {
     const single = fixed("single");
     expect(single.balanceFactorRange).toEqual(["50", "60"]);
     expect(Number(single.defaultBalanceFactor)).toBeGreaterThanOrEqual(50);

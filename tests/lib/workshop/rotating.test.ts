@@ -33,7 +33,7 @@ describe("single-plane records (flexplate, flywheel, clutch cover, damper)", () 
     // ISO 21940-11 check value: G 6.3 at 3000 rpm, Ω = 2π·3000/60 = 314.159 rad/s,
     // e_per = 6.3 / 314.159 × 1000 = 20.05 g·mm/kg.
     expect(Number(check.permissible!.ePer)).toBeCloseTo(20.05, 2);
-    // U_per = 9549.3 × G × m / n = 9549.3 × 6.3 × 10 / 3000 = 200.535 g·mm (DOMAIN §5), all in one plane.
+    // U_per = 9549.3 × G × m / n = 9549.3 × 6.3 × 10 / 3000 = 200.535 g·mm (ISO 21940-11:2016), all in one plane.
     expect(check.allowances).toHaveLength(1);
     expect(Number(check.allowances[0]!.uPer)).toBeCloseTo(200.535, 2);
     // As grams at the balancer radius: 200.535 / 100 = 2.005 g.
