@@ -4,48 +4,11 @@ import { cleanup, render, screen, waitFor } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import { WeighGrid } from "@/components/workshop/weigh-grid";
-import { DEFAULT_SPEC, type Job } from "@/db/jobs";
 import type { Workshop } from "@/lib/workshop/load";
+import { emptyPlan, emptyTwinWorkshop, twinJob } from "./support/twin-workshop";
 
-const job: Job = {
-  id: 7,
-  number: "2026-0007",
-  customerId: 1,
-  customerName: "Odile Farrant",
-  engine: "test twin",
-  status: "weighing",
-  notes: null,
-  version: 1,
-  createdAt: "2026-12-01T00:00:00Z",
-  updatedAt: "2026-12-01T00:00:00Z",
-  spec: { ...DEFAULT_SPEC, layout: "parallel-twin-360", cylinders: 2 },
-};
-
-const emptyPlan = {
-  complete: false,
-  missing: [],
-  removal: null,
-  finished: null,
-  reweighed: 0,
-  matching: "by-part" as const,
-  totalRemoved: null,
-  progress: {},
-  assemblies: {},
-  overMachined: [],
-  retarget: [],
-  pairing: null,
-  error: null,
-  held: [],
-};
-const initial: Workshop = {
-  job,
-  weights: [],
-  targets: [],
-  rotating: [],
-  plan: emptyPlan,
-  lastPairing: null,
-  outlierPercent: "5",
-};
+const job = twinJob;
+const initial = emptyTwinWorkshop;
 
 type Call = { method: string; url: string; body: Record<string, unknown> | null };
 let calls: Call[];
