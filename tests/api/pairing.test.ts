@@ -4,7 +4,6 @@ import { POST as undoPairing } from "@/app/api/jobs/[id]/pairing/undo/route";
 import { PATCH as patchJob } from "@/app/api/jobs/[id]/route";
 import { PUT as putWeight } from "@/app/api/jobs/[id]/weights/route";
 import { GET as getWorkshop } from "@/app/api/jobs/[id]/workshop/route";
-import { POST as postJob } from "@/app/api/jobs/route";
 import { describeChange } from "@/components/jobs/change-sentences";
 import { listJobChanges } from "@/db/audit";
 import type { DB } from "@/db/client";
@@ -13,8 +12,9 @@ import type { PartKind, Role } from "@/db/schema";
 import type { User } from "@/db/users";
 import type { Workshop } from "@/lib/workshop/load";
 import { addOneOfEachRole, countRows, freshDb } from "../helpers/db";
-import { jsonRequest, noParams, params } from "../helpers/http";
+import { jsonRequest, params } from "../helpers/http";
 import { signInAs } from "../helpers/session";
+import { bookFourMatchedByCylinder } from "./support/four-by-cylinder";
 
 let db: DB;
 let users: Record<Role, User>;
@@ -47,23 +47,7 @@ const undo = (body: unknown) => undoPairing(jsonRequest("POST", "/x", body), id(
 beforeEach(async () => {
   db = await freshDb();
   users = await addOneOfEachRole(db);
-  signInAs(users.counter);
-  const res = await postJob(
-    jsonRequest("POST", "/api/jobs", {
-      customerId: users.customer.customerId,
-      engine: "test four",
-      spec: { layout: "inline-4", cylinders: 4 },
-    }),
-    noParams,
-  );
-  job = (await res.json()).job;
-  signInAs(users.machinist);
-  const patched = await patchJob(
-    jsonRequest("PATCH", "/x", { version: job.version, spec: { matching: "by-cylinder" } }),
-    id(),
-  );
-  expect(patched.status).toBe(200);
-  job = (await patched.json()).job;
+  job = await bookFourMatchedByCylinder(users);
   for (const [kind, values] of Object.entries(FOUR))
     for (const [i, v] of values.entries()) {
       const write = { cylinder: i + 1, kind: kind as PartKind, phase: "initial", readings: [v] };

@@ -1,8 +1,6 @@
 import { beforeEach, describe, expect, it } from "vitest";
-import { PATCH as patchJob } from "@/app/api/jobs/[id]/route";
 import { PUT as putWeight } from "@/app/api/jobs/[id]/weights/route";
 import { GET as getWorkshop } from "@/app/api/jobs/[id]/workshop/route";
-import { POST as postJob } from "@/app/api/jobs/route";
 import type { DB } from "@/db/client";
 import type { Job } from "@/db/jobs";
 import type { PartKind, Role } from "@/db/schema";
@@ -10,8 +8,8 @@ import type { User } from "@/db/users";
 import type { Workshop } from "@/lib/workshop/load";
 import type { WorkshopPlan } from "@/lib/workshop/plan";
 import { addOneOfEachRole, freshDb } from "../helpers/db";
-import { jsonRequest, noParams, params } from "../helpers/http";
-import { signInAs } from "../helpers/session";
+import { jsonRequest, params } from "../helpers/http";
+import { bookFourMatchedByCylinder } from "./support/four-by-cylinder";
 
 let db: DB;
 let users: Record<Role, User>;
@@ -39,22 +37,7 @@ async function workshop(): Promise<Workshop> {
 beforeEach(async () => {
   db = await freshDb();
   users = await addOneOfEachRole(db);
-  signInAs(users.counter);
-  const res = await postJob(
-    jsonRequest("POST", "/api/jobs", {
-      customerId: users.customer.customerId,
-      engine: "test four",
-      spec: { layout: "inline-4", cylinders: 4 },
-    }),
-    noParams,
-  );
-  job = (await res.json()).job;
-  signInAs(users.machinist);
-  const patched = await patchJob(
-    jsonRequest("PATCH", "/x", { version: job.version, spec: { matching: "by-cylinder" } }),
-    id(),
-  );
-  job = (await patched.json()).job;
+  job = await bookFourMatchedByCylinder(users);
   // Everything but cylinder 4's big end: the last save completes the set.
   for (const [kind, values] of Object.entries(FOUR))
     for (const [i, v] of values.entries()) {
