@@ -53,14 +53,18 @@ export async function findQuoteById(db: Db, id: number): Promise<Quote | undefin
   return toQuote(row, await listDocumentLines(db, "quote", id));
 }
 
-/** A job's quotes, newest first; drafts left out unless asked for (customers never see them). */
+/**
+ * A job's quotes, newest first; drafts and withdrawn quotes left out unless asked for (customers
+ * see neither).
+ */
 export async function listQuotesForJob(
   db: Db,
   jobId: number,
-  query: { includeDrafts?: boolean } = {},
+  query: { includeDrafts?: boolean; includeWithdrawn?: boolean } = {},
 ): Promise<Quote[]> {
   let q = db.selectFrom("quotes").select("id").where("job_id", "=", jobId);
   if (!query.includeDrafts) q = q.where("status", "!=", "draft");
+  if (!query.includeWithdrawn) q = q.where("status", "!=", "withdrawn");
   const ids = await q.orderBy("id", "desc").execute();
   const quotes = await Promise.all(ids.map((r) => findQuoteById(db, r.id)));
   return quotes.filter((x): x is Quote => x !== undefined);

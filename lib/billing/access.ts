@@ -22,21 +22,26 @@ export async function findInvoiceForUser(db: DB, id: number, user: User): Promis
   return invoice;
 }
 
-/** The quote if this user may see it; a customer never sees drafts or other customers' quotes. */
+/**
+ * The quote if this user may see it. A customer sees offered and accepted quotes on their own
+ * jobs; a draft, a withdrawn quote or another customer's answers the same 404 as a missing one.
+ */
 export async function findQuoteForUser(db: DB, id: number, user: User): Promise<Quote> {
   const quote = await findQuoteById(db, id);
   if (!quote) throw new HttpError(404, "not_found", "No such quote.");
   if (user.role === "customer") {
     const job = await findJobForUser(db, quote.jobId, user).catch(() => undefined);
-    if (!job || quote.status === "draft") throw new HttpError(404, "not_found", "No such quote.");
+    if (!job || quote.status === "draft" || quote.status === "withdrawn")
+      throw new HttpError(404, "not_found", "No such quote.");
   }
   return quote;
 }
 
-/** A job's quotes as this user may see them: customers only their own jobs', never drafts. */
+/** A job's quotes as this user may see them: customers only their own jobs', never drafts or withdrawn ones. */
 export async function listQuotesForUser(db: DB, jobId: number, user: User): Promise<Quote[]> {
   await findJobForUser(db, jobId, user);
-  return listQuotesForJob(db, jobId, { includeDrafts: user.role !== "customer" });
+  const shop = user.role !== "customer";
+  return listQuotesForJob(db, jobId, { includeDrafts: shop, includeWithdrawn: shop });
 }
 
 /** Payments on an invoice this user may see. */

@@ -59,6 +59,22 @@ describe("the job's billing page", () => {
     expect(html).not.toContain("Record payment");
   });
 
+  it("does not show the customer a quote the shop withdrew", async () => {
+    const quote = await createQuote(
+      db,
+      { jobId: w.job.id, lines: [{ priceItemId: w.prices.balance.id, quantity: "1" }] },
+      null,
+    );
+    await moveQuote(db, quote.id, "offer", null);
+    await moveQuote(db, quote.id, "withdraw", null);
+    signInAs(w.users.customer);
+    const html = await billingPage(w.job.id);
+    expect(html).not.toContain(quote.number);
+    expect(html).toContain("The shop has not sent a quote for this job yet.");
+    signInAs(w.users.counter);
+    expect(await billingPage(w.job.id)).toContain(quote.number);
+  });
+
   it("is not found for another customer's job", async () => {
     signInAs(w.otherCustomer);
     await expect(billingPage(w.job.id)).rejects.toThrow(/NEXT_HTTP_ERROR_FALLBACK;404/);

@@ -12,6 +12,7 @@ import { GET as pdfRoute } from "@/app/api/invoices/[id]/pdf/route";
 import { PATCH as patchPrice } from "@/app/api/prices/[id]/route";
 import { POST as acceptRoute } from "@/app/api/quotes/[id]/accept/route";
 import { POST as offerRoute } from "@/app/api/quotes/[id]/offer/route";
+import { POST as withdrawRoute } from "@/app/api/quotes/[id]/withdraw/route";
 import { GET as getQuote, PUT as putQuoteLines } from "@/app/api/quotes/[id]/route";
 import { GET as listQuotesRoute, POST as createQuoteRoute } from "@/app/api/quotes/route";
 import type { DB } from "@/db/client";
@@ -156,6 +157,23 @@ describe("quotes", () => {
     expect(
       (await listQuotesRoute(jsonRequest("GET", `/api/quotes?jobId=${w.job.id}`), noParams)).status,
     ).toBe(404);
+  });
+
+  it("are hidden from the customer once withdrawn (404 as for a draft), still listed for the shop", async () => {
+    const quote = await offeredQuote();
+    expect((await withdrawRoute(post("/x"), id(quote.id))).status).toBe(200);
+    const listFor = async () =>
+      (await (
+        await listQuotesRoute(jsonRequest("GET", `/api/quotes?jobId=${w.job.id}`), noParams)
+      ).json()) as { quotes: { id: number; status: string }[] };
+    expect((await listFor()).quotes).toMatchObject([{ id: quote.id, status: "withdrawn" }]);
+    expect((await getQuote(jsonRequest("GET", "/x"), id(quote.id))).status).toBe(200);
+    signInAs(w.users.customer);
+    expect((await listFor()).quotes).toEqual([]);
+    const byId = await getQuote(jsonRequest("GET", "/x"), id(quote.id));
+    expect(byId.status).toBe(404);
+    expect((await byId.json()).error.code).toBe("not_found");
+    expect((await acceptRoute(post("/x"), id(quote.id))).status).toBe(404);
   });
 
   it("may have acceptance recorded by the counter, even before being offered", async () => {
