@@ -135,6 +135,35 @@ export interface PaymentSessionTable {
   >;
   created_by: number | null;
   created_at: ColumnType<string, string | undefined, never>;
+  /** The provider's payment page, offered again while the session is open. */
+  url: ColumnType<string | null, string | null | undefined, string | null>;
+  /** When the provider closes the page (ISO 8601). */
+  expires_at: ColumnType<string | null, string | null | undefined, string | null>;
+}
+
+export type UnappliedPaymentStatus = "open" | "applied" | "refunded";
+
+/** An online payment received and not put on an invoice, until it is applied or refunded. */
+export interface UnappliedPaymentTable {
+  id: Generated<number>;
+  event_id: string;
+  session_id: string;
+  invoice_id: number | null;
+  amount: string;
+  currency: string;
+  reason: string;
+  reference: string | null;
+  status: ColumnType<
+    UnappliedPaymentStatus,
+    UnappliedPaymentStatus | undefined,
+    UnappliedPaymentStatus
+  >;
+  note: string | null;
+  payment_id: number | null;
+  resolved_by: number | null;
+  resolved_at: string | null;
+  received_at: string;
+  version: ColumnType<number, number | undefined, number>;
 }
 
 export interface PaymentTable {
@@ -172,6 +201,7 @@ export interface BillingTables {
   payment_sessions: PaymentSessionTable;
   payments: PaymentTable;
   payment_events: PaymentEventTable;
+  unapplied_payments: UnappliedPaymentTable;
 }
 
 export type ShopSettingsRow = Selectable<ShopSettingsTable>;
@@ -184,3 +214,4 @@ export type InvoiceLineRow = Selectable<InvoiceLineTable>;
 export type PaymentRow = Selectable<PaymentTable>;
 export type PaymentSessionRow = Selectable<PaymentSessionTable>;
 export type PaymentEventRow = Selectable<PaymentEventTable>;
+export type UnappliedPaymentRow = Selectable<UnappliedPaymentTable>;

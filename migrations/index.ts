@@ -21,6 +21,7 @@ import * as m0191 from "./20261202_0191_add_sender_to_mail_log";
 import * as m0200 from "./20261202_0200_add_session_version_to_users";
 import * as m0201 from "./20261202_0201_create_ended_sessions";
 import * as m0202 from "./20261202_0202_create_rate_limits";
+import * as m0250 from "./20261202_0250_add_payment_reconciliation";
 
 // A static map of the same files, for tests and for code running inside Next (which cannot read
 // the folder at run time). `scripts/migrate.ts` reads the folder itself. Add each new file here.
@@ -47,4 +48,5 @@ export const migrations: Record<string, Migration> = {
   "20261202_0200_add_session_version_to_users": m0200,
   "20261202_0201_create_ended_sessions": m0201,
   "20261202_0202_create_rate_limits": m0202,
+  "20261202_0250_add_payment_reconciliation": m0250,
 };

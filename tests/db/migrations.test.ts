@@ -53,6 +53,7 @@ describe(`migrations (${testEngine()})`, () => {
       "shop_logo",
       "shop_settings",
       "sign_in_failures",
+      "unapplied_payments",
       "uploads",
       "users",
     ]);

@@ -1,11 +1,11 @@
 import { getDb } from "@/db/client";
 import { createCustomer, listCustomers } from "@/db/customers";
-import { requireApiUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { json, parseJson, route } from "@/lib/http/route";
 import { customerSchema, listQuerySchema } from "@/lib/validation/customers";
 
 export const GET = route(async (req) => {
-  await requireApiUser(SHOP_ROLES);
+  await requireApiPermission("read-customers");
   const query = listQuerySchema.parse(Object.fromEntries(new URL(req.url).searchParams));
   const { customers, total } = await listCustomers(getDb(), {
     search: query.search,
@@ -16,7 +16,7 @@ export const GET = route(async (req) => {
 });
 
 export const POST = route(async (req) => {
-  const actor = await requireApiUser(["owner", "counter"]);
+  const actor = await requireApiPermission("manage-customers");
   const input = await parseJson(req, customerSchema);
   return json({ customer: await createCustomer(getDb(), input, actor.id) }, 201);
 });

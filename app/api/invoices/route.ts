@@ -1,13 +1,13 @@
 import { getDb } from "@/db/client";
 import { listInvoices } from "@/db/invoices";
-import { requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { createInvoice } from "@/lib/billing/invoices";
 import { json, parseJson, route } from "@/lib/http/route";
 import { customerScope } from "@/lib/jobs/access";
 import { invoiceListQuerySchema, newInvoiceSchema } from "@/lib/validation/billing";
 
 export const GET = route(async (req) => {
-  const user = await requireApiUser(["owner", "counter", "customer"]);
+  const user = await requireApiPermission("list-invoices");
   const query = invoiceListQuerySchema.parse(Object.fromEntries(new URL(req.url).searchParams));
   const customerId = customerScope(user);
   const { invoices, total } = await listInvoices(getDb(), {
@@ -23,7 +23,7 @@ export const GET = route(async (req) => {
 
 /** A draft invoice: `{ jobId, quoteId }` from an accepted quote, or `{ jobId, lines }`. */
 export const POST = route(async (req) => {
-  const actor = await requireApiUser(["owner", "counter"]);
+  const actor = await requireApiPermission("write-invoices");
   const input = await parseJson(req, newInvoiceSchema);
   return json({ invoice: await createInvoice(getDb(), input, actor.id) }, 201);
 });

@@ -1,6 +1,6 @@
 import { getDb } from "@/db/client";
 import { listJobs } from "@/db/jobs";
-import { ALL_ROLES, requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { customerScope } from "@/lib/jobs/access";
 import { bookJob } from "@/lib/jobs/settings";
 import { json, parseJson, route } from "@/lib/http/route";
@@ -8,7 +8,7 @@ import { jobListQuerySchema } from "@/lib/validation/jobs";
 import { bookingSchema } from "@/lib/validation/workshop";
 
 export const GET = route(async (req) => {
-  const user = await requireApiUser(ALL_ROLES);
+  const user = await requireApiPermission("list-jobs");
   const query = jobListQuerySchema.parse(Object.fromEntries(new URL(req.url).searchParams));
   const { jobs, total } = await listJobs(getDb(), {
     customerId: customerScope(user) ?? query.customerId,
@@ -22,7 +22,7 @@ export const GET = route(async (req) => {
 });
 
 export const POST = route(async (req) => {
-  const actor = await requireApiUser(["owner", "counter"]);
+  const actor = await requireApiPermission("book-job");
   const input = await parseJson(req, bookingSchema);
   return json(await bookJob(getDb(), input, actor.id), 201);
 });

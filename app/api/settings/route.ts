@@ -1,16 +1,16 @@
 import { getDb } from "@/db/client";
 import { findShopSettings, updateShopSettings } from "@/db/settings";
-import { requireApiUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { json, parseJson, route } from "@/lib/http/route";
 import { settingsSchema } from "@/lib/validation/billing";
 
 export const GET = route(async () => {
-  await requireApiUser(SHOP_ROLES);
+  await requireApiPermission("read-shop-setup");
   return json({ settings: await findShopSettings(getDb()) });
 });
 
 export const PUT = route(async (req) => {
-  const actor = await requireApiUser(["owner"]);
+  const actor = await requireApiPermission("manage-settings");
   const { version, ...input } = await parseJson(req, settingsSchema);
   return json({ settings: await updateShopSettings(getDb(), version, input, actor.id) });
 });

@@ -1,11 +1,11 @@
 import { checkResidual, permissibleUnbalance } from "@/lib/balance";
-import { ALL_ROLES, requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { json, parseJson, route } from "@/lib/http/route";
 import { crankRequestSchema } from "@/lib/validation/balance";
 
 /** Permissible residual unbalance per plane (ISO 21940-11), and pass/fail for readings if given. */
 export const POST = route(async (req) => {
-  await requireApiUser(ALL_ROLES);
+  await requireApiPermission("use-calculators");
   const { readings, ...input } = await parseJson(req, crankRequestSchema);
   const permissible = permissibleUnbalance(input);
   const check = readings

@@ -1,4 +1,4 @@
-import { ALL_ROLES, requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { json, parseJson, route } from "@/lib/http/route";
 import { holeRequestSchema } from "@/lib/validation/balance";
 import { workOutHole } from "@/lib/workshop/hole-helpers";
@@ -8,6 +8,6 @@ import { workOutHole } from "@/lib/workshop/hole-helpers";
  * sizes come as written ("8.5", "3/8", "#21", "F"); a bare number is mm.
  */
 export const POST = route(async (req) => {
-  await requireApiUser(ALL_ROLES);
+  await requireApiPermission("use-calculators");
   return json(workOutHole(await parseJson(req, holeRequestSchema)));
 });

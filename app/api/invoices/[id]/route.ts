@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { findInvoiceForUser } from "@/lib/billing/access";
 import { deleteDraftInvoice, replaceInvoiceLines } from "@/lib/billing/invoices";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
@@ -8,13 +8,13 @@ import { documentLinesSchema } from "@/lib/validation/billing";
 type Params = { id: string };
 
 export const GET = route<Params>(async (_req, { params }) => {
-  const user = await requireApiUser(["owner", "counter", "customer"]);
+  const user = await requireApiPermission("read-invoice");
   return json({ invoice: await findInvoiceForUser(getDb(), parseId((await params).id), user) });
 });
 
 /** Replaces a draft invoice's lines: `{ version, lines }` as for quotes. */
 export const PUT = route<Params>(async (req, { params }) => {
-  const actor = await requireApiUser(["owner", "counter"]);
+  const actor = await requireApiPermission("write-invoices");
   const id = parseId((await params).id);
   const { version, lines } = await parseJson(req, documentLinesSchema);
   return json({ invoice: await replaceInvoiceLines(getDb(), id, version, lines, actor.id) });
@@ -22,7 +22,7 @@ export const PUT = route<Params>(async (req, { params }) => {
 
 /** Only a draft can be thrown away; an issued invoice is voided instead. */
 export const DELETE = route<Params>(async (_req, { params }) => {
-  const actor = await requireApiUser(["owner", "counter"]);
+  const actor = await requireApiPermission("write-invoices");
   await deleteDraftInvoice(getDb(), parseId((await params).id), actor.id);
   return new Response(null, { status: 204 });
 });

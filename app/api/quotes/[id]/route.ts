@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { findQuoteForUser } from "@/lib/billing/access";
 import { replaceQuoteLines } from "@/lib/billing/quotes";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
@@ -8,13 +8,13 @@ import { documentLinesSchema } from "@/lib/validation/billing";
 type Params = { id: string };
 
 export const GET = route<Params>(async (_req, { params }) => {
-  const user = await requireApiUser(["owner", "counter", "customer"]);
+  const user = await requireApiPermission("read-quote");
   return json({ quote: await findQuoteForUser(getDb(), parseId((await params).id), user) });
 });
 
 /** Replaces a draft quote's lines: `{ version, lines: [{ priceItemId | lineId, quantity, description? }] }`. */
 export const PUT = route<Params>(async (req, { params }) => {
-  const actor = await requireApiUser(["owner", "counter"]);
+  const actor = await requireApiPermission("write-quotes");
   const id = parseId((await params).id);
   const { version, lines } = await parseJson(req, documentLinesSchema);
   return json({ quote: await replaceQuoteLines(getDb(), id, version, lines, actor.id) });

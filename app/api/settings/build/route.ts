@@ -1,18 +1,18 @@
 import { getDb } from "@/db/client";
-import { requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { loadBuildSettings, saveSettings } from "@/lib/build-record/record";
 import { buildSettingsWriteSchema } from "@/lib/build-record/settings-schema";
 import { json, parseJson, route } from "@/lib/http/route";
 
 /** The shop's build settings: ring gap factors, coil-bind margin, clearance window, cam lift. */
 export const GET = route(async () => {
-  await requireApiUser(["owner", "machinist", "counter"]);
+  await requireApiPermission("read-shop-setup");
   return json(await loadBuildSettings(getDb()));
 });
 
 /** Saves the shop's build settings (owner), with the version read (0 when never saved). */
 export const PUT = route(async (req) => {
-  const user = await requireApiUser(["owner"]);
+  const user = await requireApiPermission("manage-settings");
   const write = await parseJson(req, buildSettingsWriteSchema);
   return json(await saveSettings(getDb(), write, user));
 });

@@ -1,6 +1,6 @@
 import { getDb } from "@/db/client";
 import { deleteShopLogo, findShopLogo } from "@/db/cards";
-import { requireApiUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { imageResponse } from "@/lib/cards/http";
 import { describeLogo, LOGO_MAX_BYTES, saveLogoUpload } from "@/lib/cards/logo";
 import { HttpError } from "@/lib/http/errors";
@@ -10,7 +10,7 @@ import { logoFormSchema } from "@/lib/validation/cards";
 
 /** The logo printed on balance cards, as an image. */
 export const GET = route(async () => {
-  await requireApiUser(SHOP_ROLES);
+  await requireApiPermission("read-shop-setup");
   const logo = await findShopLogo(getDb());
   if (!logo) throw new HttpError(404, "not_found", "The shop has no logo yet.");
   return imageResponse(logo.content, logo.contentType, logo.sha256);
@@ -23,7 +23,7 @@ const LOGO_UPLOAD = {
 
 /** The owner uploads a new logo (multipart field `file`: PNG or JPEG, at most 2 MB). */
 export const PUT = route(LOGO_UPLOAD, async (req) => {
-  const user = await requireApiUser(["owner"]);
+  const user = await requireApiPermission("manage-settings");
   const form = await readUploadForm(req, LOGO_MAX_BYTES);
   const { file } = logoFormSchema.parse({ file: form.get("file") });
   return json({ logo: describeLogo(await saveLogoUpload(getDb(), file, user)) });
@@ -31,7 +31,7 @@ export const PUT = route(LOGO_UPLOAD, async (req) => {
 
 /** The owner removes the logo; cards issued from now on carry the shop's name only. */
 export const DELETE = route(async () => {
-  const user = await requireApiUser(["owner"]);
+  const user = await requireApiPermission("manage-settings");
   await deleteShopLogo(getDb(), user.id);
   return json({ logo: describeLogo(undefined) });
 });

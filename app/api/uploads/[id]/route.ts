@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { ALL_ROLES, requireApiUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { json, parseId, route } from "@/lib/http/route";
 import { findUploadForUser } from "@/lib/uploads/access";
 import { removeJobUpload } from "@/lib/uploads/save";
@@ -9,7 +9,7 @@ import { uploadReadQuerySchema } from "@/lib/validation/uploads";
 type Params = { id: string };
 
 export const GET = route<Params>(async (req, { params }) => {
-  const user = await requireApiUser(ALL_ROLES);
+  const user = await requireApiPermission("read-upload");
   const id = parseId((await params).id);
   const { download } = uploadReadQuerySchema.parse(
     Object.fromEntries(new URL(req.url).searchParams),
@@ -23,7 +23,7 @@ export const GET = route<Params>(async (req, { params }) => {
 });
 
 export const DELETE = route<Params>(async (_req, { params }) => {
-  const actor = await requireApiUser(SHOP_ROLES);
+  const actor = await requireApiPermission("manage-uploads");
   const id = parseId((await params).id);
   return json({ upload: await removeJobUpload(getDb(), id, actor) });
 });

@@ -1,6 +1,6 @@
 import { tellPaymentReceived } from "@/lib/mail/events";
 import { getDb } from "@/db/client";
-import { requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { listPaymentsForUser } from "@/lib/billing/access";
 import { recordManualPayment } from "@/lib/billing/payments";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
@@ -9,13 +9,13 @@ import { manualPaymentSchema } from "@/lib/validation/billing";
 type Params = { id: string };
 
 export const GET = route<Params>(async (_req, { params }) => {
-  const user = await requireApiUser(["owner", "counter", "customer"]);
+  const user = await requireApiPermission("read-invoice");
   return json({ payments: await listPaymentsForUser(getDb(), parseId((await params).id), user) });
 });
 
 /** Money taken at the counter: `{ method: "cash" | "bank-transfer" | "card-in-shop", amount, reference? }`. */
 export const POST = route<Params>(async (req, { params }) => {
-  const actor = await requireApiUser(["owner", "counter"]);
+  const actor = await requireApiPermission("record-payment");
   const id = parseId((await params).id);
   const input = await parseJson(req, manualPaymentSchema);
   const recorded = await recordManualPayment(getDb(), id, input, actor.id);

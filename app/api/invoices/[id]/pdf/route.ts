@@ -1,10 +1,10 @@
 import { getDb } from "@/db/client";
-import { requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { buildInvoicePdf } from "@/lib/billing/invoice-pdf";
 import { parseId, route } from "@/lib/http/route";
 
 export const GET = route<{ id: string }>(async (req, { params }) => {
-  const user = await requireApiUser(["owner", "counter", "customer"]);
+  const user = await requireApiPermission("read-invoice");
   const { filename, pdf } = await buildInvoicePdf(getDb(), parseId((await params).id), user);
   const disposition =
     new URL(req.url).searchParams.get("download") === "1" ? "attachment" : "inline";

@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { ALL_ROLES, requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { buildRecordFor } from "@/lib/build-record/record";
 import { json, parseId, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
@@ -11,7 +11,7 @@ type Params = { id: string };
  * customer, null until the job is ready.
  */
 export const GET = route<Params>(async (_req, { params }) => {
-  const user = await requireApiUser(ALL_ROLES);
+  const user = await requireApiPermission("read-job");
   const job = await findJobForUser(getDb(), parseId((await params).id), user);
   return json(await buildRecordFor(getDb(), job, user));
 });

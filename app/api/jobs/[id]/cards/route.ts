@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { ALL_ROLES, requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { readIssueRequest } from "@/lib/cards/http";
 import { issueCard } from "@/lib/cards/issue";
 import { listJobCards } from "@/lib/cards/list";
@@ -10,14 +10,14 @@ type Params = { id: string };
 
 /** Every revision of the job's balance card, newest first. */
 export const GET = route<Params>(async (_req, { params }) => {
-  const user = await requireApiUser(ALL_ROLES);
+  const user = await requireApiPermission("read-job");
   const jobId = parseId((await params).id);
   return json({ cards: await listJobCards(getDb(), jobId, user) });
 });
 
 /** Issues the next revision (machinist or owner). Body or `?pageSize=`: "A4" or "Letter". */
 export const POST = route<Params>(async (req, { params }) => {
-  const user = await requireApiUser(["machinist", "owner"]);
+  const user = await requireApiPermission("issue-card");
   const jobId = parseId((await params).id);
   const input = issueCardSchema.parse(await readIssueRequest(req));
   return json({ card: await issueCard(getDb(), jobId, user, input) }, 201);

@@ -1,6 +1,6 @@
 import { getDb } from "@/db/client";
 import { applyPairing } from "@/db/pairing";
-import { requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
 import { pairingApplySchema } from "@/lib/validation/workshop";
@@ -11,7 +11,7 @@ import { loadWorkshop } from "@/lib/workshop/load";
  * the job's change history (undo with POST …/pairing/undo). Answers the new bench record.
  */
 export const POST = route<{ id: string }>(async (req, { params }) => {
-  const user = await requireApiUser(["machinist", "owner"]);
+  const user = await requireApiPermission("weigh");
   const db = getDb();
   const job = await findJobForUser(db, parseId((await params).id), user);
   const { assignment, lastPairingId } = await parseJson(req, pairingApplySchema);

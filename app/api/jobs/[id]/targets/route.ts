@@ -1,6 +1,6 @@
 import { getDb } from "@/db/client";
 import { savePartTarget } from "@/db/weights";
-import { requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
 import { targetWriteSchema } from "@/lib/validation/workshop";
@@ -8,7 +8,7 @@ import { loadWorkshop } from "@/lib/workshop/load";
 
 /** Sets the target for one kind of part, or clears it back to the lightest (null). */
 export const PUT = route<{ id: string }>(async (req, { params }) => {
-  const user = await requireApiUser(["machinist", "owner"]);
+  const user = await requireApiPermission("weigh");
   const db = getDb();
   const job = await findJobForUser(db, parseId((await params).id), user);
   const { version, ...write } = await parseJson(req, targetWriteSchema);

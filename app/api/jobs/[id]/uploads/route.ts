@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { ALL_ROLES, requireApiUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { json, parseId, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
 import { uploadLimitBytes } from "@/lib/uploads/limits";
@@ -10,7 +10,7 @@ import { uploadFormSchema } from "@/lib/validation/uploads";
 type Params = { id: string };
 
 export const GET = route<Params>(async (_req, { params }) => {
-  const user = await requireApiUser(ALL_ROLES);
+  const user = await requireApiPermission("read-job");
   const jobId = parseId((await params).id);
   return json({ uploads: await listJobUploads(getDb(), jobId, user) });
 });
@@ -22,7 +22,7 @@ const UPLOAD = {
 
 /** multipart/form-data: `file`, `category` (arrival-photo | balancer-printout | other), `caption`. */
 export const POST = route<Params>(UPLOAD, async (req, { params }) => {
-  const actor = await requireApiUser(SHOP_ROLES);
+  const actor = await requireApiPermission("manage-uploads");
   const jobId = parseId((await params).id);
   await findJobForUser(getDb(), jobId, actor);
   const maxBytes = uploadLimitBytes();

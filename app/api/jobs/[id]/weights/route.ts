@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
 import { weightWriteSchema } from "@/lib/validation/workshop";
@@ -13,7 +13,7 @@ import { saveWeighing } from "@/lib/workshop/save-weight";
  * a 422 of code `outlier` until sent again with `confirmOutlier: true` (lib/workshop/save-weight.ts).
  */
 export const PUT = route<{ id: string }>(async (req, { params }) => {
-  const user = await requireApiUser(["machinist", "owner"]);
+  const user = await requireApiPermission("weigh");
   const db = getDb();
   const job = await findJobForUser(db, parseId((await params).id), user);
   const input = await parseJson(req, weightWriteSchema);

@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { saveSection, WRITE_ROLES } from "@/lib/build-record/record";
 import { BUILD_SECTIONS, sectionWriteSchema } from "@/lib/build-record/schemas";
 import { HttpError } from "@/lib/http/errors";
@@ -10,7 +10,7 @@ type Params = { id: string; section: string };
 
 /** Saves one section of the build record (with the version read; 0 when never saved). */
 export const PUT = route<Params>(async (req, { params }) => {
-  const user = await requireApiUser(WRITE_ROLES);
+  const user = await requireApiPermission("edit-build-record");
   const { id, section: raw } = await params;
   const section = BUILD_SECTIONS.find((s) => s === raw);
   if (!section) throw new HttpError(404, "not_found", "No such part of the build record.");

@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { ALL_ROLES, requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { buildRequestNewSchema } from "@/lib/build-record/request-schemas";
 import { ADD_ROLES, addRequest, listRequests } from "@/lib/build-record/requests";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
@@ -9,14 +9,14 @@ type Params = { id: string };
 
 /** The customer's requests for the build, each open, done or explained. */
 export const GET = route<Params>(async (_req, { params }) => {
-  const user = await requireApiUser(ALL_ROLES);
+  const user = await requireApiPermission("read-job");
   const job = await findJobForUser(getDb(), parseId((await params).id), user);
   return json({ requests: await listRequests(getDb(), job) });
 });
 
 /** Writes a request down; it stays open until ticked done or explained. */
 export const POST = route<Params>(async (req, { params }) => {
-  const user = await requireApiUser(ADD_ROLES);
+  const user = await requireApiPermission("add-build-request");
   const job = await findJobForUser(getDb(), parseId((await params).id), user);
   const input = await parseJson(req, buildRequestNewSchema);
   return json({ request: await addRequest(getDb(), job, input, user) }, 201);

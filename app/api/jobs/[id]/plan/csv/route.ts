@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { requireApiUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { csvResponse } from "@/lib/http/csv-response";
 import { parseId, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
@@ -9,7 +9,7 @@ import { loadWorkshop } from "@/lib/workshop/load";
 /** The removal plan as CSV, one row per part. */
 export const GET = route<{ id: string }>(async (_req, { params }) => {
   // The bench's working: shop staff only (a customer reads their job's own page instead).
-  const user = await requireApiUser(SHOP_ROLES);
+  const user = await requireApiPermission("read-bench");
   const job = await findJobForUser(getDb(), parseId((await params).id), user);
   const { plan } = await loadWorkshop(getDb(), job);
   return csvResponse(planToCsv(plan, job), `removal-plan-${job.number}.csv`);

@@ -1,6 +1,6 @@
 import { getDb } from "@/db/client";
 import { saveRotatingRecord } from "@/db/weights";
-import { requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http/errors";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
@@ -10,7 +10,7 @@ type Params = { id: string; part: string };
 
 /** Records the crank, flywheel, clutch cover or damper on the balancer. */
 export const PUT = route<Params>(async (req, { params }) => {
-  const user = await requireApiUser(["machinist", "owner"]);
+  const user = await requireApiPermission("weigh");
   const { id, part: rawPart } = await params;
   const part = rotatingPartField.safeParse(rawPart);
   if (!part.success) throw new HttpError(404, "not_found", "No such rotating part.");

@@ -1,6 +1,6 @@
 import { getDb } from "@/db/client";
 import { listPartWeights } from "@/db/weights";
-import { requireApiUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { csvResponse } from "@/lib/http/csv-response";
 import { parseId, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
@@ -9,7 +9,7 @@ import { weightsToCsv } from "@/lib/workshop/csv";
 /** The weigh-in as CSV, one row per reading, in the job's unit (named on every row). */
 export const GET = route<{ id: string }>(async (_req, { params }) => {
   // The bench's working: shop staff only (a customer reads their job's own page instead).
-  const user = await requireApiUser(SHOP_ROLES);
+  const user = await requireApiPermission("read-bench");
   const job = await findJobForUser(getDb(), parseId((await params).id), user);
   return csvResponse(
     weightsToCsv(await listPartWeights(getDb(), job.id), job.spec.massUnit),

@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { buildRequestStateSchema } from "@/lib/build-record/request-schemas";
 import { changeRequest, RESOLVE_ROLES } from "@/lib/build-record/requests";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
@@ -9,7 +9,7 @@ type Params = { id: string; requestId: string };
 
 /** Ticks a request done, explains why it was not done, or opens it again (with the version read). */
 export const PATCH = route<Params>(async (req, { params }) => {
-  const user = await requireApiUser(RESOLVE_ROLES);
+  const user = await requireApiPermission("edit-build-record");
   const { id, requestId } = await params;
   const job = await findJobForUser(getDb(), parseId(id), user);
   const requestNumber = parseId(requestId);

@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { requireApiUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { sendCardByMail } from "@/lib/cards/send";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { sendCardSchema } from "@/lib/validation/cards";
@@ -11,7 +11,7 @@ type Params = { id: string; revision: string };
  * server's refusal when it did not (the message stays in the mail log as failed).
  */
 export const POST = route<Params>(async (req, { params }) => {
-  const user = await requireApiUser(SHOP_ROLES);
+  const user = await requireApiPermission("send-card");
   const { id, revision } = await params;
   const jobId = parseId(id);
   const rev = parseId(revision);

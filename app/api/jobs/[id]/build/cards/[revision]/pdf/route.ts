@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { ALL_ROLES, requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { buildCardFileName, buildCardPdf } from "@/lib/build-record/card";
 import { cardPdfResponse } from "@/lib/cards/http";
 import { parseId, route } from "@/lib/http/route";
@@ -10,7 +10,7 @@ type Params = { id: string; revision: string };
 
 /** One issued build record, exactly as issued. */
 export const GET = route<Params>(async (_req, { params }) => {
-  const user = await requireApiUser(ALL_ROLES);
+  const user = await requireApiPermission("read-job");
   const { id, revision } = await params;
   const job = await findJobForUser(getDb(), parseId(id), user);
   const number = parseId(revision);

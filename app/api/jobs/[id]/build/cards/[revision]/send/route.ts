@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { requireApiUser } from "@/lib/auth/guard";
+import { requireApiPermission } from "@/lib/auth/guard";
 import { sendBuildCard } from "@/lib/build-record/card";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
@@ -9,7 +9,7 @@ type Params = { id: string; revision: string };
 
 /** E-mails one issued build record to the customer (or the address given). */
 export const POST = route<Params>(async (req, { params }) => {
-  const user = await requireApiUser(["owner", "machinist", "counter"]);
+  const user = await requireApiPermission("send-card");
   const { id, revision } = await params;
   const job = await findJobForUser(getDb(), parseId(id), user);
   const number = parseId(revision);
