@@ -1,6 +1,5 @@
 import type { Kysely } from "kysely";
-import { createAuditEntry } from "./audit";
-import { ConflictError, NotFoundError } from "./errors";
+import { forUpdate } from "./dialect";
 import type { Database, Role, UserRow } from "./schema";
 
 /** A user as the app sees one: never carries the password hash. */
@@ -73,140 +72,105 @@ export async function listUsers(db: Kysely<Database>): Promise<User[]> {
   return rows.map(toUser);
 }
 
-export interface NewUser {
+/** The columns of a new user, as the service shaped them (e-mail normalised, name trimmed). */
+export interface UserInsert {
   email: string;
   name: string;
   passwordHash: string;
   role: Role;
-  customerId?: number | null;
+  customerId: number | null;
 }
 
-export async function createUser(
-  db: Kysely<Database>,
-  input: NewUser,
-  actorId: number | null,
-): Promise<User> {
-  return db.transaction().execute(async (trx) => {
-    const email = normaliseEmail(input.email);
-    const taken = await trx
-      .selectFrom("users")
-      .select("id")
-      .where("email", "=", email)
-      .executeTakeFirst();
-    if (taken) throw new ConflictError("email", "A user with this e-mail already exists.");
-    const row = await trx
-      .insertInto("users")
-      .values({
-        email,
-        name: input.name.trim(),
-        password_hash: input.passwordHash,
-        role: input.role,
-        customer_id: input.role === "customer" ? (input.customerId ?? null) : null,
-      })
-      .returningAll()
-      .executeTakeFirstOrThrow();
-    const user = toUser(row);
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "create",
-      entity: "user",
-      entityId: user.id,
-      after: user,
-    });
-    return user;
-  });
+/** Inserts a user row; the caller checks the e-mail is free and writes the audit entry. */
+export async function insertUser(db: Kysely<Database>, input: UserInsert): Promise<User> {
+  const row = await db
+    .insertInto("users")
+    .values({
+      email: input.email,
+      name: input.name,
+      password_hash: input.passwordHash,
+      role: input.role,
+      customer_id: input.customerId,
+    })
+    .returningAll()
+    .executeTakeFirstOrThrow();
+  return toUser(row);
 }
 
-export interface UserChanges {
-  name?: string;
-  role?: Role;
-  disabled?: boolean;
-  customerId?: number | null;
-}
-
-export async function updateUser(
-  db: Kysely<Database>,
-  id: number,
-  changes: UserChanges,
-  actorId: number | null,
-): Promise<User> {
-  return db.transaction().execute(async (trx) => {
-    const before = await trx
-      .selectFrom("users")
-      .selectAll()
-      .where("id", "=", id)
-      .executeTakeFirst();
-    if (!before) throw new NotFoundError("user");
-    const role = changes.role ?? before.role;
-    const customerId = role === "customer" ? (changes.customerId ?? before.customer_id) : null;
-    const row = await trx
-      .updateTable("users")
-      .set({
-        name: changes.name?.trim() ?? before.name,
-        role,
-        customer_id: customerId,
-        disabled: changes.disabled === undefined ? before.disabled : changes.disabled ? 1 : 0,
-        // A role change or a disable ends every session issued before it.
-        session_version:
-          role !== before.role ||
-          (changes.disabled !== undefined && changes.disabled !== (before.disabled === 1))
-            ? Number(before.session_version) + 1
-            : before.session_version,
-      })
-      .where("id", "=", id)
-      .returningAll()
-      .executeTakeFirstOrThrow();
-    const after = toUser(row);
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "update",
-      entity: "user",
-      entityId: id,
-      before: toUser(before),
-      after,
-    });
-    return after;
-  });
+/** The user row, locked for the rest of the caller's transaction on PostgreSQL. */
+export async function lockUserRow(trx: Kysely<Database>, id: number): Promise<UserRow | undefined> {
+  return trx
+    .selectFrom("users")
+    .selectAll()
+    .where("id", "=", id)
+    .$call(forUpdate(trx))
+    .executeTakeFirst();
 }
 
 /**
- * Sets a new password hash and ends every session issued before it (the session version goes
- * up by one). Answers the new session version, or undefined when there is no such user.
+ * The ids of the active owners, each row locked for the rest of the caller's transaction on
+ * PostgreSQL (in id order, so two writers queue up rather than deadlock). A writer that waited
+ * reads the rows as the first one left them: an owner demoted or disabled meanwhile drops out.
  */
-export async function updateUserPassword(
+export async function lockActiveOwnerIds(trx: Kysely<Database>): Promise<number[]> {
+  const rows = await trx
+    .selectFrom("users")
+    .select("id")
+    .where("role", "=", "owner")
+    .where("disabled", "=", 0)
+    .orderBy("id")
+    .$call(forUpdate(trx))
+    .execute();
+  return rows.map((r) => r.id);
+}
+
+/** The columns a change of a user writes. */
+export interface UserUpdate {
+  name: string;
+  role: Role;
+  customerId: number | null;
+  disabled: boolean;
+  sessionVersion: number;
+}
+
+/** Writes a user's changed columns and answers the user as stored. */
+export async function updateUserRow(
+  db: Kysely<Database>,
+  id: number,
+  changes: UserUpdate,
+): Promise<User> {
+  const row = await db
+    .updateTable("users")
+    .set({
+      name: changes.name,
+      role: changes.role,
+      customer_id: changes.customerId,
+      disabled: changes.disabled ? 1 : 0,
+      session_version: changes.sessionVersion,
+    })
+    .where("id", "=", id)
+    .returningAll()
+    .executeTakeFirstOrThrow();
+  return toUser(row);
+}
+
+/**
+ * Stores a new password hash and adds one to the session version in the same statement.
+ * Answers the new session version, or undefined when there is no such user.
+ */
+export async function setUserPasswordHash(
   db: Kysely<Database>,
   id: number,
   passwordHash: string,
-  actorId: number | null = null,
 ): Promise<number | undefined> {
-  return db.transaction().execute(async (trx) => {
-    const row = await trx
-      .updateTable("users")
-      .set((eb) => ({
-        password_hash: passwordHash,
-        session_version: eb("session_version", "+", 1),
-      }))
-      .where("id", "=", id)
-      .returning("session_version")
-      .executeTakeFirst();
-    if (!row) return undefined;
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "password_change",
-      entity: "user",
-      entityId: id,
-    });
-    return Number(row.session_version);
-  });
-}
-
-/** How many active owners there are: the last one may not be demoted or disabled. */
-export async function countActiveOwners(db: Kysely<Database>): Promise<number> {
   const row = await db
-    .selectFrom("users")
-    .select((eb) => eb.fn.countAll<number>().as("n"))
-    .where("role", "=", "owner")
-    .where("disabled", "=", 0)
-    .executeTakeFirstOrThrow();
-  return Number(row.n);
+    .updateTable("users")
+    .set((eb) => ({
+      password_hash: passwordHash,
+      session_version: eb("session_version", "+", 1),
+    }))
+    .where("id", "=", id)
+    .returning("session_version")
+    .executeTakeFirst();
+  return row && Number(row.session_version);
 }

@@ -1,5 +1,6 @@
 import type { DB } from "@/db/client";
-import { findUserByEmail, findUserById, updateUserPassword, type User } from "@/db/users";
+import { findUserByEmail, findUserById, type User } from "@/db/users";
+import { updateUserPassword } from "@/lib/users/manage";
 import { HttpError } from "@/lib/http/errors";
 import { hashPassword, verifyPassword } from "./password";
 import type { ChangePasswordInput, ResetPasswordInput } from "./password-schema";

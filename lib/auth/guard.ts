@@ -5,6 +5,7 @@ import { isSessionEnded } from "@/db/sessions";
 import { findUserForSession, type User } from "@/db/users";
 import { HttpError } from "@/lib/http/errors";
 import { SESSION_ENDED } from "./messages";
+import { type Permission, may, ROLES, rolesFor } from "./policy";
 import { readSession } from "./session";
 
 export type Access =
@@ -16,7 +17,18 @@ export type Access =
  * takes effect on the next request. The cookie's session version must be the user's current one
  * (a disable, a role or password change adds one) and its session must not have been signed out.
  */
-export async function checkAccess(allowed: readonly Role[]): Promise<Access> {
+export async function checkPermission(permission: Permission): Promise<Access> {
+  return checkAccess(rolesFor(permission), permission);
+}
+
+/**
+ * The session checks behind `checkPermission`, for a list of roles.
+ * @deprecated Ask for a permission (lib/auth/policy.ts) instead of naming roles.
+ */
+export async function checkAccess(
+  allowed: readonly Role[],
+  permission?: Permission,
+): Promise<Access> {
   const claim = await readSession();
   if (!claim) return { ok: false, status: 401, message: "Sign in to continue." };
   const found = await findUserForSession(getDb(), claim.userId);
@@ -30,14 +42,34 @@ export async function checkAccess(allowed: readonly Role[]): Promise<Access> {
     (claim.sid !== null && (await isSessionEnded(getDb(), claim.sid)))
   )
     return { ok: false, status: 401, message: SESSION_ENDED, ended: true };
-  if (!allowed.includes(user.role))
+  if (permission ? !may(user, permission) : !allowed.includes(user.role))
     return { ok: false, status: 403, message: "Your role may not do this." };
   return { ok: true, user };
 }
 
-/** For route handlers: throws an HttpError that the handler wrapper answers as 401 or 403. */
+/**
+ * For route handlers: the signed-in user if they hold the permission; otherwise throws an
+ * HttpError that the handler wrapper answers as 401 or 403. A customer's ownership of the record
+ * is checked where the record is read (`findJobForUser` and its kin ask `may` with the record).
+ */
+export async function requireApiPermission(permission: Permission): Promise<User> {
+  return userOrThrow(await checkPermission(permission));
+}
+
+/** For pages: anonymous visitors go to sign-in (back to `returnTo`), the wrong role to no-access. */
+export async function requirePagePermission(permission: Permission, returnTo = "/"): Promise<User> {
+  return userOrRedirect(await checkPermission(permission), returnTo);
+}
+
+/**
+ * For route handlers, by a list of roles.
+ * @deprecated Use `requireApiPermission`.
+ */
 export async function requireApiUser(allowed: readonly Role[]): Promise<User> {
-  const access = await checkAccess(allowed);
+  return userOrThrow(await checkAccess(allowed));
+}
+
+function userOrThrow(access: Access): User {
   if (!access.ok)
     throw new HttpError(
       access.status,
@@ -47,14 +79,22 @@ export async function requireApiUser(allowed: readonly Role[]): Promise<User> {
   return access.user;
 }
 
-/** For pages: anonymous visitors go to sign-in, the wrong role to the no-access page. */
+/**
+ * For pages, by a list of roles.
+ * @deprecated Use `requirePagePermission`.
+ */
 export async function requirePageUser(allowed: readonly Role[], returnTo = "/"): Promise<User> {
-  const access = await checkAccess(allowed);
+  return userOrRedirect(await checkAccess(allowed), returnTo);
+}
+
+function userOrRedirect(access: Access, returnTo: string): User {
   if (access.ok) return access.user;
   if (access.status === 401)
     redirect(`/sign-in?next=${encodeURIComponent(returnTo)}${access.ended ? "&expired=1" : ""}`);
   redirect("/no-access");
 }
 
-export const ALL_ROLES: readonly Role[] = ["owner", "machinist", "counter", "customer"];
-export const SHOP_ROLES: readonly Role[] = ["owner", "machinist", "counter"];
+/** @deprecated Ask for a permission: `requireApiPermission("use-app")`. */
+export const ALL_ROLES: readonly Role[] = ROLES;
+/** @deprecated Ask for a permission: `requireApiPermission("read-shop-setup")` and the like. */
+export const SHOP_ROLES: readonly Role[] = rolesFor("see-board");

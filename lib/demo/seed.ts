@@ -4,7 +4,7 @@ import { createJob, type JobSpec, updateJob } from "@/db/jobs";
 import { seedBuildDemo } from "@/lib/build-record/demo";
 import type { JobStatus, PartKind, Role } from "@/db/schema";
 import { savePartWeight } from "@/db/weights";
-import { createUser } from "@/db/users";
+import { createUser } from "@/lib/users/manage";
 import { hashPassword } from "@/lib/auth/password";
 import { seedBillingDemo } from "@/lib/billing/demo";
 import { DEMO_V8_WEIGHTS } from "./v8-weights";

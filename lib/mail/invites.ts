@@ -11,7 +11,8 @@ import {
   updateInviteMail,
 } from "@/db/invites";
 import type { MailLogEntry } from "@/db/mail";
-import { createUser, findUserByEmail, type User } from "@/db/users";
+import { findUserByEmail, type User } from "@/db/users";
+import { createUser } from "@/lib/users/manage";
 import { hashPassword } from "@/lib/auth/password";
 import { shopDateTime } from "@/lib/dates/shop-time";
 import { appBaseUrl, env } from "@/lib/env";

@@ -2,7 +2,8 @@ import { beforeEach, describe, expect, it } from "vitest";
 import type { DB } from "@/db/client";
 import { deleteEndedRateLimits, findRateLimit, upsertRateLimit } from "@/db/rate-limits";
 import { endSession, isSessionEnded } from "@/db/sessions";
-import { findSessionVersion, updateUser, updateUserPassword } from "@/db/users";
+import { findSessionVersion } from "@/db/users";
+import { updateUser, updateUserPassword } from "@/lib/users/manage";
 import { addTestUser, freshDb, testEngine } from "../helpers/db";
 
 // On both engines (SQLite in memory; PostgreSQL under `npm run test:pg`): the SQL behind ending

@@ -5,7 +5,8 @@ import { type DB, openDatabase, openPostgres, setDb } from "@/db/client";
 import { createCustomer, type Customer } from "@/db/customers";
 import { migrateToLatest } from "@/db/migrate";
 import type { Role } from "@/db/schema";
-import { createUser, type User } from "@/db/users";
+import type { User } from "@/db/users";
+import { createUser } from "@/lib/users/manage";
 import { hashPassword } from "@/lib/auth/password";
 
 export const TEST_PASSWORD = "correct horse battery";

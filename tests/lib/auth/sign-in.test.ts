@@ -1,7 +1,7 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import type { DB } from "@/db/client";
 import { delayAfter, listThrottleNotices } from "@/db/sign-in-failures";
-import { updateUser } from "@/db/users";
+import { updateUser } from "@/lib/users/manage";
 import { SIGN_IN_FAILED } from "@/lib/auth/messages";
 import { resetEnvCache } from "@/lib/env";
 import { signInWithPassword } from "@/lib/auth/sign-in";

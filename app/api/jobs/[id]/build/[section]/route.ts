@@ -1,6 +1,6 @@
 import { getDb } from "@/db/client";
 import { requireApiPermission } from "@/lib/auth/guard";
-import { saveSection, WRITE_ROLES } from "@/lib/build-record/record";
+import { saveSection } from "@/lib/build-record/record";
 import { BUILD_SECTIONS, sectionWriteSchema } from "@/lib/build-record/schemas";
 import { HttpError } from "@/lib/http/errors";
 import { json, parseId, parseJson, route } from "@/lib/http/route";

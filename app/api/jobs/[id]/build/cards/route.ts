@@ -1,7 +1,6 @@
 import { getDb } from "@/db/client";
 import { requireApiPermission } from "@/lib/auth/guard";
 import { issueBuildCard, listJobBuildCards } from "@/lib/build-record/card";
-import { WRITE_ROLES } from "@/lib/build-record/record";
 import { json, parseId, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
 

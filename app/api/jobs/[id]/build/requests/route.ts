@@ -1,7 +1,7 @@
 import { getDb } from "@/db/client";
 import { requireApiPermission } from "@/lib/auth/guard";
 import { buildRequestNewSchema } from "@/lib/build-record/request-schemas";
-import { ADD_ROLES, addRequest, listRequests } from "@/lib/build-record/requests";
+import { addRequest, listRequests } from "@/lib/build-record/requests";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
 

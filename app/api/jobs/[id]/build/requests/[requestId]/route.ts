@@ -1,7 +1,7 @@
 import { getDb } from "@/db/client";
 import { requireApiPermission } from "@/lib/auth/guard";
 import { buildRequestStateSchema } from "@/lib/build-record/request-schemas";
-import { changeRequest, RESOLVE_ROLES } from "@/lib/build-record/requests";
+import { changeRequest } from "@/lib/build-record/requests";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
 
