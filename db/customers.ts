@@ -2,7 +2,6 @@ import type { Kysely } from "kysely";
 import { createAuditEntry } from "./audit";
 import { forUpdate } from "./dialect";
 import { customerSearch } from "./search";
-import { NotFoundError } from "./errors";
 import type { CustomerRow, Database } from "./schema";
 
 export interface Customer {
@@ -49,15 +48,10 @@ function columns(input: CustomerInput) {
   };
 }
 
-export async function createCustomer(
-  db: Kysely<Database>,
-  input: CustomerInput,
-  actorId: number | null,
-): Promise<Customer> {
-  return db.transaction().execute((trx) => insertCustomer(trx, input, actorId));
-}
-
-/** Saves a customer and its history entry inside the caller's transaction (booking a job in). */
+/**
+ * Saves a customer and its history entry inside the caller's transaction (lib/customers/manage.ts,
+ * or booking a job in for a new customer).
+ */
 export async function insertCustomer(
   trx: Kysely<Database>,
   input: CustomerInput,
@@ -79,36 +73,19 @@ export async function insertCustomer(
   return customer;
 }
 
-export async function updateCustomer(
+/** Writes a customer's details (trimmed; an e-mail lower-cased) and answers the row as stored. */
+export async function updateCustomerRow(
   db: Kysely<Database>,
   id: number,
   input: CustomerInput,
-  actorId: number | null,
 ): Promise<Customer> {
-  return db.transaction().execute(async (trx) => {
-    const before = await trx
-      .selectFrom("customers")
-      .selectAll()
-      .where("id", "=", id)
-      .executeTakeFirst();
-    if (!before) throw new NotFoundError("customer");
-    const row = await trx
-      .updateTable("customers")
-      .set(columns(input))
-      .where("id", "=", id)
-      .returningAll()
-      .executeTakeFirstOrThrow();
-    const after = toCustomer(row);
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "update",
-      entity: "customer",
-      entityId: id,
-      before: toCustomer(before),
-      after,
-    });
-    return after;
-  });
+  const row = await db
+    .updateTable("customers")
+    .set(columns(input))
+    .where("id", "=", id)
+    .returningAll()
+    .executeTakeFirstOrThrow();
+  return toCustomer(row);
 }
 
 export async function findCustomerById(

@@ -1,5 +1,5 @@
 import type { DB } from "@/db/client";
-import { createCustomer } from "@/db/customers";
+import { createCustomer } from "@/lib/customers/manage";
 import { createJob, type JobSpec, updateJob } from "@/db/jobs";
 import { seedBuildDemo } from "@/lib/build-record/demo";
 import type { JobStatus, PartKind, Role } from "@/db/schema";

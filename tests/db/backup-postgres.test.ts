@@ -12,7 +12,8 @@ import {
   restorePostgres,
 } from "@/db/backup";
 import { type DB, openPostgres } from "@/db/client";
-import { createCustomer, listCustomers, updateCustomer } from "@/db/customers";
+import { listCustomers } from "@/db/customers";
+import { createCustomer, updateCustomer } from "@/lib/customers/manage";
 import { latestMigration, migrateToLatest } from "@/db/migrate";
 import { databaseUrl, onServer, postgresServerUrl, testEngine } from "../helpers/db";
 

@@ -8,7 +8,8 @@ import { sql } from "kysely";
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import { BackupError, backupDatabase, checkBackupFile, restoreDatabase } from "@/db/backup";
 import { openDatabase } from "@/db/client";
-import { createCustomer, listCustomers } from "@/db/customers";
+import { listCustomers } from "@/db/customers";
+import { createCustomer } from "@/lib/customers/manage";
 import { latestMigration, migrateToLatest } from "@/db/migrate";
 
 const root = path.resolve(import.meta.dirname, "../..");

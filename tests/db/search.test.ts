@@ -1,7 +1,8 @@
 import { sql } from "kysely";
 import { beforeEach, describe, expect, it } from "vitest";
 import type { DB } from "@/db/client";
-import { createCustomer, listCustomers, updateCustomer } from "@/db/customers";
+import { listCustomers } from "@/db/customers";
+import { createCustomer, updateCustomer } from "@/lib/customers/manage";
 import { createJob, listJobs, updateJob } from "@/db/jobs";
 import { jobSearch, searchWords } from "@/db/search";
 import { freshDb, testEngine } from "../helpers/db";

@@ -5,8 +5,9 @@ import { z } from "zod";
 import { redirect } from "next/navigation";
 import { getDb } from "@/db/client";
 import { NotFoundError } from "@/db/errors";
-import { createCustomer, type Customer, updateCustomer } from "@/db/customers";
-import { checkAccess } from "@/lib/auth/guard";
+import type { Customer } from "@/db/customers";
+import { createCustomer, updateCustomer } from "@/lib/customers/manage";
+import { checkPermission } from "@/lib/auth/guard";
 import { mergeCustomers } from "@/lib/customers/merge";
 import { mergeCustomerSchema } from "@/lib/customers/merge-schema";
 import { type ActionResult, toActionFailure } from "@/lib/http/action-result";
@@ -17,7 +18,7 @@ export async function createCustomerAction(
   _prev: ActionResult<Customer> | null,
   form: FormData,
 ): Promise<ActionResult<Customer>> {
-  const access = await checkAccess(["owner", "counter"]);
+  const access = await checkPermission("manage-customers");
   if (!access.ok) return { ok: false, status: access.status, message: access.message };
   try {
     const input = customerSchema.parse(formValues(form));
@@ -43,7 +44,7 @@ export async function updateCustomerAction(
   _prev: ActionResult<Customer> | null,
   form: FormData,
 ): Promise<ActionResult<Customer>> {
-  const access = await checkAccess(["owner", "counter"]);
+  const access = await checkPermission("manage-customers");
   if (!access.ok) return { ok: false, status: access.status, message: access.message };
   try {
     const { customerId: _id, ...values } = formValues(form);
@@ -66,7 +67,7 @@ export async function mergeCustomerAction(
   _prev: ActionResult<undefined> | null,
   form: FormData,
 ): Promise<ActionResult<undefined>> {
-  const access = await checkAccess(["owner", "counter"]);
+  const access = await checkPermission("manage-customers");
   if (!access.ok) return { ok: false, status: access.status, message: access.message };
   let keepId: number;
   try {

@@ -1,5 +1,6 @@
 import { getDb } from "@/db/client";
-import { createCustomer, listCustomers } from "@/db/customers";
+import { listCustomers } from "@/db/customers";
+import { createCustomer } from "@/lib/customers/manage";
 import { requireApiPermission } from "@/lib/auth/guard";
 import { json, parseJson, route } from "@/lib/http/route";
 import { customerSchema, listQuerySchema } from "@/lib/validation/customers";

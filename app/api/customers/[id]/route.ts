@@ -1,5 +1,6 @@
 import { getDb } from "@/db/client";
-import { findCustomerById, updateCustomer } from "@/db/customers";
+import { findCustomerById } from "@/db/customers";
+import { updateCustomer } from "@/lib/customers/manage";
 import { requireApiPermission } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http/errors";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
