@@ -1,14 +1,14 @@
 import type { Kysely, Transaction } from "kysely";
-import { createAuditEntry } from "./audit";
 import type { BuildRequestState, BuildSectionName } from "./build-record-schema";
-import { forUpdate, isUniqueViolation, lockJob } from "./dialect";
-import { NotFoundError, StaleWriteError } from "./errors";
+import { forUpdate, isUniqueViolation } from "./dialect";
 import type { Database } from "./schema";
 
 // All SQL of the engine build record: the customer's requests for the build, the record's
-// sections and the shop's build settings. The rules live in lib/build-record.
+// sections, the shop's build settings and the issued PDFs. Each function runs in the database
+// or transaction it is given; the transactions, locks, version rules and audit entries are
+// lib/build-record's.
 
-type Db = Kysely<Database>;
+type Db = Kysely<Database> | Transaction<Database>;
 
 export interface BuildRequest {
   id: number;
@@ -68,46 +68,45 @@ export async function listOpenBuildRequests(db: Db, jobId: number): Promise<Buil
   return rows.map(toRequest);
 }
 
-/** Adds a request to a job, audited. */
+/** One of a job's requests, or undefined. */
+export async function findBuildRequest(
+  db: Db,
+  jobId: number,
+  id: number,
+): Promise<BuildRequest | undefined> {
+  const row = await selectRequests(db)
+    .where("build_requests.id", "=", id)
+    .where("build_requests.job_id", "=", jobId)
+    .executeTakeFirst();
+  return row ? toRequest(row) : undefined;
+}
+
+/** Stores a new request for a job; answers its id. */
 export async function insertBuildRequest(
   db: Db,
-  input: { jobId: number; text: string },
+  input: { jobId: number; text: string; state: BuildRequestState },
   actorId: number | null,
-  now = new Date(),
-): Promise<BuildRequest> {
-  return db.transaction().execute(async (trx) => {
-    await lockJob(trx, input.jobId);
-    const at = now.toISOString();
-    const { id } = await trx
-      .insertInto("build_requests")
-      .values({
-        job_id: input.jobId,
-        text: input.text,
-        state: "open",
-        created_by: actorId,
-        created_at: at,
-        updated_by: actorId,
-        updated_at: at,
-      })
-      .returning("id")
-      .executeTakeFirstOrThrow();
-    const saved = toRequest(
-      await selectRequests(trx).where("build_requests.id", "=", id).executeTakeFirstOrThrow(),
-    );
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "create",
-      entity: "build_request",
-      entityId: `${input.jobId}:${id}`,
-      after: { text: saved.text, state: saved.state },
-    });
-    return saved;
-  });
+  at: string,
+): Promise<number> {
+  const { id } = await db
+    .insertInto("build_requests")
+    .values({
+      job_id: input.jobId,
+      text: input.text,
+      state: input.state,
+      created_by: actorId,
+      created_at: at,
+      updated_by: actorId,
+      updated_at: at,
+    })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  return id;
 }
 
 /**
- * Marks a request done, explained (with the note why not) or open again, only if the stored
- * version is the one the caller read (UPDATE … WHERE version = ?; no row changed → 409).
+ * Writes a request's state and note as the next version, only where the stored version is
+ * `baseVersion` (UPDATE … WHERE version = ?). Answers whether a row was changed.
  */
 export async function updateBuildRequestState(
   db: Db,
@@ -119,43 +118,22 @@ export async function updateBuildRequestState(
     note: string | null;
   },
   actorId: number | null,
-  now = new Date(),
-): Promise<BuildRequest> {
-  return db.transaction().execute(async (trx) => {
-    await lockJob(trx, input.jobId);
-    const before = await trx
-      .selectFrom("build_requests")
-      .selectAll()
-      .where("id", "=", input.id)
-      .where("job_id", "=", input.jobId)
-      .executeTakeFirst();
-    if (!before) throw new NotFoundError("request");
-    const result = await trx
-      .updateTable("build_requests")
-      .set({
-        state: input.state,
-        note: input.note,
-        version: input.baseVersion + 1,
-        updated_by: actorId,
-        updated_at: now.toISOString(),
-      })
-      .where("id", "=", input.id)
-      .where("version", "=", input.baseVersion)
-      .executeTakeFirst();
-    if (Number(result.numUpdatedRows) !== 1) throw new StaleWriteError("request", before.version);
-    const saved = toRequest(
-      await selectRequests(trx).where("build_requests.id", "=", input.id).executeTakeFirstOrThrow(),
-    );
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "update",
-      entity: "build_request",
-      entityId: `${input.jobId}:${input.id}`,
-      before: { text: before.text, state: before.state, note: before.note },
-      after: { text: saved.text, state: saved.state, note: saved.note },
-    });
-    return saved;
-  });
+  at: string,
+): Promise<boolean> {
+  const result = await db
+    .updateTable("build_requests")
+    .set({
+      state: input.state,
+      note: input.note,
+      version: input.baseVersion + 1,
+      updated_by: actorId,
+      updated_at: at,
+    })
+    .where("id", "=", input.id)
+    .where("job_id", "=", input.jobId)
+    .where("version", "=", input.baseVersion)
+    .executeTakeFirst();
+  return Number(result.numUpdatedRows) === 1;
 }
 
 export interface StoredBuildSection {
@@ -184,63 +162,64 @@ export async function listBuildSections(db: Db, jobId: number): Promise<StoredBu
   }));
 }
 
+/** One stored section of a job's build record (raw JSON and version), or undefined. */
+export async function findBuildSection(
+  db: Db,
+  jobId: number,
+  section: BuildSectionName,
+): Promise<{ data: unknown; version: number } | undefined> {
+  const row = await db
+    .selectFrom("build_sections")
+    .select(["data_json", "version"])
+    .where("job_id", "=", jobId)
+    .where("section", "=", section)
+    .executeTakeFirst();
+  return row ? { data: JSON.parse(row.data_json) as unknown, version: row.version } : undefined;
+}
+
+/** Stores a section never saved before, at the version given. */
+export async function insertBuildSection(
+  db: Db,
+  write: { jobId: number; section: BuildSectionName; data: unknown; version: number },
+  actorId: number | null,
+  at: string,
+): Promise<void> {
+  await db
+    .insertInto("build_sections")
+    .values({
+      job_id: write.jobId,
+      section: write.section,
+      data_json: JSON.stringify(write.data),
+      version: write.version,
+      updated_by: actorId,
+      updated_at: at,
+    })
+    .execute();
+}
+
 /**
- * Saves one section of a job's build record inside the caller's transaction (the service holds
- * the job's lock), if the stored version is the one the caller read (0: never saved). An update
- * is `UPDATE … WHERE version = ?` with the row count checked. Audited with before and after.
- *
- * @throws StaleWriteError (409) with the stored version
+ * Writes a section as `baseVersion + 1`, only where the stored version is `baseVersion`
+ * (UPDATE … WHERE version = ?). Answers whether a row was changed.
  */
-export async function saveBuildSection(
-  trx: Transaction<Database>,
+export async function updateBuildSection(
+  db: Db,
   write: { jobId: number; section: BuildSectionName; data: unknown; baseVersion: number },
   actorId: number | null,
-  now = new Date(),
-): Promise<{ version: number; updatedAt: string }> {
-  const before = await trx
-    .selectFrom("build_sections")
-    .selectAll()
+  at: string,
+): Promise<boolean> {
+  const result = await db
+    .updateTable("build_sections")
+    .set({
+      data_json: JSON.stringify(write.data),
+      version: write.baseVersion + 1,
+      updated_by: actorId,
+      updated_at: at,
+    })
     .where("job_id", "=", write.jobId)
     .where("section", "=", write.section)
+    .where("version", "=", write.baseVersion)
     .executeTakeFirst();
-  const current = before?.version ?? 0;
-  if (current !== write.baseVersion) throw new StaleWriteError("build record section", current);
-  const at = now.toISOString();
-  const data_json = JSON.stringify(write.data);
-  const version = write.baseVersion + 1;
-  if (before) {
-    const result = await trx
-      .updateTable("build_sections")
-      .set({ data_json, version, updated_by: actorId, updated_at: at })
-      .where("job_id", "=", write.jobId)
-      .where("section", "=", write.section)
-      .where("version", "=", write.baseVersion)
-      .executeTakeFirst();
-    if (Number(result.numUpdatedRows) !== 1) {
-      throw new StaleWriteError("build record section", current);
-    }
-  } else {
-    await trx
-      .insertInto("build_sections")
-      .values({
-        job_id: write.jobId,
-        section: write.section,
-        data_json,
-        version,
-        updated_by: actorId,
-        updated_at: at,
-      })
-      .execute();
-  }
-  await createAuditEntry(trx, {
-    userId: actorId,
-    action: "record",
-    entity: "build_section",
-    entityId: `${write.jobId}:${write.section}`,
-    before: before ? (JSON.parse(before.data_json) as unknown) : null,
-    after: write.data,
-  });
-  return { version, updatedAt: at };
+  return Number(result.numUpdatedRows) === 1;
 }
 
 export interface StoredBuildSettings {
@@ -249,12 +228,19 @@ export interface StoredBuildSettings {
   updatedAt: string | null;
 }
 
-/** The shop's build settings as stored (version 0 and no data: never saved). */
-export async function findBuildSettings(db: Db): Promise<StoredBuildSettings> {
+/**
+ * The shop's build settings as stored (version 0 and no data: never saved). With `lock`, the
+ * row is held until the transaction ends (PostgreSQL; see forUpdate).
+ */
+export async function findBuildSettings(
+  db: Db,
+  options: { lock?: boolean } = {},
+): Promise<StoredBuildSettings> {
   const row = await db
     .selectFrom("build_settings")
     .selectAll()
     .where("id", "=", 1)
+    .$if(options.lock === true, (qb) => qb.$call(forUpdate(db)))
     .executeTakeFirst();
   return row
     ? {
@@ -266,59 +252,55 @@ export async function findBuildSettings(db: Db): Promise<StoredBuildSettings> {
 }
 
 /**
- * Saves the shop's build settings if the stored version is the one read (0: never saved);
- * `UPDATE … WHERE version = ?` with the row count checked. Audited.
- *
- * @throws StaleWriteError (409) with the stored version
+ * Stores the shop's first build settings (row 1). Answers false when a row 1 is already there
+ * (another first save got in first).
  */
-export async function saveBuildSettings(
+export async function insertBuildSettings(
+  db: Db,
+  write: { data: unknown; version: number },
+  actorId: number | null,
+  at: string,
+): Promise<boolean> {
+  try {
+    await db
+      .insertInto("build_settings")
+      .values({
+        id: 1,
+        data_json: JSON.stringify(write.data),
+        version: write.version,
+        updated_by: actorId,
+        updated_at: at,
+      })
+      .execute();
+    return true;
+  } catch (error) {
+    if (isUniqueViolation(error)) return false;
+    throw error;
+  }
+}
+
+/**
+ * Writes the shop's build settings as `baseVersion + 1`, only where the stored version is
+ * `baseVersion` (UPDATE … WHERE version = ?). Answers whether the row was changed.
+ */
+export async function updateBuildSettings(
   db: Db,
   write: { data: unknown; baseVersion: number },
   actorId: number | null,
-  now = new Date(),
-): Promise<{ version: number; updatedAt: string }> {
-  return db.transaction().execute(async (trx) => {
-    const before = await trx
-      .selectFrom("build_settings")
-      .selectAll()
-      .where("id", "=", 1)
-      .$call(forUpdate(trx))
-      .executeTakeFirst();
-    const current = before?.version ?? 0;
-    if (current !== write.baseVersion) throw new StaleWriteError("build settings", current);
-    const at = now.toISOString();
-    const data_json = JSON.stringify(write.data);
-    const version = current + 1;
-    if (before) {
-      const result = await trx
-        .updateTable("build_settings")
-        .set({ data_json, version, updated_by: actorId, updated_at: at })
-        .where("id", "=", 1)
-        .where("version", "=", write.baseVersion)
-        .executeTakeFirst();
-      if (Number(result.numUpdatedRows) !== 1) throw new StaleWriteError("build settings", current);
-    } else {
-      try {
-        await trx
-          .insertInto("build_settings")
-          .values({ id: 1, data_json, version, updated_by: actorId, updated_at: at })
-          .execute();
-      } catch (error) {
-        // Another first save got there: this one was based on nothing.
-        if (isUniqueViolation(error)) throw new StaleWriteError("build settings", 1);
-        throw error;
-      }
-    }
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "update",
-      entity: "build_settings",
-      entityId: 1,
-      before: before ? (JSON.parse(before.data_json) as unknown) : null,
-      after: write.data,
-    });
-    return { version, updatedAt: at };
-  });
+  at: string,
+): Promise<boolean> {
+  const result = await db
+    .updateTable("build_settings")
+    .set({
+      data_json: JSON.stringify(write.data),
+      version: write.baseVersion + 1,
+      updated_by: actorId,
+      updated_at: at,
+    })
+    .where("id", "=", 1)
+    .where("version", "=", write.baseVersion)
+    .executeTakeFirst();
+  return Number(result.numUpdatedRows) === 1;
 }
 
 export interface BuildCardSummary {
@@ -330,19 +312,19 @@ export interface BuildCardSummary {
   sizeBytes: number;
 }
 
-/** The next revision number of a job's build record PDF (1 for the first). */
-export async function findNextBuildCardRevision(db: Db, jobId: number): Promise<number> {
+/** The highest revision issued for a job (0 when none has been). */
+export async function findLatestBuildCardRevision(db: Db, jobId: number): Promise<number> {
   const row = await db
     .selectFrom("build_cards")
     .select((eb) => eb.fn.max("revision").as("last"))
     .where("job_id", "=", jobId)
     .executeTakeFirst();
-  return Number(row?.last ?? 0) + 1;
+  return Number(row?.last ?? 0);
 }
 
 /**
- * Stores an issued build record PDF. Two issued at the same moment cannot both take a revision:
- * the second is refused as stale (409).
+ * Stores an issued build record PDF. Answers false when the job already has that revision
+ * (another issue took it first); on PostgreSQL the transaction is then spoilt and must end.
  */
 export async function insertBuildCard(
   db: Db,
@@ -356,35 +338,26 @@ export async function insertBuildCard(
     issuedAt: string;
   },
   actorId: number | null,
-): Promise<void> {
-  await db.transaction().execute(async (trx) => {
-    await lockJob(trx, card.jobId);
-    try {
-      await trx
-        .insertInto("build_cards")
-        .values({
-          job_id: card.jobId,
-          revision: card.revision,
-          pdf: card.pdf,
-          sha256: card.sha256,
-          data_json: card.dataJson,
-          verification_code: card.verificationCode,
-          issued_at: card.issuedAt,
-          issued_by: actorId,
-        })
-        .execute();
-    } catch (error) {
-      if (isUniqueViolation(error)) throw new StaleWriteError("build record PDF", card.revision);
-      throw error;
-    }
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "issue",
-      entity: "build_card",
-      entityId: `${card.jobId}:${card.revision}`,
-      after: { revision: card.revision, sha256: card.sha256 },
-    });
-  });
+): Promise<boolean> {
+  try {
+    await db
+      .insertInto("build_cards")
+      .values({
+        job_id: card.jobId,
+        revision: card.revision,
+        pdf: card.pdf,
+        sha256: card.sha256,
+        data_json: card.dataJson,
+        verification_code: card.verificationCode,
+        issued_at: card.issuedAt,
+        issued_by: actorId,
+      })
+      .execute();
+    return true;
+  } catch (error) {
+    if (isUniqueViolation(error)) return false;
+    throw error;
+  }
 }
 
 /** A job's issued build record PDFs, newest first, without the bytes. */
@@ -450,11 +423,10 @@ export async function findBuildCardByCode(
     .where("verification_code", "=", code)
     .executeTakeFirst();
   if (!row) return undefined;
-  const latest = await findNextBuildCardRevision(db, row.job_id);
   return {
     jobId: row.job_id,
     revision: row.revision,
-    latestRevision: latest - 1,
+    latestRevision: await findLatestBuildCardRevision(db, row.job_id),
     sha256: row.sha256,
     dataJson: row.data_json,
     verificationCode: row.verification_code,

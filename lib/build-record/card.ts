@@ -5,12 +5,14 @@ import {
   type BuildCardSummary,
   findBuildCardByCode,
   findBuildCardPdf,
-  findNextBuildCardRevision,
+  findLatestBuildCardRevision,
   insertBuildCard,
   listBuildCards,
 } from "@/db/build-record";
 import { findCounterSettings } from "@/db/counter-settings";
 import { findCustomerById } from "@/db/customers";
+import { lockJob } from "@/db/dialect";
+import { StaleWriteError } from "@/db/errors";
 import type { Job } from "@/db/jobs";
 import type { Database } from "@/db/schema";
 import { findShopSettings } from "@/db/settings";
@@ -54,7 +56,7 @@ export async function issueBuildCard(
   const [settings, customer, revision, counter] = await Promise.all([
     findShopSettings(db),
     findCustomerById(db, job.customerId),
-    findNextBuildCardRevision(db, job.id),
+    findLatestBuildCardRevision(db, job.id).then((last) => last + 1),
     findCounterSettings(db),
   ]);
   const code = newVerificationCode();
@@ -72,7 +74,7 @@ export async function issueBuildCard(
   };
   const pdf = await renderBuildRecordCard(data);
   const sha256 = createHash("sha256").update(pdf).digest("hex");
-  await insertBuildCard(
+  await storeBuildCard(
     db,
     {
       jobId: job.id,
@@ -86,6 +88,32 @@ export async function issueBuildCard(
     actor.id,
   );
   return (await listBuildCards(db, job.id)).find((c) => c.revision === revision)!;
+}
+
+/**
+ * Stores an issued build record PDF under the job's lock, audited. Two issued at the same moment
+ * cannot both take a revision: the second is refused as stale.
+ *
+ * @throws StaleWriteError (409) when the revision is already taken
+ */
+export async function storeBuildCard(
+  db: Kysely<Database>,
+  card: Parameters<typeof insertBuildCard>[1],
+  actorId: number | null,
+): Promise<void> {
+  await db.transaction().execute(async (trx) => {
+    await lockJob(trx, card.jobId);
+    if (!(await insertBuildCard(trx, card, actorId))) {
+      throw new StaleWriteError("build record PDF", card.revision);
+    }
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "issue",
+      entity: "build_card",
+      entityId: `${card.jobId}:${card.revision}`,
+      after: { revision: card.revision, sha256: card.sha256 },
+    });
+  });
 }
 
 /**

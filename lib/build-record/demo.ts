@@ -1,11 +1,7 @@
 import type { Kysely } from "kysely";
-import {
-  insertBuildRequest,
-  saveBuildSection,
-  saveBuildSettings,
-  updateBuildRequestState,
-} from "@/db/build-record";
 import type { Database } from "@/db/schema";
+import { storeBuildSettings, writeBuildSection } from "./record";
+import { createBuildRequest, setBuildRequestState } from "./requests";
 import type { BuildRecordData, BuildSection } from "./schemas";
 import { SECTION_SCHEMAS } from "./schemas";
 import type { BuildSettings } from "./settings-schema";
@@ -146,19 +142,19 @@ export async function seedBuildDemo(
   db: Kysely<Database>,
   jobs: { complete: number; openRequest: number },
 ): Promise<void> {
-  await saveBuildSettings(db, { data: DEMO_BUILD_SETTINGS, baseVersion: 0 }, null);
+  await storeBuildSettings(db, { data: DEMO_BUILD_SETTINGS, baseVersion: 0 }, null);
   await db.transaction().execute(async (trx) => {
     for (const section of Object.keys(DEMO_BUILD_RECORD) as BuildSection[]) {
       const data = SECTION_SCHEMAS[section].parse(DEMO_BUILD_RECORD[section]);
-      await saveBuildSection(trx, { jobId: jobs.complete, section, data, baseVersion: 0 }, null);
+      await writeBuildSection(trx, { jobId: jobs.complete, section, data, baseVersion: 0 }, null);
     }
   });
-  const kept = await insertBuildRequest(
+  const kept = await createBuildRequest(
     db,
     { jobId: jobs.complete, text: "Keep the old timing set for the customer" },
     null,
   );
-  await updateBuildRequestState(
+  await setBuildRequestState(
     db,
     {
       jobId: jobs.complete,
@@ -169,7 +165,7 @@ export async function seedBuildDemo(
     },
     null,
   );
-  await insertBuildRequest(
+  await createBuildRequest(
     db,
     { jobId: jobs.openRequest, text: "Fit the vernier timing gear the customer brought" },
     null,

@@ -1,11 +1,17 @@
-import type { Kysely } from "kysely";
+import type { Kysely, Transaction } from "kysely";
+import { createAuditEntry } from "@/db/audit";
 import {
+  findBuildSection,
   findBuildSettings,
+  insertBuildSection,
+  insertBuildSettings,
   listBuildSections,
-  saveBuildSection,
-  saveBuildSettings,
+  updateBuildSection,
+  updateBuildSettings,
 } from "@/db/build-record";
+import type { BuildSectionName } from "@/db/build-record-schema";
 import { lockJob } from "@/db/dialect";
+import { StaleWriteError } from "@/db/errors";
 import type { Job } from "@/db/jobs";
 import type { Database } from "@/db/schema";
 import type { User } from "@/db/users";
@@ -236,12 +242,84 @@ export async function saveSection(
     const record = { ...current.data, [section]: write.data } as BuildRecordData;
     if (section === "specs") checkUnitSwitch(current.data, record.specs);
     checkSection(job, record, section, current.settings);
-    await saveBuildSection(
+    await writeBuildSection(
       trx,
       { jobId: job.id, section, data: write.data, baseVersion: write.version },
       actor.id,
     );
     return loadBuildRecord(trx, job, actor);
+  });
+}
+
+/**
+ * Writes one section of a job's build record inside the caller's transaction (which holds the
+ * job's lock), if the stored version is the one the caller read (0: never saved). Audited with
+ * before and after. No checks beyond the version: {@link saveSection} makes them.
+ *
+ * @throws StaleWriteError (409) with the stored version
+ */
+export async function writeBuildSection(
+  trx: Transaction<Database>,
+  write: { jobId: number; section: BuildSectionName; data: unknown; baseVersion: number },
+  actorId: number | null,
+  now = new Date(),
+): Promise<{ version: number; updatedAt: string }> {
+  const before = await findBuildSection(trx, write.jobId, write.section);
+  const current = before?.version ?? 0;
+  if (current !== write.baseVersion) throw new StaleWriteError("build record section", current);
+  const at = now.toISOString();
+  const version = write.baseVersion + 1;
+  if (before) {
+    if (!(await updateBuildSection(trx, write, actorId, at))) {
+      throw new StaleWriteError("build record section", current);
+    }
+  } else {
+    await insertBuildSection(trx, { ...write, version }, actorId, at);
+  }
+  await createAuditEntry(trx, {
+    userId: actorId,
+    action: "record",
+    entity: "build_section",
+    entityId: `${write.jobId}:${write.section}`,
+    before: before ? before.data : null,
+    after: write.data,
+  });
+  return { version, updatedAt: at };
+}
+
+/**
+ * Stores the shop's build settings if the stored version is the one read (0: never saved), in
+ * a transaction of its own holding the settings row. Audited with before and after.
+ *
+ * @throws StaleWriteError (409) with the stored version
+ */
+export async function storeBuildSettings(
+  db: Kysely<Database>,
+  write: { data: unknown; baseVersion: number },
+  actorId: number | null,
+  now = new Date(),
+): Promise<{ version: number; updatedAt: string }> {
+  return db.transaction().execute(async (trx) => {
+    const before = await findBuildSettings(trx, { lock: true });
+    const current = before.version;
+    if (current !== write.baseVersion) throw new StaleWriteError("build settings", current);
+    const at = now.toISOString();
+    const version = current + 1;
+    const written =
+      current === 0
+        ? // false: another first save got there, so this one was based on nothing.
+          await insertBuildSettings(trx, { data: write.data, version }, actorId, at)
+        : await updateBuildSettings(trx, write, actorId, at);
+    if (!written) throw new StaleWriteError("build settings", current === 0 ? 1 : current);
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "update",
+      entity: "build_settings",
+      entityId: 1,
+      before: current === 0 ? null : before.data,
+      after: write.data,
+    });
+    return { version, updatedAt: at };
   });
 }
 
@@ -251,6 +329,6 @@ export async function saveSettings(
   write: { version: number; settings: BuildSettings },
   actor: User,
 ): Promise<{ settings: BuildSettings; version: number }> {
-  await saveBuildSettings(db, { data: write.settings, baseVersion: write.version }, actor.id);
+  await storeBuildSettings(db, { data: write.settings, baseVersion: write.version }, actor.id);
   return loadBuildSettings(db);
 }

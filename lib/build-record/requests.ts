@@ -1,11 +1,16 @@
 import type { Kysely } from "kysely";
+import { createAuditEntry } from "@/db/audit";
 import {
   type BuildRequest,
+  findBuildRequest,
   insertBuildRequest,
   listBuildRequests,
   listOpenBuildRequests,
   updateBuildRequestState,
 } from "@/db/build-record";
+import type { BuildRequestState } from "@/db/build-record-schema";
+import { lockJob } from "@/db/dialect";
+import { NotFoundError, StaleWriteError } from "@/db/errors";
 import type { Job } from "@/db/jobs";
 import type { Database, JobStatus } from "@/db/schema";
 import type { User } from "@/db/users";
@@ -50,13 +55,82 @@ export function listRequests(db: Kysely<Database>, job: Job): Promise<BuildReque
   return listBuildRequests(db, job.id);
 }
 
+/** Writes a request down for a job, open, under the job's lock; audited. */
+export async function createBuildRequest(
+  db: Kysely<Database>,
+  input: { jobId: number; text: string },
+  actorId: number | null,
+  now = new Date(),
+): Promise<BuildRequest> {
+  return db.transaction().execute(async (trx) => {
+    await lockJob(trx, input.jobId);
+    const id = await insertBuildRequest(
+      trx,
+      { jobId: input.jobId, text: input.text, state: "open" },
+      actorId,
+      now.toISOString(),
+    );
+    const saved = (await findBuildRequest(trx, input.jobId, id))!;
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "create",
+      entity: "build_request",
+      entityId: `${input.jobId}:${id}`,
+      after: { text: saved.text, state: saved.state },
+    });
+    return saved;
+  });
+}
+
+/**
+ * Marks a request done, explained (with the note why not) or open again, only if the stored
+ * version is the one the caller read; audited with before and after.
+ *
+ * @throws NotFoundError (404) for a request not on this job; StaleWriteError (409) with the
+ *   stored version
+ */
+export async function setBuildRequestState(
+  db: Kysely<Database>,
+  input: {
+    jobId: number;
+    id: number;
+    baseVersion: number;
+    state: BuildRequestState;
+    note: string | null;
+  },
+  actorId: number | null,
+  now = new Date(),
+): Promise<BuildRequest> {
+  return db.transaction().execute(async (trx) => {
+    await lockJob(trx, input.jobId);
+    const before = await findBuildRequest(trx, input.jobId, input.id);
+    if (!before) throw new NotFoundError("request");
+    if (before.version !== input.baseVersion) {
+      throw new StaleWriteError("request", before.version);
+    }
+    if (!(await updateBuildRequestState(trx, input, actorId, now.toISOString()))) {
+      throw new StaleWriteError("request", before.version);
+    }
+    const saved = (await findBuildRequest(trx, input.jobId, input.id))!;
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "update",
+      entity: "build_request",
+      entityId: `${input.jobId}:${input.id}`,
+      before: { text: before.text, state: before.state, note: before.note },
+      after: { text: saved.text, state: saved.state, note: saved.note },
+    });
+    return saved;
+  });
+}
+
 export function addRequest(
   db: Kysely<Database>,
   job: Job,
   input: BuildRequestNew,
   actor: User,
 ): Promise<BuildRequest> {
-  return insertBuildRequest(db, { jobId: job.id, text: input.text }, actor.id);
+  return createBuildRequest(db, { jobId: job.id, text: input.text }, actor.id);
 }
 
 /** Ticks a request done, explains it (note required) or opens it again, with the version read. */
@@ -67,7 +141,7 @@ export function changeRequest(
   change: BuildRequestStateChange,
   actor: User,
 ): Promise<BuildRequest> {
-  return updateBuildRequestState(
+  return setBuildRequestState(
     db,
     {
       jobId: job.id,

@@ -7,7 +7,6 @@ import { NextRequest } from "next/server";
 import sharp from "sharp";
 import type { DB } from "@/db/client";
 import { setDb } from "@/db/client";
-import { saveBuildSection } from "@/db/build-record";
 import { isPostgres } from "@/db/dialect";
 import { listInvoices } from "@/db/invoices";
 import { createJob, listJobs } from "@/db/jobs";
@@ -20,6 +19,7 @@ import { createInvoice, issueInvoice } from "@/lib/billing/invoices";
 import { createQuote, moveQuote } from "@/lib/billing/quotes";
 import { issueCard } from "@/lib/cards/issue";
 import { issueBuildCard } from "@/lib/build-record/card";
+import { writeBuildSection } from "@/lib/build-record/record";
 import { saveLogoUpload } from "@/lib/cards/logo";
 import { DEMO_USERS, seedDemo } from "@/lib/demo/seed";
 import { resetEnvCache } from "@/lib/env";
@@ -147,7 +147,7 @@ export async function seedShop(): Promise<Shop> {
   // An engine build record issued on the same job (revision 1, as the balance card).
   const tdc = { firstStop: "-18", secondStop: "22" };
   const section = { jobId: job.id, section: "tdc" as const, data: tdc, baseVersion: 0 };
-  await db.transaction().execute((trx) => saveBuildSection(trx, section, null));
+  await db.transaction().execute((trx) => writeBuildSection(trx, section, null));
   await issueBuildCard(db, job, demo.machinist);
   const upload = await saveJobUpload(
     db,

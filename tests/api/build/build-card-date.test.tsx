@@ -5,7 +5,8 @@ import { GET as getPdf } from "@/app/api/jobs/[id]/build/cards/[revision]/pdf/ro
 import { VerifiedBuildCardView } from "@/components/build/verified-build-card";
 import type { DB } from "@/db/client";
 import { updateCounterSettings } from "@/db/counter-settings";
-import { createJob, type Job } from "@/db/jobs";
+import type { Job } from "@/db/jobs";
+import { createJob } from "@/lib/jobs/save";
 import type { Role } from "@/db/schema";
 import type { User } from "@/db/users";
 import { issueBuildCard, verifyBuildCardCode } from "@/lib/build-record/card";

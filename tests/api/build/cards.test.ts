@@ -4,13 +4,13 @@ import { POST as sendCard } from "@/app/api/jobs/[id]/build/cards/[revision]/sen
 import { GET as getPdf } from "@/app/api/jobs/[id]/build/cards/[revision]/pdf/route";
 import { GET as listCards, POST as issueCard } from "@/app/api/jobs/[id]/build/cards/route";
 import { PUT as putSection } from "@/app/api/jobs/[id]/build/[section]/route";
-import { insertBuildCard } from "@/db/build-record";
 import type { DB } from "@/db/client";
 import { StaleWriteError } from "@/db/errors";
-import { createJob, type Job } from "@/db/jobs";
+import type { Job } from "@/db/jobs";
+import { createJob } from "@/lib/jobs/save";
 import type { Role } from "@/db/schema";
 import type { User } from "@/db/users";
-import { verifyBuildCardCode } from "@/lib/build-record/card";
+import { storeBuildCard, verifyBuildCardCode } from "@/lib/build-record/card";
 import { emptySection } from "@/lib/build-record/schemas";
 import { addOneOfEachRole, addTestUser, freshDb } from "../../helpers/db";
 import { jsonRequest, params } from "../../helpers/http";
@@ -113,9 +113,9 @@ describe("the issued build record PDF", () => {
       dataJson: "{}",
       issuedAt: new Date().toISOString(),
     };
-    await insertBuildCard(db, { ...card, verificationCode: "AAAAAAAAAA" }, null);
+    await storeBuildCard(db, { ...card, verificationCode: "AAAAAAAAAA" }, null);
     await expect(
-      insertBuildCard(db, { ...card, verificationCode: "BBBBBBBBBB" }, null),
+      storeBuildCard(db, { ...card, verificationCode: "BBBBBBBBBB" }, null),
     ).rejects.toBeInstanceOf(StaleWriteError);
   });
 });

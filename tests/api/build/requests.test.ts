@@ -4,7 +4,8 @@ import { PATCH as patchRequest } from "@/app/api/jobs/[id]/build/requests/[reque
 import { GET as listRequests, POST as addRequest } from "@/app/api/jobs/[id]/build/requests/route";
 import { listAuditEntries } from "@/db/audit";
 import type { DB } from "@/db/client";
-import { createJob, type Job } from "@/db/jobs";
+import type { Job } from "@/db/jobs";
+import { createJob } from "@/lib/jobs/save";
 import type { Role } from "@/db/schema";
 import type { User } from "@/db/users";
 import { addOneOfEachRole, addTestUser, freshDb } from "../../helpers/db";

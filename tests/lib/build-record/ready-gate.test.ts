@@ -1,8 +1,13 @@
 import { beforeEach, describe, expect, it } from "vitest";
-import { insertBuildRequest, updateBuildRequestState } from "@/db/build-record";
 import type { DB } from "@/db/client";
-import { createJob, type Job } from "@/db/jobs";
-import { assertRequestsSettled, OpenRequestsError } from "@/lib/build-record/requests";
+import type { Job } from "@/db/jobs";
+import { createJob } from "@/lib/jobs/save";
+import {
+  assertRequestsSettled,
+  createBuildRequest,
+  OpenRequestsError,
+  setBuildRequestState,
+} from "@/lib/build-record/requests";
 import { addTestCustomer, freshDb } from "../../helpers/db";
 
 let db: DB;
@@ -21,7 +26,7 @@ beforeEach(async () => {
 describe("assertRequestsSettled (the ready gate)", () => {
   it("passes with no requests, and for moves that are not to ready or collected", async () => {
     await expect(assertRequestsSettled(db, job, "ready")).resolves.toBeUndefined();
-    await insertBuildRequest(db, { jobId: job.id, text: "Keep the old pistons" }, null);
+    await createBuildRequest(db, { jobId: job.id, text: "Keep the old pistons" }, null);
     await expect(assertRequestsSettled(db, job, "balancing")).resolves.toBeUndefined();
     await expect(assertRequestsSettled(db, job, undefined)).resolves.toBeUndefined();
     // A job already ready is not moved by saving its notes.
@@ -31,10 +36,10 @@ describe("assertRequestsSettled (the ready gate)", () => {
   });
 
   it("refuses ready and collected with a 409 naming every open request, in order", async () => {
-    await insertBuildRequest(db, { jobId: job.id, text: "Keep the old pistons" }, null);
-    const second = await insertBuildRequest(db, { jobId: job.id, text: "Paint the block" }, null);
-    await insertBuildRequest(db, { jobId: job.id, text: "Return the old bearings" }, null);
-    await updateBuildRequestState(
+    await createBuildRequest(db, { jobId: job.id, text: "Keep the old pistons" }, null);
+    const second = await createBuildRequest(db, { jobId: job.id, text: "Paint the block" }, null);
+    await createBuildRequest(db, { jobId: job.id, text: "Return the old bearings" }, null);
+    await setBuildRequestState(
       db,
       { jobId: job.id, id: second.id, baseVersion: 1, state: "done", note: null },
       null,
@@ -53,8 +58,8 @@ describe("assertRequestsSettled (the ready gate)", () => {
   });
 
   it("an explained request no longer holds the job", async () => {
-    const r = await insertBuildRequest(db, { jobId: job.id, text: "Keep the old pistons" }, null);
-    await updateBuildRequestState(
+    const r = await createBuildRequest(db, { jobId: job.id, text: "Keep the old pistons" }, null);
+    await setBuildRequestState(
       db,
       {
         jobId: job.id,
