@@ -6,6 +6,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { type Resolver, useForm } from "react-hook-form";
 import { z } from "zod";
+import { ChangedElsewhere, isStaleWrite } from "@/components/ui/changed-elsewhere";
 import type { Job } from "@/db/jobs";
 import { JOB_STATUSES } from "@/db/schema";
 import { LAYOUT_PRESETS } from "@/lib/balance";
@@ -107,16 +108,25 @@ export function JobSettingsForm({ job: initial, role }: { job: Job; role: string
           if (name in form.getValues()) form.setError(name, { message: text });
         }
       }
+      if (isStaleWrite(e)) return;
       setMessage({
         ok: false,
         lines: [
-          e instanceof ApiError && e.status === 409
-            ? "Someone changed this job meanwhile. Reload the page to see their changes, then save again."
-            : e instanceof ApiError
-              ? `Not saved: ${Object.values(e.fields)[0] ?? e.message}`
-              : "Not saved: the server could not be reached.",
+          e instanceof ApiError
+            ? `Not saved: ${Object.values(e.fields)[0] ?? e.message}`
+            : "Not saved: the server could not be reached.",
         ],
       });
+    },
+  });
+  const latest = useMutation({
+    mutationFn: () => apiFetch<{ job: Job }>(`/api/jobs/${job.id}`),
+    onSuccess: (answer) => {
+      setJob(answer.job);
+      form.reset(formValues(answer.job));
+      save.reset();
+      setMessage(null);
+      router.refresh();
     },
   });
 
@@ -268,6 +278,18 @@ export function JobSettingsForm({ job: initial, role }: { job: Job; role: string
           {message?.lines.map((line) => (
             <p key={line}>{line}</p>
           ))}
+          {isStaleWrite(save.error) ? (
+            <ChangedElsewhere
+              what="this job's settings"
+              error={save.error}
+              loading={latest.isPending}
+              onReload={() => latest.mutate()}
+            >
+              {latest.isError ? (
+                <span className="block">The server could not be reached; try again.</span>
+              ) : null}
+            </ChangedElsewhere>
+          ) : null}
         </div>
       </div>
     </form>
@@ -310,7 +332,18 @@ export function JobStateControl({ job }: { job: Job }) {
           ))}
         </select>
       </label>
-      {change.isError ? <span className="text-replace">{change.error.message}</span> : null}
+      {isStaleWrite(change.error) ? (
+        <ChangedElsewhere
+          inline
+          what="this job"
+          onReload={() => {
+            change.reset();
+            router.refresh();
+          }}
+        />
+      ) : change.isError ? (
+        <span className="text-replace">{change.error.message}</span>
+      ) : null}
     </div>
   );
 }

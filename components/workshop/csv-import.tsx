@@ -2,12 +2,13 @@
 
 import { useMutation } from "@tanstack/react-query";
 import { useState } from "react";
+import { ChangedElsewhere, isStaleWrite } from "@/components/ui/changed-elsewhere";
 import type { WeighPhase } from "@/db/schema";
 import { ApiError, apiFetch } from "@/lib/api-client";
 import type { CsvPreview } from "@/lib/workshop/csv";
 import type { ImportOutcome } from "@/lib/workshop/import-weights";
 import { KIND_LABEL } from "./part-kinds";
-import { useUpdateWorkshop } from "./use-workshop";
+import { useReloadWorkshop, useUpdateWorkshop } from "./use-workshop";
 
 /** Weights from a spreadsheet or a scale's logger: preview what changes, then confirm. */
 export function CsvImport({
@@ -54,6 +55,14 @@ export function CsvImport({
       }
     },
   });
+
+  const latest = useReloadWorkshop(jobId);
+  /** After a stale import: every bench screen gets the weights as saved now, and a new preview. */
+  async function loadLatest() {
+    await latest.reload();
+    setPreview(null);
+    send.mutate(false);
+  }
 
   return (
     <section className="panel space-y-3 p-4" aria-labelledby="csv-title">
@@ -113,13 +122,22 @@ export function CsvImport({
           Show what would change
         </button>
       </div>
-      {send.isError ? (
+      {isStaleWrite(send.error) ? (
+        <ChangedElsewhere
+          what="some of these weights (since the preview)"
+          onReload={() => void loadLatest()}
+          loading={latest.loading || send.isPending}
+        >
+          <span className="block text-graphite-700">
+            Loading the latest shows what the file would change now; nothing is saved until you
+            confirm again.
+          </span>
+        </ChangedElsewhere>
+      ) : send.isError ? (
         <p className="text-sm text-replace" aria-live="polite">
-          {send.error instanceof ApiError && send.error.status === 409
-            ? "Some of these weights were changed on another screen since the preview. Show the changes again."
-            : send.error instanceof ApiError
-              ? (Object.values(send.error.fields)[0] ?? send.error.message)
-              : "The server could not be reached."}
+          {send.error instanceof ApiError
+            ? (Object.values(send.error.fields)[0] ?? send.error.message)
+            : "The server could not be reached."}
         </p>
       ) : null}
       {done ? (

@@ -2,6 +2,7 @@
 
 import { useMutation } from "@tanstack/react-query";
 import { useState } from "react";
+import { ChangedElsewhere, isStaleWrite } from "@/components/ui/changed-elsewhere";
 import type { PartKind } from "@/db/schema";
 import { formatDerivedMass, formatMass, type PartResult } from "@/lib/balance";
 import { ApiError, apiFetch } from "@/lib/api-client";
@@ -16,7 +17,7 @@ import {
 import { describePairingMoves } from "@/lib/workshop/pairing-history";
 import { KIND_LABEL } from "./part-kinds";
 import { PartChart } from "./part-chart";
-import { useUpdateWorkshop, useWorkshop } from "./use-workshop";
+import { useReloadWorkshop, useUpdateWorkshop, useWorkshop } from "./use-workshop";
 
 const STATUS: Record<PartResult["status"], { label: string; className: string }> = {
   ok: { label: "In band", className: "bg-emerald-50 text-within" },
@@ -479,9 +480,23 @@ function TargetEditor(props: {
       }));
       setMessage("saved");
     },
+    onMutate: () => setMessage(null),
     onError: (e) =>
-      setMessage(e instanceof ApiError ? (Object.values(e.fields)[0] ?? e.message) : "not saved"),
+      setMessage(
+        isStaleWrite(e)
+          ? null
+          : e instanceof ApiError
+            ? (Object.values(e.fields)[0] ?? e.message)
+            : "not saved",
+      ),
   });
+  const latest = useReloadWorkshop(props.jobId);
+  async function loadLatest() {
+    const fresh = await latest.reload();
+    if (!fresh) return;
+    save.reset();
+    setValue(fresh.targets.find((t) => t.kind === props.kind)?.target ?? "");
+  }
   if (!props.canEdit) {
     return (
       <p className="text-sm">
@@ -514,6 +529,15 @@ function TargetEditor(props: {
       <span aria-live="polite" className="text-xs text-graphite-500">
         {message}
       </span>
+      {isStaleWrite(save.error) ? (
+        <ChangedElsewhere
+          inline
+          what={`the ${KIND_LABEL[props.kind].toLowerCase()} target`}
+          error={save.error}
+          onReload={() => void loadLatest()}
+          loading={latest.loading}
+        />
+      ) : null}
     </form>
   );
 }
@@ -566,6 +590,7 @@ function Pairing({
     onSuccess: (w) => update(() => w),
   });
   const failure = apply.error ?? undo.error;
+  const latest = useReloadWorkshop(jobId);
   const fmt = (v: string) => `${show.derived(v)} ${show.unit}`;
   const canUndo = canEdit && lastPairing?.action === "pair";
 
@@ -672,12 +697,22 @@ function Pairing({
           </button>
         </div>
       ) : null}
-      {failure ? (
-        <p className="mt-2 text-sm text-replace">
-          {failure instanceof ApiError && failure.status === 409
-            ? "Someone applied or undid a pairing meanwhile. Reload the page to see the pistons as they are now."
-            : failure.message}
-        </p>
+      {isStaleWrite(failure) ? (
+        <div className="mt-2">
+          <ChangedElsewhere
+            what="the piston-to-rod pairing"
+            onReload={() =>
+              void latest.reload().then((w) => {
+                if (!w) return;
+                apply.reset();
+                undo.reset();
+              })
+            }
+            loading={latest.loading}
+          />
+        </div>
+      ) : failure ? (
+        <p className="mt-2 text-sm text-replace">{failure.message}</p>
       ) : null}
     </section>
   );

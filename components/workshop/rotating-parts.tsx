@@ -11,6 +11,7 @@ import {
   useForm,
 } from "react-hook-form";
 import type { z } from "zod";
+import { ChangedElsewhere, isStaleWrite } from "@/components/ui/changed-elsewhere";
 import type { RotatingPart } from "@/db/schema";
 import { BALANCE_GRADES, convertMass, formatLength, formatUnbalance } from "@/lib/balance";
 import { ApiError, apiFetch } from "@/lib/api-client";
@@ -32,7 +33,7 @@ import {
   unitsOf,
 } from "@/lib/workshop/rotating";
 import { CorrectionHelpers } from "./correction-helpers";
-import { useWorkshop, workshopKey } from "./use-workshop";
+import { useReloadWorkshop, useWorkshop, workshopKey } from "./use-workshop";
 
 const PARTS: { part: RotatingPart; label: string }[] = [
   { part: "crankshaft", label: "Crankshaft" },
@@ -74,7 +75,8 @@ type Values = {
   notes?: string | null;
 };
 
-type Status = { ok: boolean; text: string } | null;
+/** A save's outcome; `stale` holds a refusal because the record changed elsewhere (409). */
+type Status = { ok: boolean; text: string; stale?: unknown } | null;
 
 const LENGTH_WORDS = { mm: "millimetres", in: "inches" } as const;
 
@@ -227,6 +229,7 @@ function RecordForm({
   setStatus: (status: Status) => void;
 }) {
   const client = useQueryClient();
+  const latest = useReloadWorkshop(jobId);
   const record = workshop.rotating.find((r) => r.part === part);
   const units = recordUnits(part, workshop);
   const words = ROTATING_UNIT_WORDS[units.mass];
@@ -253,11 +256,8 @@ function RecordForm({
       await client.invalidateQueries({ queryKey: workshopKey(jobId) });
     },
     onError: (error) => {
-      if (error instanceof ApiError && error.status === 409) {
-        setStatus({
-          ok: false,
-          text: "Not saved: someone else saved this record meanwhile. Reload to see theirs.",
-        });
+      if (isStaleWrite(error)) {
+        setStatus({ ok: false, text: "", stale: error });
         return;
       }
       if (error instanceof ApiError && error.status === 422) {
@@ -519,7 +519,19 @@ function RecordForm({
               className="text-sm"
               data-testid="rotating-save-status"
             >
-              {status ? (
+              {status?.stale ? (
+                <ChangedElsewhere
+                  inline
+                  what={`this ${PARTS.find((p) => p.part === part)?.label.toLowerCase() ?? part} record`}
+                  error={status.stale}
+                  loading={latest.loading}
+                  onReload={() =>
+                    void latest.reload().then((fresh) => {
+                      if (fresh) setStatus(null);
+                    })
+                  }
+                />
+              ) : status ? (
                 <span className={status.ok ? "text-within" : "text-replace"}>{status.text}</span>
               ) : null}
             </span>

@@ -1,6 +1,7 @@
 "use client";
 
 import { useQuery, useQueryClient } from "@tanstack/react-query";
+import { useState } from "react";
 import { apiFetch } from "@/lib/api-client";
 import type { Workshop } from "@/lib/workshop/load";
 
@@ -29,4 +30,28 @@ export function useUpdateWorkshop(jobId: number) {
 export function useMarkWorkshopStale(jobId: number) {
   const client = useQueryClient();
   return () => void client.invalidateQueries({ queryKey: workshopKey(jobId), refetchType: "none" });
+}
+
+/**
+ * Loads the latest bench record now (after a stale write, 409) into every bench screen; resolves
+ * to it, or to null when the server could not be reached.
+ */
+export function useReloadWorkshop(jobId: number) {
+  const client = useQueryClient();
+  const [loading, setLoading] = useState(false);
+  async function reload(): Promise<Workshop | null> {
+    setLoading(true);
+    try {
+      return await client.fetchQuery({
+        queryKey: workshopKey(jobId),
+        queryFn: () => apiFetch<Workshop>(`/api/jobs/${jobId}/workshop`),
+        staleTime: 0,
+      });
+    } catch {
+      return null;
+    } finally {
+      setLoading(false);
+    }
+  }
+  return { reload, loading };
 }

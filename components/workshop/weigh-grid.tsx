@@ -6,6 +6,7 @@ import Decimal from "decimal.js";
 import { type KeyboardEvent, useCallback, useEffect, useMemo, useRef, useState } from "react";
 import { useForm } from "react-hook-form";
 import { z } from "zod";
+import { ChangedElsewhere, isStaleWrite } from "@/components/ui/changed-elsewhere";
 import type { PartKind, WeighPhase } from "@/db/schema";
 import type { PartWeight } from "@/db/weights";
 import { ApiError, apiFetch } from "@/lib/api-client";
@@ -20,7 +21,11 @@ import { useMarkWorkshopStale, useUpdateWorkshop, useWorkshop } from "./use-work
 type CellState = {
   state: "saving" | "saved" | "error" | "conflict" | "held" | "queued";
   message?: string;
+  /** For "conflict": what is saved now (unknown until the latest arrives) and what was typed. */
   theirs?: string;
+  mine?: string;
+  /** For "conflict": the refusal, for what its body says is current. */
+  refusal?: unknown;
   /** For "held": the readings the server would not use until they are confirmed. */
   text?: string;
 };
@@ -374,24 +379,14 @@ export function WeighGrid({
         return false;
       }
       dequeue(entry);
-      if (error instanceof ApiError && error.status === 409) {
-        const fresh = await apiFetch<Workshop>(`/api/jobs/${jobId}/workshop`).catch(() => null);
-        if (!fresh) {
-          setCells((s) => ({
-            ...s,
-            [name]: {
-              state: "error",
-              message: "Changed elsewhere; reload to see the saved weight.",
-            },
-          }));
-          return false;
-        }
-        update(() => fresh);
-        const theirs = cellText(fresh.weights, entry.phase, cylinder, kind);
-        const current = fresh.weights.find(
-          (w) => w.phase === entry.phase && w.cylinder === cylinder && w.kind === kind,
-        );
-        saved.current[name] = { text: theirs, version: current?.version ?? 0 };
+      if (isStaleWrite(error)) {
+        setCells((s) => ({
+          ...s,
+          [name]: { state: "conflict", mine: text, refusal: error },
+        }));
+        setAnnounce(`Cylinder ${cylinder} ${kind}: changed elsewhere, not saved`);
+        const theirs = await fetchTheirs(entry.phase, cylinder, kind);
+        if (theirs === null) return false;
         if (theirs === joined) {
           // The same readings reached the server before (a save answered after the page left).
           setCells((s) => ({ ...s, [name]: { state: "saved" } }));
@@ -399,13 +394,8 @@ export function WeighGrid({
         }
         setCells((s) => ({
           ...s,
-          [name]: {
-            state: "conflict",
-            theirs,
-            message: `Changed elsewhere to ${theirs || "empty"}. Yours (${text || "empty"}) is not saved.`,
-          },
+          [name]: { state: "conflict", theirs, mine: text, refusal: error },
         }));
-        setAnnounce(`Cylinder ${cylinder} ${kind}: changed elsewhere, not saved`);
         return false;
       }
       if (
@@ -433,6 +423,23 @@ export function WeighGrid({
     } finally {
       delete inflight.current[id];
     }
+  }
+
+  /**
+   * The latest bench record after a stale write: shared with every bench screen, and what is
+   * saved now for the part (null when the server could not be reached).
+   */
+  async function fetchTheirs(p: WeighPhase, cylinder: number, kind: PartKind) {
+    const fresh = await apiFetch<Workshop>(`/api/jobs/${jobId}/workshop`).catch(() => null);
+    if (!fresh) return null;
+    update(() => fresh);
+    const theirs = cellText(fresh.weights, p, cylinder, kind);
+    const current = fresh.weights.find(
+      (w) => w.phase === p && w.cylinder === cylinder && w.kind === kind,
+    );
+    if (p === phaseRef.current)
+      saved.current[fieldName(cylinder, kind)] = { text: theirs, version: current?.version ?? 0 };
+    return theirs;
   }
 
   async function commit(cylinder: number, kind: PartKind, options: CommitOptions = {}) {
@@ -717,9 +724,19 @@ export function WeighGrid({
     }, 0);
   }
 
-  function keepTheirs(cylinder: number, kind: PartKind) {
+  /** "Load the latest" on a conflict: the cell takes what is saved now (fetched if not known). */
+  async function keepTheirs(cylinder: number, kind: PartKind) {
     const name = fieldName(cylinder, kind);
-    form.setValue(name, cells[name]?.theirs ?? "");
+    const known = cells[name]?.theirs;
+    const theirs = known ?? (await fetchTheirs(phase, cylinder, kind));
+    if (theirs === null) {
+      setCells((s) => ({
+        ...s,
+        [name]: { state: "error", message: "The server could not be reached; try again." },
+      }));
+      return;
+    }
+    form.setValue(name, theirs);
     setCells((s) => ({ ...s, [name]: { state: "saved" } }));
   }
 
@@ -911,8 +928,20 @@ export function WeighGrid({
                           <span className="font-semibold text-machine">held: confirm below</span>
                         ) : null}
                         {cell?.state === "conflict" ? (
-                          <span className="text-replace">
-                            {cell.message}{" "}
+                          <ChangedElsewhere
+                            inline
+                            what={`cylinder ${c} ${col.label.toLowerCase()}`}
+                            error={cell.refusal}
+                            current={
+                              cell.theirs === undefined
+                                ? undefined
+                                : cell.theirs
+                                  ? `${cell.theirs} ${unit}`
+                                  : "empty"
+                            }
+                            onReload={() => void keepTheirs(c, col.kind)}
+                          >
+                            Yours ({cell.mine || "empty"}) is kept here until you choose.{" "}
                             <button
                               type="button"
                               className="underline"
@@ -921,15 +950,8 @@ export function WeighGrid({
                               }
                             >
                               Save mine
-                            </button>{" "}
-                            <button
-                              type="button"
-                              className="underline"
-                              onClick={() => keepTheirs(c, col.kind)}
-                            >
-                              Keep theirs
                             </button>
-                          </span>
+                          </ChangedElsewhere>
                         ) : null}
                         {spread && !error ? (
                           <span className="ml-1 text-graphite-500">

@@ -25,7 +25,7 @@ const jobWith = (spec: Partial<JobSpec>): Job => ({
 type Call = {
   method: string;
   url: string;
-  body: { version: number; spec: Record<string, unknown> };
+  body: { version: number; spec: Record<string, unknown> } | null;
 };
 let calls: Call[];
 let answer: (call: Call) => { status: number; body: unknown };
@@ -33,7 +33,11 @@ let answer: (call: Call) => { status: number; body: unknown };
 beforeEach(() => {
   calls = [];
   vi.stubGlobal("fetch", async (url: string, init: RequestInit = {}) => {
-    const call = { method: init.method ?? "GET", url, body: JSON.parse(String(init.body)) };
+    const call = {
+      method: init.method ?? "GET",
+      url,
+      body: init.body === undefined ? null : JSON.parse(String(init.body)),
+    };
     calls.push(call);
     const { status, body } = answer(call);
     return new Response(JSON.stringify(body), {
@@ -68,14 +72,14 @@ describe("the job settings form", () => {
     await user.clear(screen.getByLabelText(/^Balance factor/));
     await save(user);
     await waitFor(() => expect(calls).toHaveLength(1));
-    expect(calls[0]!.body.spec).toMatchObject({
+    expect(calls[0]!.body!.spec).toMatchObject({
       balanceFactor: null,
       drillSize: null,
       promisedDate: null,
       maxRpm: null,
       bore: null,
     });
-    expect(calls[0]!.body.version).toBe(3);
+    expect(calls[0]!.body!.version).toBe(3);
     await waitFor(() => expect(screen.getByTestId("settings-message").textContent).toBe("Saved."));
   });
 
@@ -137,5 +141,39 @@ describe("the job settings form", () => {
     renderForm(jobWith({ layout: "inline-4", cylinders: 4 }));
     expect(screen.getByTestId("no-bobweight").textContent).toContain("No bobweight needed");
     expect(screen.queryByLabelText(/^Balance factor/)).toBeNull();
+  });
+});
+
+describe("a job changed on another screen since the page loaded", () => {
+  it("says so, loads the latest into the form, and the next save is based on it", async () => {
+    const mine = jobWith({ layout: "v8-cross-plane", cylinders: 8, scaleName: "bench scale" });
+    const theirs = { ...mine, version: 4, spec: { ...mine.spec, scaleName: "counter scale" } };
+    // What lib/http/to-error-body.ts answers for a StaleWriteError.
+    answer = (call) =>
+      call.method === "GET"
+        ? { status: 200, body: { job: theirs } }
+        : call.body!.version === 3
+          ? {
+              status: 409,
+              body: {
+                error: { code: "stale_write", message: "job was changed by someone else" },
+                currentVersion: 4,
+              },
+            }
+          : { status: 200, body: { job: theirs, notices: [] } };
+    const user = renderForm(mine);
+    await save(user);
+    const notice = await screen.findByTestId("changed-elsewhere");
+    expect(notice.textContent).toContain(
+      "someone else changed this job's settings since this page loaded",
+    );
+    await user.click(screen.getByRole("button", { name: "Load the latest" }));
+    await waitFor(() =>
+      expect(screen.getByLabelText("Scale used")).toHaveProperty("value", "counter scale"),
+    );
+    expect(screen.queryByTestId("changed-elsewhere")).toBeNull();
+    await save(user);
+    await waitFor(() => expect(calls.filter((c) => c.method === "PATCH")).toHaveLength(2));
+    expect(calls.at(-1)!.body!.version).toBe(4);
   });
 });

@@ -57,9 +57,12 @@ function workshopWith(
 type Call = { method: string; url: string; body: Record<string, unknown> | null };
 let calls: Call[];
 let current: Workshop;
+/** The next record save is refused as stale, as lib/http/to-error-body.ts answers it. */
+let refuseAsStale: boolean;
 
 beforeEach(() => {
   calls = [];
+  refuseAsStale = false;
   vi.stubGlobal("fetch", async (url: string, init: RequestInit = {}) => {
     const call = {
       method: init.method ?? "GET",
@@ -67,6 +70,11 @@ beforeEach(() => {
       body: init.body ? JSON.parse(String(init.body)) : null,
     };
     calls.push(call);
+    if (call.method === "PUT" && refuseAsStale) {
+      refuseAsStale = false;
+      const stale = { error: { code: "stale_write", message: "changed" }, currentVersion: 2 };
+      return Response.json(stale, { status: 409 });
+    }
     // The helpers' route answers with the real calculation behind it.
     const body =
       call.method === "GET"
@@ -136,6 +144,24 @@ describe("saving a rotating-part record is never silent", () => {
     expect(puts()).toHaveLength(1);
     await waitFor(() => expect(calls.some((c) => c.method === "GET")).toBe(true));
     expect(screen.getByTestId("rotating-save-status").textContent).toContain("Saved.");
+  });
+});
+
+describe("a record saved on another screen meanwhile", () => {
+  it("says so and loads the record as saved now into the form", async () => {
+    const user = renderScreen(workshopWith([]));
+    await user.type(screen.getByLabelText("Mass (kg)"), "20");
+    refuseAsStale = true;
+    current = workshopWith([{ part: "crankshaft", data: { massKg: "21.5" } }]);
+    await user.click(screen.getByRole("button", { name: "Save record" }));
+    const notice = await screen.findByTestId("changed-elsewhere");
+    expect(notice.textContent).toContain(
+      "someone else changed this crankshaft record since this page loaded",
+    );
+    await user.click(within(notice).getByRole("button", { name: "Load the latest" }));
+    await waitFor(() => expect(screen.getByLabelText("Mass (kg)")).toHaveProperty("value", "21.5"));
+    expect(screen.queryByTestId("changed-elsewhere")).toBeNull();
+    expect(puts()).toHaveLength(1);
   });
 });
 

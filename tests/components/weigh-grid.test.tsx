@@ -134,9 +134,14 @@ describe("the weigh-in keyboard flow", () => {
     await user.keyboard("498.6{Enter}");
     await waitFor(() =>
       expect(screen.getByTestId("cell-note-c1_piston").textContent).toContain(
-        "Changed elsewhere to 499.0",
+        "someone else changed cylinder 1 piston since this page loaded. Saved now: 499.0 g.",
       ),
     );
+    expect(puts()).toHaveLength(1);
+    // Loading the latest puts what is saved now in the box and sends nothing.
+    await user.click(screen.getByRole("button", { name: "Load the latest" }));
+    expect(cell(1, "Piston")).toHaveProperty("value", "499.0");
+    expect(screen.getByTestId("cell-note-c1_piston").textContent).toContain("saved");
     expect(puts()).toHaveLength(1);
   });
 });
@@ -462,7 +467,7 @@ describe("a save the network drops", () => {
     renderGrid();
     await waitFor(() =>
       expect(screen.getByTestId("cell-note-c1_piston").textContent).toContain(
-        "Changed elsewhere to 499.0. Yours (498.6) is not saved.",
+        "Saved now: 499.0 g. Load the latest Yours (498.6) is kept here until you choose.",
       ),
     );
     expect(stored()).toEqual([]);
