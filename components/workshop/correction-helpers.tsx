@@ -102,15 +102,34 @@ type Grams = (value: string) => string;
 /** The job's units: what the helpers' boxes are typed in. */
 type Units = { mass: Extract<MassUnit, "g" | "oz">; length: LengthUnit };
 
-/** A helper's form: the shared zod schema on the client, the same route on the server. */
-function useHelper<S extends z.ZodType<FieldValues>, A>(schema: S, defaults: z.input<S>) {
-  type V = z.input<S>;
-  const form = useForm<V & FieldValues, unknown, z.output<S>>({
-    resolver: zodResolver(schema as never) as unknown as Resolver<
-      V & FieldValues,
-      unknown,
-      z.output<S>
-    >,
+/** One box of a helper: a figure typed in, or a choice of metal that fills a density box. */
+type HelperInput<V> =
+  | { name: Path<V & FieldValues>; label: string; hint?: string; wide?: boolean }
+  | { metal: string; choices: MaterialId[]; fills: Path<V & FieldValues> };
+
+/**
+ * One correction helper: its boxes (from a list), "Work it out", and the answer. The shared zod
+ * schema checks the boxes here and the same route (POST /api/balance/hole) on the server.
+ */
+function HelperForm<S extends z.ZodType<FieldValues>, A>({
+  title,
+  testId,
+  schema,
+  defaults,
+  inputs,
+  answer,
+}: {
+  title: string;
+  testId: string;
+  schema: S;
+  defaults: z.input<S>;
+  inputs: HelperInput<z.input<S>>[];
+  /** What the answer says, given the figures that were asked. */
+  answer: (answer: A, asked: z.output<S>) => ReactNode;
+}) {
+  type V = z.input<S> & FieldValues;
+  const form = useForm<V, unknown, z.output<S>>({
+    resolver: zodResolver(schema as never) as unknown as Resolver<V, unknown, z.output<S>>,
     defaultValues: defaults as never,
   });
   const ask = useMutation({
@@ -118,11 +137,47 @@ function useHelper<S extends z.ZodType<FieldValues>, A>(schema: S, defaults: z.i
     onError: (error) => {
       if (!(error instanceof ApiError)) return;
       for (const [field, message] of Object.entries(error.fields))
-        form.setError(field as Path<V & FieldValues>, { message });
+        form.setError(field as Path<V>, { message });
     },
   });
-  const submit = form.handleSubmit((values) => ask.mutate(values));
-  return { form, ask, submit };
+  const failure = failureOf(ask.error);
+  return (
+    <form
+      className="min-w-0 rounded border border-graphite-200 p-3"
+      onSubmit={(e) => {
+        e.preventDefault();
+        void form.handleSubmit((values) => ask.mutate(values))();
+      }}
+      noValidate
+      data-testid={testId}
+    >
+      <h4 className="font-semibold">{title}</h4>
+      <div className="mt-2 flex flex-wrap items-start gap-3">
+        {inputs.map((input) =>
+          "metal" in input ? (
+            <MaterialSelect
+              key={`metal-${input.fills}`}
+              label={input.metal}
+              choices={input.choices}
+              onPick={(d) => form.setValue(input.fills, d as never)}
+            />
+          ) : (
+            <Field key={input.name} form={form} {...input} />
+          ),
+        )}
+      </div>
+      <button type="submit" className="btn-secondary mt-2 py-1" disabled={ask.isPending}>
+        {ask.isPending ? "Working…" : "Work it out"}
+      </button>
+      <div aria-live="polite" className="mt-2 text-sm">
+        {failure ? (
+          <p className="text-replace">{failure}</p>
+        ) : ask.data && ask.variables ? (
+          answer(ask.data, ask.variables)
+        ) : null}
+      </div>
+    </form>
+  );
 }
 
 function Field<V extends FieldValues>({
@@ -171,45 +226,6 @@ function Field<V extends FieldValues>({
   );
 }
 
-function HelperCard({
-  title,
-  onSubmit,
-  pending,
-  children,
-  answer,
-  failure,
-  testId,
-}: {
-  title: string;
-  onSubmit: () => void;
-  pending: boolean;
-  children: ReactNode;
-  answer: ReactNode;
-  failure: string | null;
-  testId: string;
-}) {
-  return (
-    <form
-      className="min-w-0 rounded border border-graphite-200 p-3"
-      onSubmit={(e) => {
-        e.preventDefault();
-        onSubmit();
-      }}
-      noValidate
-      data-testid={testId}
-    >
-      <h4 className="font-semibold">{title}</h4>
-      <div className="mt-2 flex flex-wrap items-start gap-3">{children}</div>
-      <button type="submit" className="btn-secondary mt-2 py-1" disabled={pending}>
-        {pending ? "Working…" : "Work it out"}
-      </button>
-      <div aria-live="polite" className="mt-2 text-sm">
-        {failure ? <p className="text-replace">{failure}</p> : answer}
-      </div>
-    </form>
-  );
-}
-
 function failureOf(error: Error | null): string | null {
   if (!error) return null;
   return error instanceof ApiError && error.status === 422
@@ -245,36 +261,44 @@ function MaterialSelect({
 }
 
 function DrillHelper({ units, drillSize }: { units: Units; drillSize: string }) {
-  const lengthUnit = units.length;
-  const { form, ask, submit } = useHelper<typeof drillHoleSchema, DrillAnswer>(drillHoleSchema, {
-    kind: "drill",
-    massUnit: units.mass,
-    lengthUnit: units.length,
-    mass: "",
-    diameter: drillSize,
-    density: MATERIAL_DENSITIES.steel.density,
-    pointAngle: DEFAULT_POINT_ANGLE_DEG,
-    availableDepth: undefined,
-  });
-  const a = ask.data;
-  // Depths in the unit the drill was given in (or the job's), the other unit beside it.
-  const unit: LengthUnit = a?.drill.unit === "in" || lengthUnit === "in" ? "in" : "mm";
-  const other: LengthUnit = unit === "in" ? "mm" : "in";
-  const depth = (mm: string) =>
-    `${formatLengthIn(mm, unit, DEPTH_STEP[unit])} (${formatLengthIn(mm, other, DEPTH_STEP[other])})`;
   return (
-    <HelperCard
+    <HelperForm<typeof drillHoleSchema, DrillAnswer>
       title="Drill depth for a mass"
       testId="helper-drill"
-      onSubmit={submit}
-      pending={ask.isPending}
-      failure={failureOf(ask.error)}
-      answer={
-        a ? (
+      schema={drillHoleSchema}
+      defaults={{
+        kind: "drill",
+        massUnit: units.mass,
+        lengthUnit: units.length,
+        mass: "",
+        diameter: drillSize,
+        density: MATERIAL_DENSITIES.steel.density,
+        pointAngle: DEFAULT_POINT_ANGLE_DEG,
+        availableDepth: undefined,
+      }}
+      inputs={[
+        { name: "mass", label: `Mass to take out (${units.mass})` },
+        { name: "diameter", label: "Drill size", hint: '8.5 mm, 3/8", #21 or F', wide: true },
+        { metal: "Metal", choices: PART_METALS, fills: "density" },
+        { name: "density", label: "Density (g/cm³)" },
+        { name: "pointAngle", label: "Point angle (°)" },
+        {
+          name: "availableDepth",
+          label: `Metal there is (${units.length}, optional)`,
+          hint: "depth before breaking through",
+        },
+      ]}
+      answer={(a, asked) => {
+        // Depths in the unit the drill was given in (or the job's), the other unit beside it.
+        const unit: LengthUnit = a.drill.unit === "in" || units.length === "in" ? "in" : "mm";
+        const other: LengthUnit = unit === "in" ? "mm" : "in";
+        const depth = (mm: string) =>
+          `${formatLengthIn(mm, unit, DEPTH_STEP[unit])} (${formatLengthIn(mm, other, DEPTH_STEP[other])})`;
+        return (
           <div className="space-y-1">
             <p className="font-semibold">
               Drill {a.drill.entered} ({formatLengthIn(a.drill.diameterMm, "mm", "0.01")}) to{" "}
-              {depth(a.tipDepth)} at the tip to take out {ask.variables?.mass} {units.mass}.
+              {depth(a.tipDepth)} at the tip to take out {asked.mass} {units.mass}.
             </p>
             <p className="text-graphite-600">
               {a.shallow
@@ -293,25 +317,9 @@ function DrillHelper({ units, drillSize }: { units: Units; drillSize: string }) 
               </p>
             ) : null}
           </div>
-        ) : null
-      }
-    >
-      <Field form={form} name="mass" label={`Mass to take out (${units.mass})`} />
-      <Field form={form} name="diameter" label="Drill size" hint='8.5 mm, 3/8", #21 or F' wide />
-      <MaterialSelect
-        label="Metal"
-        choices={PART_METALS}
-        onPick={(d) => form.setValue("density", d)}
-      />
-      <Field form={form} name="density" label="Density (g/cm³)" />
-      <Field form={form} name="pointAngle" label="Point angle (°)" />
-      <Field
-        form={form}
-        name="availableDepth"
-        label={`Metal there is (${units.length}, optional)`}
-        hint="depth before breaking through"
-      />
-    </HelperCard>
+        );
+      }}
+    />
   );
 }
 
@@ -324,136 +332,101 @@ function PlugHelper({
   grams: Grams;
   drillSize: string;
 }) {
-  const { form, ask, submit } = useHelper<typeof plugHoleSchema, PlugAnswer>(plugHoleSchema, {
-    kind: "plug",
-    lengthUnit: units.length,
-    diameter: drillSize,
-    length: "",
-    plugDensity: MATERIAL_DENSITIES.heavyMetalClass3.density,
-    hostDensity: MATERIAL_DENSITIES.steel.density,
-    pointAngle: DEFAULT_POINT_ANGLE_DEG,
-  });
-  const a = ask.data;
   return (
-    <HelperCard
+    <HelperForm<typeof plugHoleSchema, PlugAnswer>
       title="Heavy metal to add"
       testId="helper-plug"
-      onSubmit={submit}
-      pending={ask.isPending}
-      failure={failureOf(ask.error)}
-      answer={
-        a ? (
-          <div className="space-y-1">
-            <p className="font-semibold">
-              A {a.drill.entered} plug adds {grams(a.netMass)} to the part.
-            </p>
-            <p className="text-graphite-600">
-              Plug {grams(a.plugMass)}, less {grams(a.removedMass)} drilled out
-              {a.pointVoidMass
-                ? `, of which ${grams(a.pointVoidMass)} is the ${a.pointAngle}° point's cone left empty under a flat-ended plug`
-                : ""}
-              . Use the density on the supplier&apos;s certificate where you have it.
-            </p>
-          </div>
-        ) : null
-      }
-    >
-      <Field form={form} name="diameter" label="Plug size" hint='12.7 mm or 1/2"' wide />
-      <Field form={form} name="length" label={`Plug length (${units.length})`} />
-      <MaterialSelect
-        label="Heavy metal (ASTM B777)"
-        choices={HEAVY_METALS}
-        onPick={(d) => form.setValue("plugDensity", d)}
-      />
-      <Field form={form} name="plugDensity" label="Plug density (g/cm³)" />
-      <MaterialSelect
-        label="Part metal"
-        choices={PART_METALS}
-        onPick={(d) => form.setValue("hostDensity", d)}
-      />
-      <Field form={form} name="hostDensity" label="Part density (g/cm³)" />
-      <Field
-        form={form}
-        name="pointAngle"
-        label="Drill point (°)"
-        hint="leave empty for a flat-bottomed hole"
-      />
-    </HelperCard>
+      schema={plugHoleSchema}
+      defaults={{
+        kind: "plug",
+        lengthUnit: units.length,
+        diameter: drillSize,
+        length: "",
+        plugDensity: MATERIAL_DENSITIES.heavyMetalClass3.density,
+        hostDensity: MATERIAL_DENSITIES.steel.density,
+        pointAngle: DEFAULT_POINT_ANGLE_DEG,
+      }}
+      inputs={[
+        { name: "diameter", label: "Plug size", hint: '12.7 mm or 1/2"', wide: true },
+        { name: "length", label: `Plug length (${units.length})` },
+        { metal: "Heavy metal (ASTM B777)", choices: HEAVY_METALS, fills: "plugDensity" },
+        { name: "plugDensity", label: "Plug density (g/cm³)" },
+        { metal: "Part metal", choices: PART_METALS, fills: "hostDensity" },
+        { name: "hostDensity", label: "Part density (g/cm³)" },
+        {
+          name: "pointAngle",
+          label: "Drill point (°)",
+          hint: "leave empty for a flat-bottomed hole",
+        },
+      ]}
+      answer={(a) => (
+        <div className="space-y-1">
+          <p className="font-semibold">
+            A {a.drill.entered} plug adds {grams(a.netMass)} to the part.
+          </p>
+          <p className="text-graphite-600">
+            Plug {grams(a.plugMass)}, less {grams(a.removedMass)} drilled out
+            {a.pointVoidMass
+              ? `, of which ${grams(a.pointVoidMass)} is the ${a.pointAngle}° point's cone left empty under a flat-ended plug`
+              : ""}
+            . Use the density on the supplier&apos;s certificate where you have it.
+          </p>
+        </div>
+      )}
+    />
   );
 }
 
 function SplitHelper({ units, grams }: { units: Units; grams: Grams }) {
-  const { form, ask, submit } = useHelper<typeof splitHoleSchema, SplitCorrection>(
-    splitHoleSchema,
-    { kind: "split", massUnit: units.mass, mass: "", halfAngleDeg: "" },
-  );
-  const a = ask.data;
   return (
-    <HelperCard
+    <HelperForm<typeof splitHoleSchema, SplitCorrection>
       title="Split over two holes"
       testId="helper-split"
-      onSubmit={submit}
-      pending={ask.isPending}
-      failure={failureOf(ask.error)}
-      answer={
-        a ? (
-          <p>
-            <span className="font-semibold">{grams(a.massEach)} in each hole</span> at ±
-            {a.halfAngleDeg}° from the wanted angle ({grams(a.totalMass)} in both): each hole needs
-            m / (2 cos θ).
-          </p>
-        ) : null
-      }
-    >
-      <Field form={form} name="mass" label={`Correction wanted (${units.mass})`} />
-      <Field form={form} name="halfAngleDeg" label="Each hole off the angle (°)" hint="below 90" />
-    </HelperCard>
+      schema={splitHoleSchema}
+      defaults={{ kind: "split", massUnit: units.mass, mass: "", halfAngleDeg: "" }}
+      inputs={[
+        { name: "mass", label: `Correction wanted (${units.mass})` },
+        { name: "halfAngleDeg", label: "Each hole off the angle (°)", hint: "below 90" },
+      ]}
+      answer={(a) => (
+        <p>
+          <span className="font-semibold">{grams(a.massEach)} in each hole</span> at ±
+          {a.halfAngleDeg}° from the wanted angle ({grams(a.totalMass)} in both): each hole needs m
+          / (2 cos θ).
+        </p>
+      )}
+    />
   );
 }
 
 function MoveHelper({ units, grams }: { units: Units; grams: Grams }) {
-  const { form, ask, submit } = useHelper<typeof moveHoleSchema, MovedCorrection>(moveHoleSchema, {
-    kind: "move",
-    massUnit: units.mass,
-    lengthUnit: units.length,
-    mass: "",
-    fromRadius: "",
-    toRadius: "",
-  });
-  const a = ask.data;
   return (
-    <HelperCard
+    <HelperForm<typeof moveHoleSchema, MovedCorrection>
       title="Move to another radius"
       testId="helper-move"
-      onSubmit={submit}
-      pending={ask.isPending}
-      failure={failureOf(ask.error)}
-      answer={
-        a ? (
-          <p>
-            <span className="font-semibold">
-              {grams(a.mass)} at {ask.variables?.toRadius} {units.length}
-            </span>{" "}
-            does the same as {ask.variables?.mass} {units.mass} at {ask.variables?.fromRadius}{" "}
-            {units.length} ({formatUnbalance(unbalanceIn(a.unbalance, units))}{" "}
-            {unbalanceUnit(units)}).
-          </p>
-        ) : null
-      }
-    >
-      <Field form={form} name="mass" label={`Mass (${units.mass})`} />
-      <Field
-        form={form}
-        name="fromRadius"
-        label={`At radius (${units.length})`}
-        hint="e.g. the balancer's"
-      />
-      <Field
-        form={form}
-        name="toRadius"
-        label={`Wanted radius (${units.length})`}
-        hint="where you can drill"
-      />
-    </HelperCard>
+      schema={moveHoleSchema}
+      defaults={{
+        kind: "move",
+        massUnit: units.mass,
+        lengthUnit: units.length,
+        mass: "",
+        fromRadius: "",
+        toRadius: "",
+      }}
+      inputs={[
+        { name: "mass", label: `Mass (${units.mass})` },
+        { name: "fromRadius", label: `At radius (${units.length})`, hint: "e.g. the balancer's" },
+        { name: "toRadius", label: `Wanted radius (${units.length})`, hint: "where you can drill" },
+      ]}
+      answer={(a, asked) => (
+        <p>
+          <span className="font-semibold">
+            {grams(a.mass)} at {asked.toRadius} {units.length}
+          </span>{" "}
+          does the same as {asked.mass} {units.mass} at {asked.fromRadius} {units.length} (
+          {formatUnbalance(unbalanceIn(a.unbalance, units))} {unbalanceUnit(units)}).
+        </p>
+      )}
+    />
   );
 }
