@@ -1,5 +1,4 @@
 import type { Kysely } from "kysely";
-import { createAuditEntry } from "./audit";
 import type { Database } from "./schema";
 import type { InviteRow } from "./uploads-schema";
 
@@ -39,42 +38,39 @@ export interface NewInvite {
   expiresAt: string;
 }
 
-/** Stores a new invite and retires any open one for the same address, so only the newest link works. */
-export async function createInvite(
+/** Retires every open invite for this address (a newer one is about to be stored). */
+export async function retireOpenInvites(
+  db: Kysely<Database>,
+  email: string,
+  now = new Date(),
+): Promise<void> {
+  await db
+    .updateTable("invites")
+    .set({ revoked_at: now.toISOString() })
+    .where("email", "=", email)
+    .where("used_at", "is", null)
+    .where("revoked_at", "is", null)
+    .execute();
+}
+
+/** Stores a new invite (only the SHA-256 of its token). */
+export async function insertInvite(
   db: Kysely<Database>,
   input: NewInvite,
   actorId: number | null,
-  now = new Date(),
 ): Promise<Invite> {
-  return db.transaction().execute(async (trx) => {
-    await trx
-      .updateTable("invites")
-      .set({ revoked_at: now.toISOString() })
-      .where("email", "=", input.email)
-      .where("used_at", "is", null)
-      .where("revoked_at", "is", null)
-      .execute();
-    const row = await trx
-      .insertInto("invites")
-      .values({
-        customer_id: input.customerId,
-        email: input.email,
-        token_hash: input.tokenHash,
-        expires_at: input.expiresAt,
-        created_by: actorId,
-      })
-      .returningAll()
-      .executeTakeFirstOrThrow();
-    const invite = toInvite(row);
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "invite",
-      entity: "customer",
-      entityId: input.customerId,
-      after: invite,
-    });
-    return invite;
-  });
+  const row = await db
+    .insertInto("invites")
+    .values({
+      customer_id: input.customerId,
+      email: input.email,
+      token_hash: input.tokenHash,
+      expires_at: input.expiresAt,
+      created_by: actorId,
+    })
+    .returningAll()
+    .executeTakeFirstOrThrow();
+  return toInvite(row);
 }
 
 export async function updateInviteMail(

@@ -1,18 +1,21 @@
 import { createHash, randomBytes } from "node:crypto";
+import { createAuditEntry } from "@/db/audit";
 import type { DB } from "@/db/client";
 import { findCounterSettings } from "@/db/counter-settings";
 import { findCustomerById } from "@/db/customers";
 import { ConflictError } from "@/db/errors";
 import {
-  createInvite,
   findInviteByTokenHash,
+  insertInvite,
   type Invite,
   markInviteUsed,
+  type NewInvite,
+  retireOpenInvites,
   updateInviteMail,
 } from "@/db/invites";
 import type { MailLogEntry } from "@/db/mail";
 import { findUserByEmail, type User } from "@/db/users";
-import { createUser } from "@/lib/users/manage";
+import { createUserIn } from "@/lib/users/manage";
 import { hashPassword } from "@/lib/auth/password";
 import { shopDateTime } from "@/lib/dates/shop-time";
 import { appBaseUrl, env } from "@/lib/env";
@@ -22,6 +25,30 @@ import { type SendOptions, sendMail } from "./send";
 
 export function hashInviteToken(token: string): string {
   return createHash("sha256").update(token, "utf8").digest("hex");
+}
+
+/**
+ * Stores a new invite and retires any open one for the same address, so only the newest link
+ * works; one transaction, with the invite in the customer's history.
+ */
+export async function createInvite(
+  db: DB,
+  input: NewInvite,
+  actorId: number | null,
+  now = new Date(),
+): Promise<Invite> {
+  return db.transaction().execute(async (trx) => {
+    await retireOpenInvites(trx, input.email, now);
+    const invite = await insertInvite(trx, input, actorId);
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "invite",
+      entity: "customer",
+      entityId: input.customerId,
+      after: invite,
+    });
+    return invite;
+  });
 }
 
 /** Where links in e-mails point (one rule for the whole app: lib/env.ts). */
@@ -120,6 +147,11 @@ const CLOSED: Record<Exclude<InviteState["state"], "open">, [number, string, str
   expired: [410, "invite_expired", "This link has expired. Ask the shop to send a new invite."],
 };
 
+function closed(state: Exclude<InviteState["state"], "open">): HttpError {
+  const [status, code, message] = CLOSED[state];
+  return new HttpError(status, code, message);
+}
+
 /** The customer sets a password from the link; their account is made and they can sign in. */
 export async function acceptInvite(
   db: DB,
@@ -130,21 +162,28 @@ export async function acceptInvite(
   const state = stateOf(invite, now);
   const customer = invite && (await findCustomerById(db, invite.customerId));
   if (state.state !== "open" || !invite || !customer) {
-    const [status, code, message] = CLOSED[state.state === "open" ? "unknown" : state.state];
-    throw new HttpError(status, code, message);
+    throw closed(state.state === "open" ? "unknown" : state.state);
   }
-  // The unique e-mail on users makes a second, simultaneous use of the same link fail here (409).
-  const user = await createUser(
-    db,
-    {
-      email: invite.email,
-      name: customer.name,
-      passwordHash: await hashPassword(input.password),
-      role: "customer",
-      customerId: customer.id,
-    },
-    null,
-  );
-  await markInviteUsed(db, invite.id, user.id, now);
-  return user;
+  const passwordHash = await hashPassword(input.password);
+  // One transaction: the account is made and the invite used up together. The unique e-mail on
+  // users makes a second, simultaneous use of the same link fail (409); an invite retired or
+  // expired in the meantime makes no account.
+  return db.transaction().execute(async (trx) => {
+    const user = await createUserIn(
+      trx,
+      {
+        email: invite.email,
+        name: customer.name,
+        passwordHash,
+        role: "customer",
+        customerId: customer.id,
+      },
+      null,
+    );
+    if (!(await markInviteUsed(trx, invite.id, user.id, now))) {
+      const current = stateOf(await findInviteByTokenHash(trx, hashInviteToken(input.token)), now);
+      throw closed(current.state === "open" ? "unknown" : current.state);
+    }
+    return user;
+  });
 }

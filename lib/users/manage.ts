@@ -40,27 +40,30 @@ export interface UserChanges {
  * @throws ConflictError (409, field email) when an account already has this e-mail.
  */
 export async function createUser(db: DB, input: NewUser, actorId: number | null): Promise<User> {
-  return db.transaction().execute(async (trx) => {
-    const email = normaliseEmail(input.email);
-    if (await findUserByEmail(trx, email)) {
-      throw new ConflictError("email", "A user with this e-mail already exists.");
-    }
-    const user = await insertUser(trx, {
-      email,
-      name: input.name.trim(),
-      passwordHash: input.passwordHash,
-      role: input.role,
-      customerId: input.role === "customer" ? (input.customerId ?? null) : null,
-    });
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "create",
-      entity: "user",
-      entityId: user.id,
-      after: user,
-    });
-    return user;
+  return db.transaction().execute((trx) => createUserIn(trx, input, actorId));
+}
+
+/** createUser inside the caller's transaction (accepting an invite makes the account and uses it up). */
+export async function createUserIn(trx: DB, input: NewUser, actorId: number | null): Promise<User> {
+  const email = normaliseEmail(input.email);
+  if (await findUserByEmail(trx, email)) {
+    throw new ConflictError("email", "A user with this e-mail already exists.");
+  }
+  const user = await insertUser(trx, {
+    email,
+    name: input.name.trim(),
+    passwordHash: input.passwordHash,
+    role: input.role,
+    customerId: input.role === "customer" ? (input.customerId ?? null) : null,
   });
+  await createAuditEntry(trx, {
+    userId: actorId,
+    action: "create",
+    entity: "user",
+    entityId: user.id,
+    after: user,
+  });
+  return user;
 }
 
 /** The row a change makes of `before`: a role change or a disable ends every earlier session. */
