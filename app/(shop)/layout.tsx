@@ -1,13 +1,13 @@
 import type { ReactNode } from "react";
 import { Providers } from "@/components/providers";
 import { AppHeader } from "@/components/shell/app-header";
-import { ALL_ROLES, requirePageUser } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
 
 // Every shop page depends on who is signed in: never prerendered.
 export const dynamic = "force-dynamic";
 
 export default async function ShopLayout({ children }: { children: ReactNode }) {
-  const user = await requirePageUser(ALL_ROLES);
+  const user = await requirePagePermission("use-app");
   return (
     <>
       <AppHeader user={user} />

@@ -1,12 +1,12 @@
 import type { ReactNode } from "react";
 import { AppHeader } from "@/components/shell/app-header";
-import { ALL_ROLES, requirePageUser } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
 
 // Where the payment page sends people back to; it reads the database, so never prerendered.
 export const dynamic = "force-dynamic";
 
 export default async function PayLayout({ children }: { children: ReactNode }) {
-  const user = await requirePageUser(ALL_ROLES, "/invoices");
+  const user = await requirePagePermission("use-app", "/invoices");
   return (
     <>
       <AppHeader user={user} />

@@ -3,14 +3,15 @@ import { cache } from "react";
 import { getDb } from "@/db/client";
 import type { Job } from "@/db/jobs";
 import type { User } from "@/db/users";
-import { ALL_ROLES, requirePageUser } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
+import { may } from "@/lib/auth/policy";
 import { HttpError } from "@/lib/http/errors";
 import { findJobForUser } from "./access";
 
 /** The job a job page is about, for this user, or the not-found page. Cached per request. */
 export const loadPageJob = cache(
   async (rawId: string, path: string): Promise<{ job: Job; user: User }> => {
-    const user = await requirePageUser(ALL_ROLES, path);
+    const user = await requirePagePermission("read-job", path);
     const id = Number(rawId);
     if (!/^\d{1,12}$/.test(rawId) || !Number.isSafeInteger(id) || id < 1) notFound();
     try {
@@ -32,6 +33,6 @@ export async function loadBenchPageJob(
   path: string,
 ): Promise<{ job: Job; user: User }> {
   const loaded = await loadPageJob(rawId, path);
-  if (loaded.user.role === "customer") notFound();
+  if (!may(loaded.user, "read-bench")) notFound();
   return loaded;
 }

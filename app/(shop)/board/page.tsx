@@ -4,7 +4,8 @@ import { getDb } from "@/db/client";
 import { findCounterSettings } from "@/db/counter-settings";
 import { type Job, listJobs } from "@/db/jobs";
 import type { JobStatus } from "@/db/schema";
-import { requirePageUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
+import { readyFirstOnBoard } from "@/lib/auth/policy";
 import { shopToday } from "@/lib/dates/shop-time";
 
 export const metadata = { title: "Bench board" };
@@ -38,7 +39,7 @@ function JobCard({ job, today }: { job: Job; today: string }) {
 
 /** Today's work on the bench by where each job stands, and what waits at the counter for collection. */
 export default async function BoardPage() {
-  const user = await requirePageUser(SHOP_ROLES, "/board");
+  const user = await requirePagePermission("see-board", "/board");
   const db = getDb();
   // "Today" and "overdue" on the shop's calendar, in its own time zone (not UTC's).
   const today = shopToday((await findCounterSettings(db)).timeZone);
@@ -66,7 +67,7 @@ export default async function BoardPage() {
   return (
     <div className="space-y-6">
       <h1 className="text-2xl font-semibold">Bench board</h1>
-      {user.role === "counter" ? readySection : null}
+      {readyFirstOnBoard(user) ? readySection : null}
       <section aria-label="On the bench" className="grid gap-4 md:grid-cols-3 xl:grid-cols-5">
         {BENCH.map((s) => (
           <div key={s} className="rounded-md bg-graphite-100 p-3">
@@ -81,7 +82,7 @@ export default async function BoardPage() {
           </div>
         ))}
       </section>
-      {user.role !== "counter" ? readySection : null}
+      {!readyFirstOnBoard(user) ? readySection : null}
     </div>
   );
 }

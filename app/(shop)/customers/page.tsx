@@ -5,7 +5,8 @@ import { Pager } from "@/components/ui/pager";
 import { getDb } from "@/db/client";
 import { findCounterSettings } from "@/db/counter-settings";
 import { listCustomers } from "@/db/customers";
-import { requirePageUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
+import { may } from "@/lib/auth/policy";
 import { listQuerySchema } from "@/lib/validation/customers";
 
 export const metadata = { title: "Customers" };
@@ -15,7 +16,7 @@ export default async function CustomersPage({
 }: {
   searchParams: Promise<Record<string, string | undefined>>;
 }) {
-  const user = await requirePageUser(SHOP_ROLES, "/customers");
+  const user = await requirePagePermission("read-customers", "/customers");
   const raw = await searchParams;
   const parsed = listQuerySchema.safeParse(raw);
   const query = parsed.success ? parsed.data : listQuerySchema.parse({});
@@ -27,7 +28,7 @@ export default async function CustomersPage({
     }),
     findCounterSettings(getDb()),
   ]);
-  const canAdd = user.role === "owner" || user.role === "counter";
+  const canAdd = may(user, "manage-customers");
 
   return (
     <section className="space-y-4">

@@ -5,7 +5,8 @@ import { Pager } from "@/components/ui/pager";
 import { INVOICE_STATUSES } from "@/db/billing-schema";
 import { getDb } from "@/db/client";
 import { listInvoices } from "@/db/invoices";
-import { requirePageUser } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
+import { isCustomer } from "@/lib/auth/policy";
 import { formatMoney } from "@/lib/billing/format";
 import { subtractMoney } from "@/lib/billing/money";
 import { customerScope } from "@/lib/jobs/access";
@@ -18,7 +19,7 @@ export default async function InvoicesPage({
 }: {
   searchParams: Promise<Record<string, string | undefined>>;
 }) {
-  const user = await requirePageUser(["owner", "counter", "customer"], "/invoices");
+  const user = await requirePagePermission("list-invoices", "/invoices");
   const raw = await searchParams;
   const parsed = invoiceListQuerySchema.safeParse(raw);
   const query = parsed.success ? parsed.data : invoiceListQuerySchema.parse({});
@@ -36,7 +37,7 @@ export default async function InvoicesPage({
     <section>
       <div className="mb-4 flex flex-wrap items-end justify-between gap-4">
         <h1 className="text-2xl font-semibold">
-          {user.role === "customer" ? "Your invoices" : "Invoices"}
+          {isCustomer(user) ? "Your invoices" : "Invoices"}
         </h1>
         <form className="flex items-end gap-2">
           <label className="text-sm">

@@ -4,7 +4,7 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { getDb } from "@/db/client";
 import type { MailLogEntry } from "@/db/mail";
-import { checkAccess } from "@/lib/auth/guard";
+import { checkPermission } from "@/lib/auth/guard";
 import { type ActionResult, toActionFailure } from "@/lib/http/action-result";
 import { retryMail } from "@/lib/mail/send";
 
@@ -14,7 +14,7 @@ export async function retryMailAction(
   _prev: ActionResult<MailLogEntry> | null,
   form: FormData,
 ): Promise<ActionResult<MailLogEntry>> {
-  const access = await checkAccess(["owner"]);
+  const access = await checkPermission("manage-mail");
   if (!access.ok) return { ok: false, status: access.status, message: access.message };
   try {
     const { mailId } = retrySchema.parse({ mailId: form.get("mailId") });

@@ -3,14 +3,14 @@ import { RetryMailButton } from "@/components/mail/retry-mail-button";
 import { formatFileSize } from "@/components/uploads/format";
 import { getDb } from "@/db/client";
 import { findCounterSettings } from "@/db/counter-settings";
-import { requirePageUser } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
 import { shopDateTime } from "@/lib/dates/shop-time";
 import { readOutbox } from "@/lib/mail/outbox";
 
 export const metadata = { title: "Mail outbox" };
 
 export default async function OutboxPage() {
-  await requirePageUser(["owner"], "/outbox");
+  await requirePagePermission("manage-mail", "/outbox");
   const [{ log }, { timeZone }] = await Promise.all([
     readOutbox(getDb()),
     findCounterSettings(getDb()),

@@ -4,7 +4,7 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { getDb } from "@/db/client";
 import type { PriceItem } from "@/db/prices";
-import { checkAccess } from "@/lib/auth/guard";
+import { checkPermission } from "@/lib/auth/guard";
 import { createPriceItem, updatePriceItem } from "@/lib/billing/prices";
 import { type ActionResult, toActionFailure } from "@/lib/http/action-result";
 import { priceItemChangesSchema, priceItemSchema } from "@/lib/validation/billing";
@@ -27,7 +27,7 @@ export async function createPriceAction(
   _prev: ActionResult<PriceItem> | null,
   form: FormData,
 ): Promise<ActionResult<PriceItem>> {
-  const access = await checkAccess(["owner"]);
+  const access = await checkPermission("manage-prices");
   if (!access.ok) return { ok: false, status: access.status, message: access.message };
   try {
     const input = priceItemSchema.parse({ ...priceValues(form), active: true });
@@ -48,7 +48,7 @@ export async function updatePriceAction(
   _prev: ActionResult<PriceItem> | null,
   form: FormData,
 ): Promise<ActionResult<PriceItem>> {
-  const access = await checkAccess(["owner"]);
+  const access = await checkPermission("manage-prices");
   if (!access.ok) return { ok: false, status: access.status, message: access.message };
   try {
     const { id, version } = idSchema.parse({ id: form.get("id"), version: form.get("version") });

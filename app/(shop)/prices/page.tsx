@@ -2,12 +2,12 @@ import { AddPriceForm, PriceRow } from "@/components/billing/price-forms";
 import { getDb } from "@/db/client";
 import { listPriceItems } from "@/db/prices";
 import { findShopSettings } from "@/db/settings";
-import { requirePageUser } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
 
 export const metadata = { title: "Prices" };
 
 export default async function PricesPage() {
-  await requirePageUser(["owner"], "/prices");
+  await requirePagePermission("manage-prices", "/prices");
   const db = getDb();
   const [prices, settings] = await Promise.all([listPriceItems(db), findShopSettings(db)]);
   return (

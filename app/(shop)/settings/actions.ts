@@ -3,7 +3,7 @@
 import { revalidatePath } from "next/cache";
 import { getDb } from "@/db/client";
 import { type ShopSettings, updateShopSettings } from "@/db/settings";
-import { checkAccess } from "@/lib/auth/guard";
+import { checkPermission } from "@/lib/auth/guard";
 import { type ActionResult, toActionFailure } from "@/lib/http/action-result";
 import { settingsSchema } from "@/lib/validation/billing";
 
@@ -11,7 +11,7 @@ export async function saveSettingsAction(
   _prev: ActionResult<ShopSettings> | null,
   form: FormData,
 ): Promise<ActionResult<ShopSettings>> {
-  const access = await checkAccess(["owner"]);
+  const access = await checkPermission("manage-settings");
   if (!access.ok) return { ok: false, status: access.status, message: access.message };
   try {
     const values = Object.fromEntries(

@@ -2,12 +2,12 @@ import Link from "next/link";
 import { SettingsForm } from "@/components/billing/settings-form";
 import { getDb } from "@/db/client";
 import { findShopSettings } from "@/db/settings";
-import { requirePageUser } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
 
 export const metadata = { title: "Shop settings" };
 
 export default async function SettingsPage() {
-  await requirePageUser(["owner"], "/settings");
+  await requirePagePermission("manage-settings", "/settings");
   const settings = await findShopSettings(getDb());
   return (
     <section className="max-w-3xl space-y-4">

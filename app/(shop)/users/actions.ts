@@ -5,7 +5,7 @@ import { z } from "zod";
 import { getDb } from "@/db/client";
 import type { User } from "@/db/users";
 import { resetUserPassword } from "@/lib/auth/change-password";
-import { checkAccess } from "@/lib/auth/guard";
+import { checkPermission } from "@/lib/auth/guard";
 import { resetPasswordSchema } from "@/lib/auth/password-schema";
 import { type ActionResult, toActionFailure } from "@/lib/http/action-result";
 import { formValues } from "@/lib/http/form-values";
@@ -16,7 +16,7 @@ export async function createUserAction(
   _prev: ActionResult<User> | null,
   form: FormData,
 ): Promise<ActionResult<User>> {
-  const access = await checkAccess(["owner"]);
+  const access = await checkPermission("manage-users");
   if (!access.ok) return { ok: false, status: access.status, message: access.message };
   try {
     const user = await addUser(getDb(), newUserSchema.parse(formValues(form)), access.user);
@@ -33,7 +33,7 @@ export async function changeUserAction(
   _prev: ActionResult<User> | null,
   form: FormData,
 ): Promise<ActionResult<User>> {
-  const access = await checkAccess(["owner"]);
+  const access = await checkPermission("manage-users");
   if (!access.ok) return { ok: false, status: access.status, message: access.message };
   try {
     const { userId, ...rest } = formValues(form);
@@ -55,7 +55,7 @@ export async function resetPasswordAction(
   _prev: ActionResult | null,
   form: FormData,
 ): Promise<ActionResult> {
-  const access = await checkAccess(["owner"]);
+  const access = await checkPermission("manage-users");
   if (!access.ok) return { ok: false, status: access.status, message: access.message };
   try {
     const input = resetPasswordSchema.parse(formValues(form));

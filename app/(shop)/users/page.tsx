@@ -6,12 +6,12 @@ import { findCounterSettings } from "@/db/counter-settings";
 import { listCustomers } from "@/db/customers";
 import { listThrottleNotices } from "@/db/sign-in-failures";
 import { listUsers } from "@/db/users";
-import { requirePageUser } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
 
 export const metadata = { title: "Staff & access" };
 
 export default async function UsersPage() {
-  await requirePageUser(["owner"], "/users");
+  await requirePagePermission("manage-users", "/users");
   const db = getDb();
   const [users, { customers }, notices, { timeZone }] = await Promise.all([
     listUsers(db),

@@ -3,7 +3,7 @@ import { notFound } from "next/navigation";
 import { BillingStatus } from "@/components/billing/billing-status";
 import { RefreshWhileWaiting } from "@/components/billing/refresh-while-waiting";
 import { getDb } from "@/db/client";
-import { requirePageUser } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
 import { findInvoiceForUser } from "@/lib/billing/access";
 import { formatMoney } from "@/lib/billing/format";
 import { subtractMoney } from "@/lib/billing/money";
@@ -25,7 +25,7 @@ export default async function PayReturnPage({
   const returnTo = `/pay/return?invoice=${encodeURIComponent(raw ?? "")}${
     result === "success" || result === "cancelled" ? `&result=${result}` : ""
   }`;
-  const user = await requirePageUser(["owner", "counter", "customer"], returnTo);
+  const user = await requirePagePermission("pay-invoice", returnTo);
   const id = Number(raw);
   if (!raw || !/^\d{1,12}$/.test(raw) || !Number.isSafeInteger(id) || id < 1) notFound();
   const invoice = await findInvoiceForUser(getDb(), id, user).catch((e: unknown) => {

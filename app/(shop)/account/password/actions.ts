@@ -2,7 +2,7 @@
 
 import { getDb } from "@/db/client";
 import { changeOwnPassword } from "@/lib/auth/change-password";
-import { ALL_ROLES, checkAccess } from "@/lib/auth/guard";
+import { checkPermission } from "@/lib/auth/guard";
 import { changePasswordSchema } from "@/lib/auth/password-schema";
 import { reissueSessionCookie } from "@/lib/auth/reissue-session";
 import { type ActionResult, toActionFailure } from "@/lib/http/action-result";
@@ -12,7 +12,7 @@ export async function changePasswordAction(
   _prev: ActionResult | null,
   form: FormData,
 ): Promise<ActionResult> {
-  const access = await checkAccess(ALL_ROLES);
+  const access = await checkPermission("change-own-password");
   if (!access.ok) return { ok: false, status: access.status, message: access.message };
   try {
     const input = changePasswordSchema.parse(formValues(form));

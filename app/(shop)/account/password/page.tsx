@@ -1,10 +1,10 @@
 import { ChangePasswordForm } from "@/components/auth/change-password-form";
-import { ALL_ROLES, requirePageUser } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
 
 export const metadata = { title: "Change password" };
 
 export default async function ChangePasswordPage() {
-  const user = await requirePageUser(ALL_ROLES, "/account/password");
+  const user = await requirePagePermission("change-own-password", "/account/password");
   return (
     <div className="mx-auto max-w-md">
       <h1 className="mb-1 text-2xl font-semibold">Change password</h1>

@@ -7,7 +7,8 @@ import { getDb } from "@/db/client";
 import { findCounterSettings } from "@/db/counter-settings";
 import { findCustomerById, listCustomerHistory, listCustomers } from "@/db/customers";
 import { listJobs } from "@/db/jobs";
-import { requirePageUser, SHOP_ROLES } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
+import { may } from "@/lib/auth/policy";
 
 export const metadata = { title: "Customer" };
 
@@ -19,13 +20,13 @@ export default async function CustomerPage({
   searchParams: Promise<Record<string, string | undefined>>;
 }) {
   const { id } = await params;
-  const user = await requirePageUser(SHOP_ROLES, `/customers/${id}`);
+  const user = await requirePagePermission("read-customers", `/customers/${id}`);
   const customerId = Number(id);
   if (!/^\d{1,12}$/.test(id) || !Number.isSafeInteger(customerId) || customerId < 1) notFound();
   const db = getDb();
   const customer = await findCustomerById(db, customerId);
   if (!customer) notFound();
-  const canEdit = user.role === "owner" || user.role === "counter";
+  const canEdit = may(user, "manage-customers");
   const [{ jobs, total }, history, { timeZone }, others, { merged }] = await Promise.all([
     listJobs(db, { customerId, limit: 50 }),
     listCustomerHistory(db, customerId),

@@ -4,6 +4,7 @@ import { JobTabs } from "@/components/jobs/job-tabs";
 import { StatusBadge } from "@/components/jobs/status-badge";
 import { getDb } from "@/db/client";
 import { findCounterSettings } from "@/db/counter-settings";
+import { may } from "@/lib/auth/policy";
 import { findCardStatus } from "@/lib/cards/status";
 import { env } from "@/lib/env";
 import { loadPageJob } from "@/lib/jobs/page-job";
@@ -19,7 +20,7 @@ export default async function JobLayout({
   const { job, user } = await loadPageJob(id, `/jobs/${id}`);
   // Shop staff see when the job has moved on from its balance card, on every page of the job.
   const [cardStatus, { timeZone }] = await Promise.all([
-    user.role === "customer" ? null : findCardStatus(getDb(), job.id, user),
+    !may(user, "read-bench") ? null : findCardStatus(getDb(), job.id, user),
     findCounterSettings(getDb()),
   ]);
   return (
@@ -36,7 +37,7 @@ export default async function JobLayout({
         <CardStaleBanner
           jobId={job.id}
           initial={cardStatus}
-          canIssue={user.role === "machinist" || user.role === "owner"}
+          canIssue={may(user, "issue-card")}
           defaultPageSize={env().CARD_PAGE_SIZE}
           timeZone={timeZone}
         />

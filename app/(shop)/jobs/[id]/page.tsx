@@ -9,6 +9,7 @@ import { listJobChanges } from "@/db/audit";
 import { listBuildRequests } from "@/db/build-record";
 import { getDb } from "@/db/client";
 import { findCounterSettings } from "@/db/counter-settings";
+import { isCustomer } from "@/lib/auth/policy";
 import { findLayoutPreset } from "@/lib/balance";
 import { showLength } from "@/lib/jobs/lengths";
 import { loadJobBilling } from "@/lib/billing/job-billing";
@@ -19,7 +20,7 @@ import { loadWorkshop } from "@/lib/workshop/load";
 export default async function JobOverviewPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const { job, user } = await loadPageJob(id, `/jobs/${id}`);
-  if (user.role === "customer") {
+  if (isCustomer(user)) {
     // The customer's own page: state, what was done, cards, quote and invoice; no bench screens.
     const [workshop, billing] = await Promise.all([
       loadWorkshop(getDb(), job),

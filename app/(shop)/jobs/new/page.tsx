@@ -1,12 +1,12 @@
 import { BookingForm } from "@/components/jobs/booking-form";
 import { getDb } from "@/db/client";
 import { findCounterSettings } from "@/db/counter-settings";
-import { requirePageUser } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
 
 export const metadata = { title: "Book a job in" };
 
 export default async function NewJobPage() {
-  await requirePageUser(["owner", "counter"], "/jobs/new");
+  await requirePagePermission("book-job", "/jobs/new");
   // A promised date already past is judged on the shop's calendar.
   const { timeZone } = await findCounterSettings(getDb());
   return (

@@ -1,13 +1,13 @@
 import Link from "next/link";
 import { BuildSettingsForm } from "@/components/build/build-settings-form";
 import { getDb } from "@/db/client";
-import { requirePageUser } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
 import { loadBuildSettings } from "@/lib/build-record/record";
 
 export const metadata = { title: "Engine build settings" };
 
 export default async function BuildSettingsPage() {
-  await requirePageUser(["owner"], "/settings/build");
+  await requirePagePermission("manage-settings", "/settings/build");
   const { settings, version } = await loadBuildSettings(getDb());
   return (
     <section className="max-w-4xl space-y-4">

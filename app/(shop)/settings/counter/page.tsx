@@ -3,12 +3,12 @@ import { CounterSettingsForm } from "@/components/customer/counter-settings-form
 import { getDb } from "@/db/client";
 import { findCounterSettings } from "@/db/counter-settings";
 import { findShopSettings } from "@/db/settings";
-import { requirePageUser } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
 
 export const metadata = { title: "E-mails and time zone" };
 
 export default async function CounterSettingsPage() {
-  await requirePageUser(["owner"], "/settings/counter");
+  await requirePagePermission("manage-settings", "/settings/counter");
   const [settings, shop] = await Promise.all([
     findCounterSettings(getDb()),
     findShopSettings(getDb()),

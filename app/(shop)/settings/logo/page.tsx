@@ -2,13 +2,13 @@ import Link from "next/link";
 import { LogoForm } from "@/components/cards/logo-form";
 import { findShopLogo } from "@/db/cards";
 import { getDb } from "@/db/client";
-import { requirePageUser } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
 import { describeLogo } from "@/lib/cards/logo";
 
 export const metadata = { title: "Logo on balance cards" };
 
 export default async function LogoSettingsPage() {
-  await requirePageUser(["owner"], "/settings/logo");
+  await requirePagePermission("manage-settings", "/settings/logo");
   const logo = describeLogo(await findShopLogo(getDb()));
   return (
     <section className="max-w-3xl space-y-4">

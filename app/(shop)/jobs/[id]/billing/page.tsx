@@ -2,7 +2,8 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { JobBillingPanel } from "@/components/billing/job-billing-panel";
 import { getDb } from "@/db/client";
-import { requirePageUser } from "@/lib/auth/guard";
+import { requirePagePermission } from "@/lib/auth/guard";
+import { isCustomer } from "@/lib/auth/policy";
 import { loadJobBilling } from "@/lib/billing/job-billing";
 import { HttpError } from "@/lib/http/errors";
 
@@ -10,14 +11,14 @@ export const metadata = { title: "Quote & invoice" };
 
 export default async function JobBillingPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  const user = await requirePageUser(["owner", "counter", "customer"], `/jobs/${id}/billing`);
+  const user = await requirePagePermission("read-billing", `/jobs/${id}/billing`);
   const jobId = Number(id);
   if (!/^\d{1,12}$/.test(id) || !Number.isSafeInteger(jobId) || jobId < 1) notFound();
   const billing = await loadJobBilling(getDb(), jobId, user).catch((e: unknown) => {
     if (e instanceof HttpError && e.status === 404) notFound();
     throw e;
   });
-  const role = user.role === "customer" ? "customer" : "staff";
+  const role = isCustomer(user) ? "customer" : "staff";
   return (
     <article className="space-y-6">
       <header className="flex flex-wrap items-baseline gap-4">

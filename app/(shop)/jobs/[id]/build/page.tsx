@@ -3,6 +3,7 @@ import { BuildRecordScreen } from "@/components/build/build-record-screen";
 import { listBuildCards } from "@/db/build-record";
 import { getDb } from "@/db/client";
 import { findCounterSettings } from "@/db/counter-settings";
+import { may } from "@/lib/auth/policy";
 import { loadBuildRecord, recordShownTo } from "@/lib/build-record/record";
 import { loadPageJob } from "@/lib/jobs/page-job";
 
@@ -34,7 +35,7 @@ export default async function BuildRecordPage({ params }: { params: Promise<{ id
       <BuildRecordScreen
         initial={record}
         cylinders={s.cylinders ?? 8}
-        readOnly={user.role !== "machinist" && user.role !== "owner"}
+        readOnly={!may(user, "edit-build-record")}
         jobBore={jobBore}
       />
     </div>

@@ -1,6 +1,7 @@
 import { RemovalPlan } from "@/components/workshop/removal-plan";
 import { getDb } from "@/db/client";
 import { findCounterSettings } from "@/db/counter-settings";
+import { may } from "@/lib/auth/policy";
 import { loadBenchPageJob } from "@/lib/jobs/page-job";
 import { loadWorkshop } from "@/lib/workshop/load";
 
@@ -17,7 +18,7 @@ export default async function PlanPage({ params }: { params: Promise<{ id: strin
     <RemovalPlan
       jobId={job.id}
       initial={workshop}
-      canEdit={user.role === "machinist" || user.role === "owner"}
+      canEdit={may(user, "weigh")}
       timeZone={timeZone}
     />
   );

@@ -1,5 +1,6 @@
 import { RotatingParts } from "@/components/workshop/rotating-parts";
 import { getDb } from "@/db/client";
+import { may } from "@/lib/auth/policy";
 import { loadBenchPageJob } from "@/lib/jobs/page-job";
 import { loadWorkshop } from "@/lib/workshop/load";
 
@@ -12,7 +13,7 @@ export default async function RotatingPage({ params }: { params: Promise<{ id: s
     <RotatingParts
       jobId={job.id}
       initial={await loadWorkshop(getDb(), job)}
-      canEdit={user.role === "machinist" || user.role === "owner"}
+      canEdit={may(user, "weigh")}
     />
   );
 }

@@ -1,5 +1,6 @@
 import { WeighBench } from "@/components/workshop/weigh-bench";
 import { getDb } from "@/db/client";
+import { may } from "@/lib/auth/policy";
 import { loadBenchPageJob } from "@/lib/jobs/page-job";
 import { loadWorkshop } from "@/lib/workshop/load";
 
@@ -16,11 +17,5 @@ export default async function WeighPage({ params }: { params: Promise<{ id: stri
     );
   }
   const workshop = await loadWorkshop(getDb(), job);
-  return (
-    <WeighBench
-      jobId={job.id}
-      initial={workshop}
-      canEdit={user.role === "machinist" || user.role === "owner"}
-    />
-  );
+  return <WeighBench jobId={job.id} initial={workshop} canEdit={may(user, "weigh")} />;
 }
