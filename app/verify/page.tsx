@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { CardCheckForm } from "@/components/cards/card-check-form";
+import { Providers } from "@/components/providers";
 import { CardCautions, VerifiedCardView } from "@/components/cards/verified-card-view";
 import { getDb } from "@/db/client";
 import { spendRateLimitForPage } from "@/lib/auth/rate-limit";
@@ -82,7 +83,9 @@ export default async function VerifyPage({
           )}
         </div>
       ) : null}
-      <CardCheckForm />
+      <Providers>
+        <CardCheckForm />
+      </Providers>
       <CardCautions />
     </>
   );

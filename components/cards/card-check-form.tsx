@@ -1,6 +1,8 @@
 "use client";
 
+import { useMutation } from "@tanstack/react-query";
 import { type FormEvent, useState } from "react";
+import { ApiError, apiFetch } from "@/lib/api-client";
 import type { CardCheck } from "@/lib/cards/verify";
 import { VerifiedCardView } from "./verified-card-view";
 
@@ -14,24 +16,21 @@ type State =
 export function CardCheckForm() {
   const [state, setState] = useState<State>({ kind: "idle" });
 
-  async function check(event: FormEvent<HTMLFormElement>) {
+  const send = useMutation({
+    mutationFn: (form: FormData) =>
+      apiFetch<CardCheck>("/api/verify/check", { method: "POST", body: form }),
+    onMutate: () => setState({ kind: "checking" }),
+    onSuccess: (check) => setState({ kind: "checked", check }),
+    onError: (e) =>
+      setState({
+        kind: "failed",
+        message: e instanceof ApiError ? e.message : "The check failed; try again.",
+      }),
+  });
+
+  function check(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
-    const form = new FormData(event.currentTarget);
-    setState({ kind: "checking" });
-    try {
-      const res = await fetch("/api/verify/check", { method: "POST", body: form });
-      const body: unknown = await res.json().catch(() => null);
-      if (!res.ok) {
-        const message =
-          (body as { error?: { message?: string } } | null)?.error?.message ??
-          `The check failed (${res.status}).`;
-        setState({ kind: "failed", message });
-        return;
-      }
-      setState({ kind: "checked", check: body as CardCheck });
-    } catch {
-      setState({ kind: "failed", message: "The server could not be reached. Try again." });
-    }
+    send.mutate(new FormData(event.currentTarget));
   }
 
   return (

@@ -1,51 +1,53 @@
 "use client";
 
+import { useMutation } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { type FormEvent, useState } from "react";
+import { ApiError, apiFetch } from "@/lib/api-client";
 import type { describeLogo } from "@/lib/cards/logo";
 
 type LogoInfo = ReturnType<typeof describeLogo>;
 type Status = { kind: "idle" | "busy" } | { kind: "done" | "failed"; text: string };
 
-async function errorText(res: Response): Promise<string> {
-  const body = (await res.json().catch(() => null)) as { error?: { message?: string } } | null;
-  return body?.error?.message ?? `The server answered ${res.status}.`;
-}
+const failed = (e: Error): Status => ({
+  kind: "failed",
+  text: e instanceof ApiError ? e.message : "The logo could not be saved; try again.",
+});
 
 /** The owner's upload (PNG or JPEG, at most 2 MB) and removal of the card logo. */
 export function LogoForm({ logo }: { logo: LogoInfo }) {
   const router = useRouter();
   const [status, setStatus] = useState<Status>({ kind: "idle" });
 
-  async function upload(event: FormEvent<HTMLFormElement>) {
-    event.preventDefault();
-    const form = event.currentTarget;
-    setStatus({ kind: "busy" });
-    const res = await fetch("/api/settings/logo", {
-      method: "PUT",
-      body: new FormData(form),
-    }).catch(() => null);
-    if (!res) return setStatus({ kind: "failed", text: "The server could not be reached." });
-    if (!res.ok) return setStatus({ kind: "failed", text: await errorText(res) });
-    form.reset();
-    setStatus({ kind: "done", text: "Logo saved: the next card issued carries it." });
-    router.refresh();
-  }
-
-  async function remove() {
-    setStatus({ kind: "busy" });
-    const res = await fetch("/api/settings/logo", { method: "DELETE" }).catch(() => null);
-    if (!res || !res.ok)
-      return setStatus({
-        kind: "failed",
-        text: res ? await errorText(res) : "The server could not be reached.",
+  const put = useMutation({
+    mutationFn: (form: HTMLFormElement) =>
+      apiFetch("/api/settings/logo", { method: "PUT", body: new FormData(form) }),
+    onMutate: () => setStatus({ kind: "busy" }),
+    onError: (e) => setStatus(failed(e)),
+    onSuccess: (_answer, form) => {
+      form.reset();
+      setStatus({ kind: "done", text: "Logo saved: the next card issued carries it." });
+      router.refresh();
+    },
+  });
+  const drop = useMutation({
+    mutationFn: () => apiFetch("/api/settings/logo", { method: "DELETE" }),
+    onMutate: () => setStatus({ kind: "busy" }),
+    onError: (e) => setStatus(failed(e)),
+    onSuccess: () => {
+      setStatus({
+        kind: "done",
+        text: "Logo removed: cards issued from now on carry the shop's name only.",
       });
-    setStatus({
-      kind: "done",
-      text: "Logo removed: cards issued from now on carry the shop's name only.",
-    });
-    router.refresh();
+      router.refresh();
+    },
+  });
+
+  function upload(event: FormEvent<HTMLFormElement>) {
+    event.preventDefault();
+    put.mutate(event.currentTarget);
   }
+  const remove = () => drop.mutate();
 
   return (
     <div className="panel space-y-4 p-4">

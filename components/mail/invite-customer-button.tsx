@@ -1,14 +1,15 @@
 "use client";
 
+import { useMutation } from "@tanstack/react-query";
 import { useId, useState } from "react";
+import { ApiError, apiFetch } from "@/lib/api-client";
 import { shopDateTime } from "@/lib/dates/shop-time";
 
 type Outcome = { ok: boolean; message: string } | null;
 
 interface InviteResponse {
-  invite?: { email: string; expiresAt: string };
+  invite: { email: string; expiresAt: string };
   mail?: { status: "queued" | "sent" | "failed"; lastError: string | null };
-  error?: { message: string; fields?: Record<string, string> };
 }
 
 /**
@@ -28,40 +29,43 @@ export function InviteCustomerButton({
   const id = useId();
   const [open, setOpen] = useState(false);
   const [address, setAddress] = useState(email ?? "");
-  const [pending, setPending] = useState(false);
   const [outcome, setOutcome] = useState<Outcome>(null);
   const [fieldError, setFieldError] = useState<string>();
 
-  async function send() {
-    setPending(true);
-    setOutcome(null);
-    setFieldError(undefined);
-    const res = await fetch("/api/invites", {
-      method: "POST",
-      headers: { "content-type": "application/json" },
-      body: JSON.stringify({ customerId, email: address.trim() || undefined }),
-    }).catch(() => null);
-    setPending(false);
-    const body = (await res?.json().catch(() => null)) as InviteResponse | null;
-    if (!res || !res.ok || !body?.invite) {
-      setFieldError(body?.error?.fields?.email);
-      setOutcome({ ok: false, message: body?.error?.message ?? "The invite could not be made." });
-      return;
-    }
-    const until = shopDateTime(body.invite.expiresAt, timeZone);
-    setOutcome(
-      body.mail?.status === "sent"
-        ? {
-            ok: true,
-            message: `Invite e-mailed to ${body.invite.email}. The link works until ${until}.`,
-          }
-        : {
-            ok: false,
-            message: `The invite was made but the e-mail did not go (${body.mail?.lastError ?? "no reason given"}). The owner can send it again from the Mail outbox.`,
-          },
-    );
-    if (body.mail?.status === "sent") setOpen(false);
-  }
+  const invite = useMutation({
+    mutationFn: () =>
+      apiFetch<InviteResponse>("/api/invites", {
+        method: "POST",
+        body: { customerId, email: address.trim() || undefined },
+      }),
+    onMutate: () => {
+      setOutcome(null);
+      setFieldError(undefined);
+    },
+    onError: (e) => {
+      setFieldError(e instanceof ApiError ? e.fields.email : undefined);
+      setOutcome({
+        ok: false,
+        message: e instanceof ApiError ? e.message : "The invite could not be made.",
+      });
+    },
+    onSuccess: (body) => {
+      const until = shopDateTime(body.invite.expiresAt, timeZone);
+      setOutcome(
+        body.mail?.status === "sent"
+          ? {
+              ok: true,
+              message: `Invite e-mailed to ${body.invite.email}. The link works until ${until}.`,
+            }
+          : {
+              ok: false,
+              message: `The invite was made but the e-mail did not go (${body.mail?.lastError ?? "no reason given"}). The owner can send it again from the Mail outbox.`,
+            },
+      );
+      if (body.mail?.status === "sent") setOpen(false);
+    },
+  });
+  const pending = invite.isPending;
 
   return (
     <div className="space-y-2" data-testid="invite-customer">
@@ -70,7 +74,7 @@ export function InviteCustomerButton({
           className="flex flex-wrap items-end gap-2"
           onSubmit={(e) => {
             e.preventDefault();
-            void send();
+            invite.mutate();
           }}
           noValidate
         >

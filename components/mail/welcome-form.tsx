@@ -1,12 +1,14 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
+import { useMutation } from "@tanstack/react-query";
 import { signIn } from "next-auth/react";
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
+import { ApiError, apiFetch } from "@/lib/api-client";
 import { acceptInviteSchema } from "@/lib/validation/invites";
 
 type Values = z.input<typeof acceptInviteSchema>;
@@ -21,21 +23,21 @@ export function WelcomeForm({ token, email }: { token: string; email: string }) 
     defaultValues: { token, password: "", confirm: "" },
   });
 
+  const accept = useMutation({
+    mutationFn: (values: Values) =>
+      apiFetch("/api/invites/accept", { method: "POST", body: values }),
+  });
+
   async function onSubmit(values: Values) {
     setFailure(undefined);
-    const res = await fetch("/api/invites/accept", {
-      method: "POST",
-      headers: { "content-type": "application/json" },
-      body: JSON.stringify(values),
-    }).catch(() => null);
-    const body = (await res?.json().catch(() => null)) as {
-      error?: { message: string; fields?: Record<string, string> };
-    } | null;
-    if (!res?.ok) {
-      for (const [field, message] of Object.entries(body?.error?.fields ?? {})) {
+    try {
+      await accept.mutateAsync(values);
+    } catch (e) {
+      const fields = e instanceof ApiError ? e.fields : {};
+      for (const [field, message] of Object.entries(fields)) {
         if (field === "password" || field === "confirm") setError(field, { message });
       }
-      setFailure(body?.error?.message ?? "The password could not be set; try again.");
+      setFailure(e instanceof ApiError ? e.message : "The password could not be set; try again.");
       return;
     }
     const result = await signIn("credentials", {

@@ -1,28 +1,26 @@
 "use client";
 
+import { useMutation } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
+import { ApiError, apiFetch } from "@/lib/api-client";
 
 /** Two steps, so a slip of the hand on the bench does not remove a record of the job. */
 export function DeleteUploadButton({ uploadId, name }: { uploadId: number; name: string }) {
   const router = useRouter();
   const [armed, setArmed] = useState(false);
-  const [pending, setPending] = useState(false);
-  const [failure, setFailure] = useState<string>();
-
-  async function remove() {
-    setPending(true);
-    setFailure(undefined);
-    const res = await fetch(`/api/uploads/${uploadId}`, { method: "DELETE" });
-    setPending(false);
-    if (!res.ok) {
-      const body = (await res.json().catch(() => null)) as { error?: { message?: string } } | null;
-      setFailure(body?.error?.message ?? "Could not delete it.");
-      setArmed(false);
-      return;
-    }
-    router.refresh();
-  }
+  const drop = useMutation({
+    mutationFn: () => apiFetch(`/api/uploads/${uploadId}`, { method: "DELETE" }),
+    onError: () => setArmed(false),
+    onSuccess: () => router.refresh(),
+  });
+  const pending = drop.isPending;
+  const failure = drop.error
+    ? drop.error instanceof ApiError
+      ? drop.error.message
+      : "Could not delete it."
+    : undefined;
+  const remove = () => drop.mutate();
 
   return (
     <span className="inline-flex items-center gap-2" aria-live="polite">

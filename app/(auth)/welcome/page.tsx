@@ -1,5 +1,6 @@
 import Link from "next/link";
 import { WelcomeForm } from "@/components/mail/welcome-form";
+import { Providers } from "@/components/providers";
 import { getDb } from "@/db/client";
 import { findInviteState, type InviteState } from "@/lib/mail/invites";
 import { inviteTokenField } from "@/lib/validation/invites";
@@ -51,7 +52,9 @@ export default async function WelcomePage({
         </div>
         <div className="panel p-6 shadow-lg" data-testid={`welcome-${state.state}`}>
           {state.state === "open" ? (
-            <WelcomeForm token={valid} email={state.email} />
+            <Providers>
+              <WelcomeForm token={valid} email={state.email} />
+            </Providers>
           ) : (
             <div className="space-y-4 text-sm">
               <p>{CLOSED[state.state].text}</p>
