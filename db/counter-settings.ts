@@ -1,6 +1,4 @@
 import type { Kysely } from "kysely";
-import { createAuditEntry } from "./audit";
-import { StaleWriteError } from "./errors";
 import type { Database } from "./schema";
 
 /** The counter's settings: how the shop's e-mails go out, and the shop's time zone. */
@@ -49,45 +47,39 @@ export async function findCounterSettings(db: Kysely<Database>): Promise<Counter
 
 export type CounterSettingsInput = Omit<CounterSettings, "version" | "updatedAt">;
 
-/** Saves the settings over the version read (0 before the first save); else StaleWriteError. */
-export async function updateCounterSettings(
+/** The row as written: every field, the new version, who and when. */
+export interface CounterSettingsWrite extends CounterSettingsInput {
+  version: number;
+  updatedBy: number | null;
+  updatedAt: string;
+}
+
+/**
+ * Writes the one counter settings row, only over the version the caller read (`baseVersion`; 0
+ * when there is no row yet). False when the stored version was no longer `baseVersion`.
+ */
+export async function upsertCounterSettings(
   db: Kysely<Database>,
   baseVersion: number,
-  input: CounterSettingsInput,
-  actorId: number | null,
-  now = new Date(),
-): Promise<CounterSettings> {
-  return db.transaction().execute(async (trx) => {
-    const before = await findCounterSettings(trx);
-    if (before.version !== baseVersion) throw new StaleWriteError("settings", before.version);
-    const columns = {
-      sender_name: input.senderName,
-      reply_to: input.replyTo,
-      signature: input.signature,
-      mail_off: [...new Set(input.mailOff)].sort().join(","),
-      time_zone: input.timeZone,
-      version: before.version + 1,
-      updated_by: actorId,
-      updated_at: now.toISOString(),
-    };
-    const row = await trx
-      .insertInto("counter_settings")
-      .values({ id: 1, ...columns })
-      .onConflict((oc) =>
-        oc.column("id").doUpdateSet(columns).where("counter_settings.version", "=", before.version),
-      )
-      .returning("id")
-      .executeTakeFirst();
-    if (!row) throw new StaleWriteError("settings", (await findCounterSettings(trx)).version);
-    const after = await findCounterSettings(trx);
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "update",
-      entity: "counter-settings",
-      entityId: 1,
-      before,
-      after,
-    });
-    return after;
-  });
+  values: CounterSettingsWrite,
+): Promise<boolean> {
+  const columns = {
+    sender_name: values.senderName,
+    reply_to: values.replyTo,
+    signature: values.signature,
+    mail_off: values.mailOff.join(","),
+    time_zone: values.timeZone,
+    version: values.version,
+    updated_by: values.updatedBy,
+    updated_at: values.updatedAt,
+  };
+  const row = await db
+    .insertInto("counter_settings")
+    .values({ id: 1, ...columns })
+    .onConflict((oc) =>
+      oc.column("id").doUpdateSet(columns).where("counter_settings.version", "=", baseVersion),
+    )
+    .returning("id")
+    .executeTakeFirst();
+  return row !== undefined;
 }

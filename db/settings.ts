@@ -1,7 +1,5 @@
 import type { Kysely } from "kysely";
-import { createAuditEntry } from "./audit";
 import type { ShopSettingsRow } from "./billing-schema";
-import { StaleWriteError } from "./errors";
 import type { Database } from "./schema";
 
 /** The shop's own details and billing defaults (one row). Rates and sizes are decimal strings. */
@@ -85,53 +83,40 @@ export type ShopSettingsInput = Omit<
 > &
   Partial<Pick<ShopSettings, "oilAllowancePerRodG" | "outlierPercent">>;
 
+/** A whole settings row as written: every field, the new version and when. */
+export type ShopSettingsWrite = Omit<ShopSettings, "updatedAt"> & { updatedAt: string };
+
 /**
- * Replaces the settings if the stored version is the one the caller read (0 before the first
- * save); a stale version throws StaleWriteError.
+ * Writes the one settings row, only over the version the caller read (`baseVersion`; 0 when
+ * there is no row yet): on PostgreSQL another save may land in between. Answers the settings as
+ * stored, or undefined when the stored version was no longer `baseVersion`.
  */
-export async function updateShopSettings(
+export async function upsertShopSettings(
   db: Kysely<Database>,
   baseVersion: number,
-  input: ShopSettingsInput,
-  actorId: number | null,
-  now = new Date(),
-): Promise<ShopSettings> {
-  return db.transaction().execute(async (trx) => {
-    const before = await findShopSettings(trx);
-    if (before.version !== baseVersion) throw new StaleWriteError("settings", before.version);
-    const columns = {
-      shop_name: input.shopName,
-      address: input.address,
-      phone: input.phone,
-      email: input.email,
-      tax_rate: input.taxRate,
-      currency: input.currency,
-      invoice_footer: input.invoiceFooter,
-      max_upload_mb: input.maxUploadMb,
-      oil_allowance_per_rod_g: input.oilAllowancePerRodG ?? before.oilAllowancePerRodG,
-      outlier_percent: input.outlierPercent ?? before.outlierPercent,
-      version: before.version + 1,
-      updated_at: now.toISOString(),
-    };
-    const row = await trx
-      .insertInto("shop_settings")
-      .values({ id: 1, ...columns })
-      // Only over the version read: on PostgreSQL another save may land in between.
-      .onConflict((oc) =>
-        oc.column("id").doUpdateSet(columns).where("shop_settings.version", "=", before.version),
-      )
-      .returningAll()
-      .executeTakeFirst();
-    if (!row) throw new StaleWriteError("settings", (await findShopSettings(trx)).version);
-    const after = toSettings(row);
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "update",
-      entity: "settings",
-      entityId: 1,
-      before,
-      after,
-    });
-    return after;
-  });
+  values: ShopSettingsWrite,
+): Promise<ShopSettings | undefined> {
+  const columns = {
+    shop_name: values.shopName,
+    address: values.address,
+    phone: values.phone,
+    email: values.email,
+    tax_rate: values.taxRate,
+    currency: values.currency,
+    invoice_footer: values.invoiceFooter,
+    max_upload_mb: values.maxUploadMb,
+    oil_allowance_per_rod_g: values.oilAllowancePerRodG,
+    outlier_percent: values.outlierPercent,
+    version: values.version,
+    updated_at: values.updatedAt,
+  };
+  const row = await db
+    .insertInto("shop_settings")
+    .values({ id: 1, ...columns })
+    .onConflict((oc) =>
+      oc.column("id").doUpdateSet(columns).where("shop_settings.version", "=", baseVersion),
+    )
+    .returningAll()
+    .executeTakeFirst();
+  return row && toSettings(row);
 }

@@ -3,7 +3,7 @@ import type { PriceKind } from "@/db/billing-schema";
 import { listJobs } from "@/db/jobs";
 import { countPriceItems, listPriceItems } from "@/db/prices";
 import type { JobStatus } from "@/db/schema";
-import { updateShopSettings } from "@/db/settings";
+import { updateShopSettings } from "@/lib/settings/shop-settings";
 import { createInvoice, issueInvoice } from "./invoices";
 import { recordManualPayment } from "./payments";
 import { createPriceItem } from "./prices";

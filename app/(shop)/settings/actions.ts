@@ -2,7 +2,8 @@
 
 import { revalidatePath } from "next/cache";
 import { getDb } from "@/db/client";
-import { type ShopSettings, updateShopSettings } from "@/db/settings";
+import type { ShopSettings } from "@/db/settings";
+import { updateShopSettings } from "@/lib/settings/shop-settings";
 import { checkPermission } from "@/lib/auth/guard";
 import { type ActionResult, toActionFailure } from "@/lib/http/action-result";
 import { settingsSchema } from "@/lib/validation/billing";

@@ -1,5 +1,6 @@
 import { getDb } from "@/db/client";
-import { findShopSettings, updateShopSettings } from "@/db/settings";
+import { findShopSettings } from "@/db/settings";
+import { updateShopSettings } from "@/lib/settings/shop-settings";
 import { requireApiPermission } from "@/lib/auth/guard";
 import { json, parseJson, route } from "@/lib/http/route";
 import { settingsSchema } from "@/lib/validation/billing";

@@ -16,7 +16,7 @@ import { POST as withdrawRoute } from "@/app/api/quotes/[id]/withdraw/route";
 import { GET as getQuote, PUT as putQuoteLines } from "@/app/api/quotes/[id]/route";
 import { GET as listQuotesRoute, POST as createQuoteRoute } from "@/app/api/quotes/route";
 import type { DB } from "@/db/client";
-import { updateShopSettings } from "@/db/settings";
+import { updateShopSettings } from "@/lib/settings/shop-settings";
 import { countRows, freshDb } from "../../helpers/db";
 import { jsonRequest, noParams, params } from "../../helpers/http";
 import { signInAs } from "../../helpers/session";

@@ -4,7 +4,7 @@ import { PUT as putSection } from "@/app/api/jobs/[id]/build/[section]/route";
 import { GET as getPdf } from "@/app/api/jobs/[id]/build/cards/[revision]/pdf/route";
 import { VerifiedBuildCardView } from "@/components/build/verified-build-card";
 import type { DB } from "@/db/client";
-import { updateCounterSettings } from "@/db/counter-settings";
+import { updateCounterSettings } from "@/lib/settings/counter-settings";
 import type { Job } from "@/db/jobs";
 import { createJob } from "@/lib/jobs/save";
 import type { Role } from "@/db/schema";

@@ -4,7 +4,7 @@ import { beforeEach, describe, expect, it } from "vitest";
 import { VerifiedCardView } from "@/components/cards/verified-card-view";
 import type { DB } from "@/db/client";
 import { findCardPdf } from "@/db/cards";
-import { updateCounterSettings } from "@/db/counter-settings";
+import { updateCounterSettings } from "@/lib/settings/counter-settings";
 import type { Job } from "@/db/jobs";
 import type { Role } from "@/db/schema";
 import type { User } from "@/db/users";

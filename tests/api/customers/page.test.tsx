@@ -4,7 +4,7 @@ import CustomerPage from "@/app/(shop)/customers/[id]/page";
 import { mergeCustomerAction, updateCustomerAction } from "@/app/(shop)/customers/actions";
 import CustomersPage from "@/app/(shop)/customers/page";
 import type { DB } from "@/db/client";
-import { updateCounterSettings } from "@/db/counter-settings";
+import { updateCounterSettings } from "@/lib/settings/counter-settings";
 import { type Customer, findCustomerById } from "@/db/customers";
 import type { Role } from "@/db/schema";
 import type { User } from "@/db/users";

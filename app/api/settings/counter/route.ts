@@ -1,5 +1,6 @@
 import { getDb } from "@/db/client";
-import { findCounterSettings, updateCounterSettings } from "@/db/counter-settings";
+import { findCounterSettings } from "@/db/counter-settings";
+import { updateCounterSettings } from "@/lib/settings/counter-settings";
 import { requireApiPermission } from "@/lib/auth/guard";
 import { json, parseJson, route } from "@/lib/http/route";
 import { counterSettingsSchema } from "@/lib/validation/counter-settings";
