@@ -94,48 +94,49 @@ export interface NewMail {
   oneTime?: boolean;
 }
 
-/** Records a message as queued, with its attachments, before anything is sent. */
-export async function createMail(db: Kysely<Database>, input: NewMail): Promise<MailLogEntry> {
-  return db.transaction().execute(async (trx) => {
-    const row = await trx
-      .insertInto("mail_log")
-      .values({
-        kind: input.kind,
-        to_address: input.to,
-        subject: input.subject,
-        text_body: input.text,
-        html_body: input.html ?? null,
-        job_id: input.jobId ?? null,
-        created_by: input.createdBy ?? null,
-        one_time: input.oneTime ? 1 : 0,
-      })
-      .returningAll()
-      .executeTakeFirstOrThrow();
-    const attachments = input.attachments ?? [];
-    if (attachments.length > 0) {
-      await trx
-        .insertInto("mail_attachments")
-        .values(
-          attachments.map((a, position) => ({
-            mail_id: row.id,
-            position,
-            filename: a.filename,
-            content_type: a.contentType,
-            size_bytes: a.content.length,
-            content: a.content,
-          })),
-        )
-        .execute();
-    }
-    return toEntry(
-      row,
-      attachments.map((a) => ({
-        filename: a.filename,
-        contentType: a.contentType,
-        sizeBytes: a.content.length,
-      })),
-    );
-  });
+/**
+ * Records a message as queued, with its attachments, before anything is sent (two inserts: the
+ * caller runs them in one transaction, lib/mail/send.ts).
+ */
+export async function insertMail(db: Kysely<Database>, input: NewMail): Promise<MailLogEntry> {
+  const row = await db
+    .insertInto("mail_log")
+    .values({
+      kind: input.kind,
+      to_address: input.to,
+      subject: input.subject,
+      text_body: input.text,
+      html_body: input.html ?? null,
+      job_id: input.jobId ?? null,
+      created_by: input.createdBy ?? null,
+      one_time: input.oneTime ? 1 : 0,
+    })
+    .returningAll()
+    .executeTakeFirstOrThrow();
+  const attachments = input.attachments ?? [];
+  if (attachments.length > 0) {
+    await db
+      .insertInto("mail_attachments")
+      .values(
+        attachments.map((a, position) => ({
+          mail_id: row.id,
+          position,
+          filename: a.filename,
+          content_type: a.contentType,
+          size_bytes: a.content.length,
+          content: a.content,
+        })),
+      )
+      .execute();
+  }
+  return toEntry(
+    row,
+    attachments.map((a) => ({
+      filename: a.filename,
+      contentType: a.contentType,
+      sizeBytes: a.content.length,
+    })),
+  );
 }
 
 export async function findMailById(

@@ -2,7 +2,7 @@ import type SMTPTransport from "nodemailer/lib/smtp-transport";
 import type { DB } from "@/db/client";
 import {
   claimMailForRetry,
-  createMail,
+  insertMail,
   findMailById,
   findMailForSending,
   markMailFailed,
@@ -71,17 +71,20 @@ export async function sendMail(
       to: "Enter a valid e-mail address.",
     });
   }
-  const entry = await createMail(db, {
-    kind: mail.kind,
-    to: to.data,
-    subject: mail.subject,
-    text: mail.text,
-    html: mail.html ?? null,
-    attachments: mail.attachments,
-    jobId: mail.jobId ?? null,
-    createdBy: mail.createdBy ?? null,
-    oneTime: mail.oneTime ?? false,
-  });
+  // The message and its attachments are logged together, or not at all.
+  const entry = await db.transaction().execute((trx) =>
+    insertMail(trx, {
+      kind: mail.kind,
+      to: to.data,
+      subject: mail.subject,
+      text: mail.text,
+      html: mail.html ?? null,
+      attachments: mail.attachments,
+      jobId: mail.jobId ?? null,
+      createdBy: mail.createdBy ?? null,
+      oneTime: mail.oneTime ?? false,
+    }),
+  );
   return deliver(
     db,
     {
