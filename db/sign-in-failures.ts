@@ -3,97 +3,68 @@ import { createAuditEntry } from "./audit";
 import { forUpdate } from "./dialect";
 import type { Database } from "./schema";
 
-// Sign-in throttling counts (lib/auth/throttle.ts). One row per key: the `email` column holds
+// Sign-in throttling counts (the rules are in lib/auth/throttle.ts). One row per key: the `email` column holds
 // the key, which is a normalised e-mail ("mara@shop.test", every address together), an e-mail
 // from one client address ("mara@shop.test from 203.0.113.7"), or a client address alone
 // ("from 203.0.113.7", every e-mail together). `failures` counts the tries let through since the
 // last success; `locked_until` is when the next try may be made once the free tries are spent.
 
-export interface ThrottleRule {
-  /** Tries let through at once before each further try must wait. */
-  freeTries: number;
-  /** The first wait; each further failure doubles it. */
-  firstDelayMs: number;
-  /** The longest wait. */
-  maxDelayMs: number;
-  /** A count left alone this long starts again from nothing. */
-  forgetAfterMs: number;
-}
-
-export interface ThrottleKey {
-  key: string;
-  rule: ThrottleRule;
-}
-
-export type Reservation =
-  | { allowed: true; counts: { key: string; failures: number; waitUntil: Date | null }[] }
-  | { allowed: false; waitUntil: Date };
-
-/** The wait after the n-th try counted against a rule (none while free tries remain). */
-export function delayAfter(failures: number, rule: ThrottleRule): number {
-  if (failures < rule.freeTries) return 0;
-  const doublings = Math.min(failures - rule.freeTries, 30);
-  return Math.min(rule.firstDelayMs * 2 ** doublings, rule.maxDelayMs);
+/** One key's count as stored: failures since the last success, the last one, the wait until. */
+export interface SignInCount {
+  failures: number;
+  lastFailedAt: string;
+  lockedUntil: string | null;
 }
 
 /**
- * Lets one sign-in try through, or not, for every key at once: the check and the count are one
- * write transaction (rows locked on PostgreSQL), so however many tries arrive together, no more
- * are let through than the rules allow. A try let through is counted before its password is
- * checked; a success clears the counts that a success clears (`clearSignInFailures`).
+ * Each key's count, made (at nothing) where there is none yet, and its row locked for the rest of
+ * the caller's transaction on PostgreSQL, so tries arriving together read and write the counts
+ * one after the other.
  */
-export async function reserveSignInTry(
-  db: Kysely<Database>,
-  keys: ThrottleKey[],
+export async function lockSignInCounts(
+  trx: Kysely<Database>,
+  keys: string[],
   now: Date,
-): Promise<Reservation> {
-  return db.transaction().execute(async (trx) => {
-    const rows = new Map<string, { failures: number; last: string; until: string | null }>();
-    for (const { key } of keys) {
-      await trx
-        .insertInto("sign_in_failures")
-        .values({ email: key, failures: 0, last_failed_at: now.toISOString(), locked_until: null })
-        .onConflict((oc) => oc.column("email").doNothing())
-        .execute();
-      const row = await trx
-        .selectFrom("sign_in_failures")
-        .select(["failures", "last_failed_at", "locked_until"])
-        .where("email", "=", key)
-        .$call(forUpdate(trx))
-        .executeTakeFirstOrThrow();
-      rows.set(key, { failures: row.failures, last: row.last_failed_at, until: row.locked_until });
-    }
+): Promise<Map<string, SignInCount>> {
+  const counts = new Map<string, SignInCount>();
+  for (const key of keys) {
+    await trx
+      .insertInto("sign_in_failures")
+      .values({ email: key, failures: 0, last_failed_at: now.toISOString(), locked_until: null })
+      .onConflict((oc) => oc.column("email").doNothing())
+      .execute();
+    const row = await trx
+      .selectFrom("sign_in_failures")
+      .select(["failures", "last_failed_at", "locked_until"])
+      .where("email", "=", key)
+      .$call(forUpdate(trx))
+      .executeTakeFirstOrThrow();
+    counts.set(key, {
+      failures: row.failures,
+      lastFailedAt: row.last_failed_at,
+      lockedUntil: row.locked_until,
+    });
+  }
+  return counts;
+}
 
-    const counts: { key: string; failures: number; waitUntil: Date | null }[] = [];
-    let refusedUntil: Date | null = null;
-    for (const { key, rule } of keys) {
-      const row = rows.get(key)!;
-      const forgotten = now.getTime() - new Date(row.last).getTime() >= rule.forgetAfterMs;
-      const before = forgotten ? 0 : row.failures;
-      const until = forgotten || row.until === null ? null : new Date(row.until);
-      if (before >= rule.freeTries && until && until > now) {
-        if (!refusedUntil || until > refusedUntil) refusedUntil = until;
-        continue;
-      }
-      const failures = before + 1;
-      const delay = delayAfter(failures, rule);
-      counts.push({ key, failures, waitUntil: delay ? new Date(now.getTime() + delay) : null });
-    }
-    if (refusedUntil) return { allowed: false, waitUntil: refusedUntil };
-
-    for (const { key, failures, waitUntil } of counts) {
-      await trx
-        .updateTable("sign_in_failures")
-        .set({
-          failures,
-          last_failed_at: now.toISOString(),
-          locked_until: waitUntil?.toISOString() ?? null,
-        })
-        .where("email", "=", key)
-        .execute();
-    }
-    return { allowed: true, counts };
-  });
+/** Stores one key's count as of a try made at `now`. */
+export async function saveSignInCount(
+  db: Kysely<Database>,
+  key: string,
+  failures: number,
+  now: Date,
+  lockedUntil: Date | null,
+): Promise<void> {
+  await db
+    .updateTable("sign_in_failures")
+    .set({
+      failures,
+      last_failed_at: now.toISOString(),
+      locked_until: lockedUntil?.toISOString() ?? null,
+    })
+    .where("email", "=", key)
+    .execute();
 }
 
 /** A success: the counts of these keys start again from nothing. */

@@ -1,9 +1,9 @@
 import type { DB } from "@/db/client";
-import { clearSignInFailures, recordThrottleNotice, reserveSignInTry } from "@/db/sign-in-failures";
+import { clearSignInFailures, recordThrottleNotice } from "@/db/sign-in-failures";
 import { findUserByEmail, normaliseEmail, toUser, type User } from "@/db/users";
 import { SIGN_IN_FAILED } from "./messages";
 import { verifyPassword } from "./password";
-import { signInKeys } from "./throttle";
+import { reserveSignInTry, signInKeys } from "./throttle";
 
 /** Why a sign-in failed: for tests and the server's own use, never told to the person signing in. */
 export type SignInFailure = "invalid" | "unknown" | "disabled" | "throttled";

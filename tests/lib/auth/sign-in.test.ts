@@ -1,6 +1,7 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import type { DB } from "@/db/client";
-import { delayAfter, listThrottleNotices } from "@/db/sign-in-failures";
+import { listThrottleNotices } from "@/db/sign-in-failures";
+import { delayAfter } from "@/lib/auth/throttle";
 import { updateUser } from "@/lib/users/manage";
 import { SIGN_IN_FAILED } from "@/lib/auth/messages";
 import { resetEnvCache } from "@/lib/env";
