@@ -1,6 +1,6 @@
-import { sql } from "kysely";
 import { getDb } from "@/db/client";
-import { findMigrationLevel, latestMigration } from "@/db/migrate";
+import { readDatabaseHealth } from "@/db/health";
+import { latestMigration } from "@/db/migrate";
 import { json } from "@/lib/http/route";
 
 export const dynamic = "force-dynamic";
@@ -8,9 +8,7 @@ export const dynamic = "force-dynamic";
 /** Public: is the database reachable, and is it at the latest migration? */
 export async function GET() {
   try {
-    const db = getDb();
-    await sql`select 1`.execute(db);
-    const migration = await findMigrationLevel(db);
+    const { migration } = await readDatabaseHealth(getDb());
     const current = migration === latestMigration;
     return json(
       {
