@@ -1,11 +1,13 @@
-import { type Kysely, sql, type Updateable } from "kysely";
-import { createAuditEntry } from "./audit";
-import { type CustomerInput, insertCustomer } from "./customers";
+import { type Kysely, sql, type Transaction, type Updateable } from "kysely";
 import { forUpdate } from "./dialect";
 import { jobSearch } from "./search";
 import { NotFoundError, StaleWriteError } from "./errors";
-import { takeNextJobNumber } from "./number-sequences";
 import type { Database, JobRow, JobStatus, JobTable } from "./schema";
+
+// Jobs: the queries only. Booking a job and changing it (the number drawn, the version check,
+// the audit entry, the one transaction) are lib/jobs/save.ts.
+
+type Db = Kysely<Database> | Transaction<Database>;
 
 export const BROUGHT_ITEMS = [
   "pistons",
@@ -159,15 +161,8 @@ function specColumns(spec: Partial<JobSpec>): Updateable<JobTable> {
     balancer_name: spec.balancerName,
     tolerance: spec.tolerance,
     balance_factor: spec.balanceFactor,
-    // The allowance is kept one way at a time: a per-rod figure clears the per-crankpin one, and
-    // a per-crankpin figure sent alone replaces the per-rod one.
-    oil_allowance: spec.oilAllowance ?? (spec.oilAllowancePerRod ? "0" : undefined),
-    oil_allowance_per_rod:
-      spec.oilAllowancePerRod !== undefined
-        ? spec.oilAllowancePerRod
-        : spec.oilAllowance !== undefined
-          ? null
-          : undefined,
+    oil_allowance: spec.oilAllowance,
+    oil_allowance_per_rod: spec.oilAllowancePerRod,
     bench_order: spec.benchOrder,
     matching: spec.matching,
     drill_diameter_mm: spec.drillDiameterMm,
@@ -222,7 +217,7 @@ function toJob(row: JobWithCustomer): Job {
   };
 }
 
-function selectJobs(db: Kysely<Database>) {
+function selectJobs(db: Db) {
   return db
     .selectFrom("jobs")
     .innerJoin("customers", "customers.id", "jobs.customer_id")
@@ -230,110 +225,115 @@ function selectJobs(db: Kysely<Database>) {
     .select("customers.name as customer_name");
 }
 
-export interface NewJob {
+/** A job to store: its number drawn and its settings resolved by lib/jobs/save.ts. */
+export interface JobRowInput {
+  number: string;
   customerId: number;
-  /** A customer first met at this booking: saved with the job, in the same transaction. */
-  newCustomer?: CustomerInput;
   engine: string;
-  notes?: string | null;
-  status?: JobStatus;
-  spec?: Partial<JobSpec>;
+  notes: string | null;
+  status: JobStatus;
+  spec: JobSpec;
+  updatedAt: string;
 }
 
-export async function createJob(
-  db: Kysely<Database>,
-  input: NewJob,
-  actorId: number | null,
-  now = new Date(),
-): Promise<Job> {
-  return db.transaction().execute(async (trx) => {
-    const customer = input.newCustomer
-      ? await insertCustomer(trx, input.newCustomer, actorId)
-      : await trx
-          .selectFrom("customers")
-          .select("id")
-          .where("id", "=", input.customerId)
-          .executeTakeFirst();
-    if (!customer) throw new NotFoundError("customer");
-    const number = await takeNextJobNumber(trx, now);
-    const inserted = await trx
-      .insertInto("jobs")
-      .values({
-        number,
-        customer_id: customer.id,
-        engine: input.engine.trim(),
-        notes: input.notes?.trim() || null,
-        status: input.status ?? "booked",
-        updated_at: now.toISOString(),
-        ...specColumns({ ...DEFAULT_SPEC, ...input.spec }),
-      })
-      .returning("id")
-      .executeTakeFirstOrThrow();
-    const job = toJob(
-      await selectJobs(trx).where("jobs.id", "=", inserted.id).executeTakeFirstOrThrow(),
-    );
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "create",
-      entity: "job",
-      entityId: job.id,
-      after: job,
-    });
-    return job;
-  });
+/** Stores a new job at version 1 and answers its id. */
+export async function insertJob(db: Db, input: JobRowInput): Promise<number> {
+  const inserted = await db
+    .insertInto("jobs")
+    .values({
+      number: input.number,
+      customer_id: input.customerId,
+      engine: input.engine,
+      notes: input.notes,
+      status: input.status,
+      updated_at: input.updatedAt,
+      ...specColumns(input.spec),
+    })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  return inserted.id;
 }
 
-export async function findJobById(db: Kysely<Database>, id: number): Promise<Job | undefined> {
+export async function findJobById(db: Db, id: number): Promise<Job | undefined> {
   const row = await selectJobs(db).where("jobs.id", "=", id).executeTakeFirst();
   return row && toJob(row);
 }
 
-export interface JobChanges {
-  engine?: string;
-  notes?: string | null;
-  status?: JobStatus;
-  spec?: Partial<JobSpec>;
+/**
+ * The job read under its row lock on PostgreSQL (db/dialect.ts, forUpdate), for a write that
+ * checks the version it was based on: a second writer waits and then reads the new version.
+ */
+export async function findJobForUpdate(db: Db, id: number): Promise<Job | undefined> {
+  const row = await selectJobs(db)
+    .where("jobs.id", "=", id)
+    .$call(forUpdate(db, "jobs"))
+    .executeTakeFirst();
+  return row && toJob(row);
 }
 
-/** Applies changes only if the stored version is the one the caller read; bumps the version. */
-export async function updateJob(
-  db: Kysely<Database>,
+/** What a job write stores: every field as it is to be (a spec field left out is kept). */
+export interface JobRowChanges {
+  engine: string;
+  notes: string | null;
+  status: JobStatus;
+  spec: Partial<JobSpec>;
+  updatedAt: string;
+}
+
+/**
+ * Writes a job if it is still at `version`, and moves it to the next version.
+ * @throws NotFoundError when there is no such job
+ * @throws StaleWriteError when someone else wrote it since `version` was read
+ */
+export async function updateJobRow(
+  db: Db,
   id: number,
-  baseVersion: number,
-  changes: JobChanges,
-  actorId: number | null,
-  now = new Date(),
-): Promise<Job> {
-  return db.transaction().execute(async (trx) => {
-    const before = await selectJobs(trx)
-      .where("jobs.id", "=", id)
-      .$call(forUpdate(trx, "jobs"))
-      .executeTakeFirst();
-    if (!before) throw new NotFoundError("job");
-    if (before.version !== baseVersion) throw new StaleWriteError("job", before.version);
-    await trx
-      .updateTable("jobs")
-      .set({
-        engine: changes.engine?.trim() ?? before.engine,
-        notes: changes.notes === undefined ? before.notes : changes.notes?.trim() || null,
-        status: changes.status ?? before.status,
-        ...specColumns(changes.spec ?? {}),
-        version: before.version + 1,
-        updated_at: now.toISOString(),
-      })
-      .where("id", "=", id)
-      .execute();
-    const after = toJob(await selectJobs(trx).where("jobs.id", "=", id).executeTakeFirstOrThrow());
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "update",
-      entity: "job",
-      entityId: id,
-      before: toJob(before),
-      after,
-    });
-    return after;
-  });
+  version: number,
+  changes: JobRowChanges,
+): Promise<void> {
+  const result = await db
+    .updateTable("jobs")
+    .set({
+      engine: changes.engine,
+      notes: changes.notes,
+      status: changes.status,
+      ...specColumns(changes.spec),
+      version: version + 1,
+      updated_at: changes.updatedAt,
+    })
+    .where("id", "=", id)
+    .where("version", "=", version)
+    .executeTakeFirst();
+  if (Number(result.numUpdatedRows) > 0) return;
+  const now = await db.selectFrom("jobs").select("version").where("id", "=", id).executeTakeFirst();
+  if (!now) throw new NotFoundError("job");
+  throw new StaleWriteError("job", now.version);
+}
+
+/** Whether there is a job with this id. */
+export async function jobExists(db: Db, id: number): Promise<boolean> {
+  const row = await db.selectFrom("jobs").select("id").where("id", "=", id).executeTakeFirst();
+  return row !== undefined;
+}
+
+/**
+ * Takes the job's row lock for the rest of the transaction on PostgreSQL (db/dialect.ts,
+ * forUpdate; nothing on SQLite) and says whether there is such a job. Writers of a job's parts
+ * take it first, so saves of the same job wait their turn.
+ */
+export async function lockExistingJob(db: Db, id: number): Promise<boolean> {
+  const row = await db
+    .selectFrom("jobs")
+    .select("id")
+    .where("id", "=", id)
+    .$call(forUpdate(db))
+    .executeTakeFirst();
+  return row !== undefined;
+}
+
+/** Marks the job as changed at `at` (a weight, a pairing): its list sorts by this. */
+export async function markJobUpdated(db: Db, id: number, at: string): Promise<void> {
+  await db.updateTable("jobs").set({ updated_at: at }).where("id", "=", id).execute();
 }
 
 export const JOB_SORTS = ["newest", "oldest", "number", "customer", "promised", "updated"] as const;
@@ -351,7 +351,7 @@ export interface JobQuery {
 
 /** Jobs newest first, optionally for one customer (customers only ever see their own). */
 export async function listJobs(
-  db: Kysely<Database>,
+  db: Db,
   query: JobQuery = {},
 ): Promise<{ jobs: Job[]; total: number }> {
   let base = db.selectFrom("jobs").innerJoin("customers", "customers.id", "jobs.customer_id");

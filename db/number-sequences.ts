@@ -22,19 +22,3 @@ export async function incrementSequence(db: Kysely<Database>, name: string): Pro
     .executeTakeFirstOrThrow();
   return Number(row.last_value);
 }
-
-/** The counter job numbers of one year are drawn from. */
-export function jobSequenceName(year: number): string {
-  return `job-${year}`;
-}
-
-/**
- * Draws the next job number for the year of `now` (UTC): 2026-0001, 2026-0002, … 2026-9999,
- * 2026-10000 (wider past 9999, never truncated). Call it inside the transaction that stores the
- * job, so a failed booking gives the number back.
- */
-export async function takeNextJobNumber(db: Kysely<Database>, now: Date): Promise<string> {
-  const year = now.getUTCFullYear();
-  const value = await incrementSequence(db, jobSequenceName(year));
-  return `${year}-${String(value).padStart(4, "0")}`;
-}

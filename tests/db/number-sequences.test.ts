@@ -1,10 +1,10 @@
 import { Migrator } from "kysely";
 import { describe, expect, it } from "vitest";
 import type { DB } from "@/db/client";
-import { createJob } from "@/db/jobs";
 import { migrateToLatest } from "@/db/migrate";
-import { takeNextJobNumber } from "@/db/number-sequences";
 import { takeNextNumber } from "@/lib/billing/numbering";
+import { takeNextJobNumber } from "@/lib/jobs/numbering";
+import { createJob } from "@/lib/jobs/save";
 import { migrations } from "@/migrations";
 import { emptyDb, freshDb, testEngine } from "../helpers/db";
 

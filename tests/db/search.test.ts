@@ -3,7 +3,8 @@ import { beforeEach, describe, expect, it } from "vitest";
 import type { DB } from "@/db/client";
 import { listCustomers } from "@/db/customers";
 import { createCustomer, updateCustomer } from "@/lib/customers/manage";
-import { createJob, listJobs, updateJob } from "@/db/jobs";
+import { listJobs } from "@/db/jobs";
+import { createJob, updateJob } from "@/lib/jobs/save";
 import { jobSearch, searchWords } from "@/db/search";
 import { freshDb, testEngine } from "../helpers/db";
 

@@ -8,7 +8,7 @@ import { POST as paymentRoute } from "@/app/api/invoices/[id]/payments/route";
 import { POST as offerRoute } from "@/app/api/quotes/[id]/offer/route";
 import { PUT as putCounterSettings } from "@/app/api/settings/counter/route";
 import type { DB } from "@/db/client";
-import { updateJob } from "@/db/jobs";
+import { updateJob } from "@/lib/jobs/save";
 import { listMailLog } from "@/db/mail";
 import { createInvoice } from "@/lib/billing/invoices";
 import { createQuote } from "@/lib/billing/quotes";

@@ -8,7 +8,8 @@ import { DELETE as deleteUpload, GET as getUpload } from "@/app/api/uploads/[id]
 import { GET as getThumbnail } from "@/app/api/uploads/[id]/thumbnail/route";
 import { listAuditEntries } from "@/db/audit";
 import type { DB } from "@/db/client";
-import { createJob, type Job } from "@/db/jobs";
+import { type Job } from "@/db/jobs";
+import { createJob } from "@/lib/jobs/save";
 import type { Role } from "@/db/schema";
 import type { User } from "@/db/users";
 import { resetEnvCache } from "@/lib/env";
