@@ -1,5 +1,6 @@
 import type { DB } from "@/db/client";
 import { createCustomer } from "@/lib/customers/manage";
+import { isDatabaseEmptyForDemo } from "@/db/demo";
 import { createJob, type JobSpec, updateJob } from "@/db/jobs";
 import { seedBuildDemo } from "@/lib/build-record/demo";
 import type { JobStatus, PartKind, Role } from "@/db/schema";
@@ -152,8 +153,7 @@ async function weighDemoV8(db: DB, jobId: number) {
 
 /** Fills an empty database with the demo shop. Returns false when there is already data. */
 export async function seedDemo(db: DB): Promise<boolean> {
-  const existing = await db.selectFrom("users").select("id").limit(1).executeTakeFirst();
-  if (existing) return false;
+  if (!(await isDatabaseEmptyForDemo(db))) return false;
 
   const customers = [];
   for (const c of CUSTOMERS) customers.push(await createCustomer(db, c, null));
