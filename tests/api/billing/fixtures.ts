@@ -1,10 +1,11 @@
 import type { DB } from "@/db/client";
-import { createJob, type Job } from "@/db/jobs";
+import type { Job } from "@/db/jobs";
 import type { PriceItem } from "@/db/prices";
 import type { Role } from "@/db/schema";
 import { updateShopSettings } from "@/lib/settings/shop-settings";
 import type { User } from "@/db/users";
 import { createPriceItem } from "@/lib/billing/prices";
+import { createJob } from "@/lib/jobs/save";
 import { addOneOfEachRole, addTestCustomer, addTestUser } from "../../helpers/db";
 
 export interface BillingWorld {
