@@ -1,8 +1,11 @@
-import type { Kysely, Transaction } from "kysely";
-import { createAuditEntry } from "./audit";
-import { forUpdate, lockJob } from "./dialect";
-import { NotFoundError, StaleWriteError } from "./errors";
-import type { Database, PartKind, RotatingPart, WeighPhase } from "./schema";
+import type { Kysely, Selectable, Transaction } from "kysely";
+import { StaleWriteError } from "./errors";
+import type { Database, PartKind, PartWeightTable, RotatingPart, WeighPhase } from "./schema";
+
+// Weights, targets and rotating-part records of a job: the queries only. The saves (the job's
+// lock, the version a writer read, the audit entry, the one transaction) are lib/workshop's.
+
+type Db = Kysely<Database> | Transaction<Database>;
 
 /** One part's readings off the scale (decimal strings in the job's unit), first weigh or after machining. */
 export interface PartWeight {
@@ -16,7 +19,19 @@ export interface PartWeight {
   updatedAt: string;
 }
 
-export async function listPartWeights(db: Kysely<Database>, jobId: number): Promise<PartWeight[]> {
+function toPartWeight(r: Selectable<PartWeightTable>): PartWeight {
+  return {
+    cylinder: r.cylinder,
+    kind: r.kind,
+    phase: r.phase,
+    readings: JSON.parse(r.readings_json) as string[],
+    confirmedOutlier: r.confirmed_outlier === 1,
+    version: r.version,
+    updatedAt: r.updated_at,
+  };
+}
+
+export async function listPartWeights(db: Db, jobId: number): Promise<PartWeight[]> {
   const rows = await db
     .selectFrom("part_weights")
     .selectAll()
@@ -25,35 +40,32 @@ export async function listPartWeights(db: Kysely<Database>, jobId: number): Prom
     .orderBy("kind")
     .orderBy("cylinder")
     .execute();
-  return rows.map((r) => ({
-    cylinder: r.cylinder,
-    kind: r.kind,
-    phase: r.phase,
-    readings: JSON.parse(r.readings_json) as string[],
-    confirmedOutlier: r.confirmed_outlier === 1,
-    version: r.version,
-    updatedAt: r.updated_at,
-  }));
+  return rows.map(toPartWeight);
 }
 
-export interface PartWeightWrite {
+/** Which part and phase a weight is: one row per job, cylinder, kind and phase. */
+export interface PartWeightKey {
   jobId: number;
   cylinder: number;
   kind: PartKind;
   phase: WeighPhase;
-  /** Empty clears the part. */
+}
+
+/** A stored weight with its row id, as a writer reads it before changing it. */
+export interface StoredPartWeight extends PartWeight {
+  id: number;
+}
+
+/** What a weight write stores besides its key. */
+export interface PartWeightValues {
   readings: string[];
-  /** The version the writer last saw; 0 for a part not weighed yet. */
-  baseVersion: number;
-  /**
-   * Stored with the readings: the machinist confirmed them although they sit far from the rest
-   * of the kind. Every write without it clears the mark, so a changed weight is checked afresh.
-   */
-  confirmedOutlier?: boolean;
+  confirmedOutlier: boolean;
+  updatedBy: number | null;
+  updatedAt: string;
 }
 
 /** The shop's outlier percentage (shop_settings.outlier_percent), or null before any settings are saved. */
-export async function findOutlierPercent(db: Kysely<Database>): Promise<string | null> {
+export async function findOutlierPercent(db: Db): Promise<string | null> {
   const row = await db
     .selectFrom("shop_settings")
     .select("outlier_percent")
@@ -62,113 +74,93 @@ export async function findOutlierPercent(db: Kysely<Database>): Promise<string |
   return row?.outlier_percent ?? null;
 }
 
-/**
- * Saves one part's readings if nobody changed them since the writer read them; every change is
- * audited with the readings before and after. Returns the saved weight (null when cleared).
- */
-export async function savePartWeight(
-  db: Kysely<Database>,
-  write: PartWeightWrite,
-  actorId: number | null,
-  now = new Date(),
-): Promise<PartWeight | null> {
-  return db.transaction().execute((trx) => writePartWeight(trx, write, actorId, now));
-}
-
-/** Several parts at once (a CSV import): all of them, or none if any is stale. */
-export async function savePartWeights(
-  db: Kysely<Database>,
-  writes: PartWeightWrite[],
-  actorId: number | null,
-  now = new Date(),
-): Promise<(PartWeight | null)[]> {
-  return db.transaction().execute(async (trx) => {
-    const saved = [];
-    for (const write of writes) saved.push(await writePartWeight(trx, write, actorId, now));
-    return saved;
-  });
-}
-
-async function writePartWeight(
-  trx: Transaction<Database>,
-  write: PartWeightWrite,
-  actorId: number | null,
-  now: Date,
-): Promise<PartWeight | null> {
-  // Locked on PostgreSQL: saves of this job's parts wait their turn (db/dialect.ts, lockJob).
-  const job = await trx
-    .selectFrom("jobs")
-    .select("id")
-    .where("id", "=", write.jobId)
-    .$call(forUpdate(trx))
-    .executeTakeFirst();
-  if (!job) throw new NotFoundError("job");
-  const key = {
-    job_id: write.jobId,
-    cylinder: write.cylinder,
-    kind: write.kind,
-    phase: write.phase,
-  };
-  const before = await trx
+/** One part's stored weight in one phase, or undefined when it is not weighed. */
+export async function findPartWeight(
+  db: Db,
+  key: PartWeightKey,
+): Promise<StoredPartWeight | undefined> {
+  const row = await db
     .selectFrom("part_weights")
     .selectAll()
-    .where("job_id", "=", key.job_id)
+    .where("job_id", "=", key.jobId)
     .where("cylinder", "=", key.cylinder)
     .where("kind", "=", key.kind)
     .where("phase", "=", key.phase)
     .executeTakeFirst();
-  const currentVersion = before?.version ?? 0;
-  if (currentVersion !== write.baseVersion) throw new StaleWriteError("weight", currentVersion);
+  return row && { id: row.id, ...toPartWeight(row) };
+}
 
-  const at = now.toISOString();
-  const entityId = `${write.jobId}:${write.cylinder}:${write.kind}:${write.phase}`;
-  const beforeReadings = before ? (JSON.parse(before.readings_json) as string[]) : [];
-  let saved: PartWeight | null = null;
-  if (write.readings.length === 0) {
-    if (before) await trx.deleteFrom("part_weights").where("id", "=", before.id).execute();
-  } else {
-    const readings_json = JSON.stringify(write.readings);
-    const confirmed_outlier = write.confirmedOutlier ? 1 : 0;
-    const version = currentVersion + 1;
-    if (before) {
-      await trx
-        .updateTable("part_weights")
-        .set({ readings_json, confirmed_outlier, version, updated_by: actorId, updated_at: at })
-        .where("id", "=", before.id)
-        .execute();
-    } else {
-      await trx
-        .insertInto("part_weights")
-        .values({
-          ...key,
-          readings_json,
-          confirmed_outlier,
-          version,
-          updated_by: actorId,
-          updated_at: at,
-        })
-        .execute();
-    }
-    saved = {
+/** Stores a part's first weight in a phase, at version 1. */
+export async function insertPartWeight(
+  db: Db,
+  key: PartWeightKey,
+  values: PartWeightValues,
+): Promise<void> {
+  await db
+    .insertInto("part_weights")
+    .values({
+      job_id: key.jobId,
       cylinder: key.cylinder,
       kind: key.kind,
       phase: key.phase,
-      readings: write.readings,
-      confirmedOutlier: confirmed_outlier === 1,
-      version,
-      updatedAt: at,
-    };
+      readings_json: JSON.stringify(values.readings),
+      confirmed_outlier: values.confirmedOutlier ? 1 : 0,
+      version: 1,
+      updated_by: values.updatedBy,
+      updated_at: values.updatedAt,
+    })
+    .execute();
+}
+
+async function currentWeightVersion(db: Db, id: number): Promise<number> {
+  const row = await db
+    .selectFrom("part_weights")
+    .select("version")
+    .where("id", "=", id)
+    .executeTakeFirst();
+  return row?.version ?? 0;
+}
+
+/**
+ * Writes a stored weight's readings if it is still at `version`, and moves it to the next one.
+ * @throws StaleWriteError when someone else wrote (or cleared) it since `version` was read
+ */
+export async function updatePartWeight(
+  db: Db,
+  id: number,
+  version: number,
+  values: PartWeightValues,
+): Promise<void> {
+  const result = await db
+    .updateTable("part_weights")
+    .set({
+      readings_json: JSON.stringify(values.readings),
+      confirmed_outlier: values.confirmedOutlier ? 1 : 0,
+      version: version + 1,
+      updated_by: values.updatedBy,
+      updated_at: values.updatedAt,
+    })
+    .where("id", "=", id)
+    .where("version", "=", version)
+    .executeTakeFirst();
+  if (Number(result.numUpdatedRows) === 0) {
+    throw new StaleWriteError("weight", await currentWeightVersion(db, id));
   }
-  await createAuditEntry(trx, {
-    userId: actorId,
-    action: saved ? (saved.confirmedOutlier ? "weigh-confirmed" : "weigh") : "clear",
-    entity: "part_weight",
-    entityId,
-    before: beforeReadings,
-    after: saved?.readings ?? [],
-  });
-  await trx.updateTable("jobs").set({ updated_at: at }).where("id", "=", write.jobId).execute();
-  return saved;
+}
+
+/**
+ * Removes a stored weight if it is still at `version`.
+ * @throws StaleWriteError when someone else wrote it since `version` was read
+ */
+export async function deletePartWeight(db: Db, id: number, version: number): Promise<void> {
+  const result = await db
+    .deleteFrom("part_weights")
+    .where("id", "=", id)
+    .where("version", "=", version)
+    .executeTakeFirst();
+  if (Number(result.numDeletedRows) === 0) {
+    throw new StaleWriteError("weight", await currentWeightVersion(db, id));
+  }
 }
 
 export interface PartTarget {
@@ -177,7 +169,7 @@ export interface PartTarget {
   version: number;
 }
 
-export async function listPartTargets(db: Kysely<Database>, jobId: number): Promise<PartTarget[]> {
+export async function listPartTargets(db: Db, jobId: number): Promise<PartTarget[]> {
   const rows = await db
     .selectFrom("part_targets")
     .selectAll()
@@ -186,40 +178,52 @@ export async function listPartTargets(db: Kysely<Database>, jobId: number): Prom
   return rows.map((r) => ({ kind: r.kind, target: r.target, version: r.version }));
 }
 
-/** Sets or clears (null: back to the lightest part) the target for one kind of part. */
-export async function savePartTarget(
-  db: Kysely<Database>,
-  write: { jobId: number; kind: PartKind; target: string | null; baseVersion: number },
-  actorId: number | null,
-): Promise<PartTarget> {
-  return db.transaction().execute(async (trx) => {
-    await lockJob(trx, write.jobId);
-    const before = await trx
-      .selectFrom("part_targets")
-      .selectAll()
-      .where("job_id", "=", write.jobId)
-      .where("kind", "=", write.kind)
-      .executeTakeFirst();
-    const currentVersion = before?.version ?? 0;
-    if (currentVersion !== write.baseVersion) throw new StaleWriteError("target", currentVersion);
-    const version = currentVersion + 1;
-    await trx
-      .insertInto("part_targets")
-      .values({ job_id: write.jobId, kind: write.kind, target: write.target, version })
-      .onConflict((oc) =>
-        oc.columns(["job_id", "kind"]).doUpdateSet({ target: write.target, version }),
-      )
-      .execute();
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "set-target",
-      entity: "part_target",
-      entityId: `${write.jobId}:${write.kind}`,
-      before: before?.target ?? null,
-      after: write.target,
-    });
-    return { kind: write.kind, target: write.target, version };
-  });
+/** One kind's target on a job, or undefined when none was ever set. */
+export async function findPartTarget(
+  db: Db,
+  jobId: number,
+  kind: PartKind,
+): Promise<PartTarget | undefined> {
+  const row = await db
+    .selectFrom("part_targets")
+    .selectAll()
+    .where("job_id", "=", jobId)
+    .where("kind", "=", kind)
+    .executeTakeFirst();
+  return row && { kind: row.kind, target: row.target, version: row.version };
+}
+
+/** Stores the first target of a kind on a job, at version 1. */
+export async function insertPartTarget(
+  db: Db,
+  jobId: number,
+  kind: PartKind,
+  target: string | null,
+): Promise<void> {
+  await db.insertInto("part_targets").values({ job_id: jobId, kind, target, version: 1 }).execute();
+}
+
+/**
+ * Writes a kind's target if it is still at `version`, and moves it to the next one.
+ * @throws StaleWriteError when someone else set it since `version` was read
+ */
+export async function updatePartTarget(
+  db: Db,
+  jobId: number,
+  kind: PartKind,
+  version: number,
+  target: string | null,
+): Promise<void> {
+  const result = await db
+    .updateTable("part_targets")
+    .set({ target, version: version + 1 })
+    .where("job_id", "=", jobId)
+    .where("kind", "=", kind)
+    .where("version", "=", version)
+    .executeTakeFirst();
+  if (Number(result.numUpdatedRows) === 0) {
+    throw new StaleWriteError("target", (await findPartTarget(db, jobId, kind))?.version ?? 0);
+  }
 }
 
 export interface RotatingRecord<T = unknown> {
@@ -229,10 +233,7 @@ export interface RotatingRecord<T = unknown> {
   updatedAt: string;
 }
 
-export async function listRotatingRecords(
-  db: Kysely<Database>,
-  jobId: number,
-): Promise<RotatingRecord[]> {
+export async function listRotatingRecords(db: Db, jobId: number): Promise<RotatingRecord[]> {
   const rows = await db
     .selectFrom("rotating_records")
     .selectAll()
@@ -247,50 +248,79 @@ export async function listRotatingRecords(
   }));
 }
 
-/** Saves the record of one rotating part (crank, flywheel, clutch, damper) with a version check. */
-export async function saveRotatingRecord(
-  db: Kysely<Database>,
-  write: { jobId: number; part: RotatingPart; data: unknown; baseVersion: number },
-  actorId: number | null,
-  now = new Date(),
-): Promise<RotatingRecord> {
-  return db.transaction().execute(async (trx) => {
-    await lockJob(trx, write.jobId);
-    const before = await trx
-      .selectFrom("rotating_records")
-      .selectAll()
-      .where("job_id", "=", write.jobId)
-      .where("part", "=", write.part)
-      .executeTakeFirst();
-    const currentVersion = before?.version ?? 0;
-    if (currentVersion !== write.baseVersion) throw new StaleWriteError("record", currentVersion);
-    const version = currentVersion + 1;
-    const at = now.toISOString();
-    const data_json = JSON.stringify(write.data);
-    await trx
-      .insertInto("rotating_records")
-      .values({
-        job_id: write.jobId,
-        part: write.part,
-        data_json,
-        version,
-        updated_by: actorId,
-        updated_at: at,
-      })
-      .onConflict((oc) =>
-        oc
-          .columns(["job_id", "part"])
-          .doUpdateSet({ data_json, version, updated_by: actorId, updated_at: at }),
-      )
-      .execute();
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "record",
-      entity: "rotating_record",
-      entityId: `${write.jobId}:${write.part}`,
-      before: before ? (JSON.parse(before.data_json) as unknown) : null,
-      after: write.data,
-    });
-    return { part: write.part, data: write.data, version, updatedAt: at };
-  });
+/** One rotating part's record on a job, or undefined when it was never recorded. */
+export async function findRotatingRecord(
+  db: Db,
+  jobId: number,
+  part: RotatingPart,
+): Promise<RotatingRecord | undefined> {
+  const row = await db
+    .selectFrom("rotating_records")
+    .selectAll()
+    .where("job_id", "=", jobId)
+    .where("part", "=", part)
+    .executeTakeFirst();
+  return (
+    row && {
+      part: row.part,
+      data: JSON.parse(row.data_json) as unknown,
+      version: row.version,
+      updatedAt: row.updated_at,
+    }
+  );
+}
+
+/** What a rotating-part record write stores besides its job and part. */
+export interface RotatingRecordValues {
+  data: unknown;
+  updatedBy: number | null;
+  updatedAt: string;
+}
+
+/** Stores the first record of a rotating part on a job, at version 1. */
+export async function insertRotatingRecord(
+  db: Db,
+  jobId: number,
+  part: RotatingPart,
+  values: RotatingRecordValues,
+): Promise<void> {
+  await db
+    .insertInto("rotating_records")
+    .values({
+      job_id: jobId,
+      part,
+      data_json: JSON.stringify(values.data),
+      version: 1,
+      updated_by: values.updatedBy,
+      updated_at: values.updatedAt,
+    })
+    .execute();
+}
+
+/**
+ * Writes a rotating part's record if it is still at `version`, and moves it to the next one.
+ * @throws StaleWriteError when someone else recorded it since `version` was read
+ */
+export async function updateRotatingRecord(
+  db: Db,
+  jobId: number,
+  part: RotatingPart,
+  version: number,
+  values: RotatingRecordValues,
+): Promise<void> {
+  const result = await db
+    .updateTable("rotating_records")
+    .set({
+      data_json: JSON.stringify(values.data),
+      version: version + 1,
+      updated_by: values.updatedBy,
+      updated_at: values.updatedAt,
+    })
+    .where("job_id", "=", jobId)
+    .where("part", "=", part)
+    .where("version", "=", version)
+    .executeTakeFirst();
+  if (Number(result.numUpdatedRows) === 0) {
+    throw new StaleWriteError("record", (await findRotatingRecord(db, jobId, part))?.version ?? 0);
+  }
 }

@@ -20,10 +20,10 @@ const { GET: health } = await import("../app/api/health/route");
 const client = await import("../db/client");
 const { migrateToLatest } = await import("../db/migrate");
 const { createCustomer } = await import("../lib/customers/manage");
-const { createJob, listJobs } = await import("../db/jobs");
+const { listJobs } = await import("../db/jobs");
+const { createJob } = await import("../lib/jobs/save");
 const { createUser } = await import("../lib/users/manage");
-const { savePartWeight } = await import("../db/weights");
-const { saveWeighing } = await import("../lib/workshop/save-weight");
+const { savePartWeight, saveWeighing } = await import("../lib/workshop/save-weight");
 const { MissingPostgresError, startThrowawayCluster } = await import("./test-pg-cluster");
 
 type DB = ReturnType<typeof client.openDatabase>;

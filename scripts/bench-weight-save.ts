@@ -18,12 +18,12 @@ const { GET: health } = await import("../app/api/health/route");
 const { setDb, openDatabase } = await import("../db/client");
 const { migrateToLatest } = await import("../db/migrate");
 const { createCustomer } = await import("../lib/customers/manage");
-const { createJob } = await import("../db/jobs");
+const { createJob } = await import("../lib/jobs/save");
 const { createUser } = await import("../lib/users/manage");
-const { findOutlierPercent, listPartWeights, savePartWeight } = await import("../db/weights");
+const { findOutlierPercent, listPartWeights } = await import("../db/weights");
 const { checkPartWeight } = await import("../lib/workshop/outliers");
 const { loadWorkshop } = await import("../lib/workshop/load");
-const { saveWeighing } = await import("../lib/workshop/save-weight");
+const { savePartWeight, saveWeighing } = await import("../lib/workshop/save-weight");
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
 

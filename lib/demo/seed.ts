@@ -1,10 +1,11 @@
 import type { DB } from "@/db/client";
 import { createCustomer } from "@/lib/customers/manage";
 import { isDatabaseEmptyForDemo } from "@/db/demo";
-import { createJob, type JobSpec, updateJob } from "@/db/jobs";
+import type { JobSpec } from "@/db/jobs";
+import { createJob, updateJob } from "@/lib/jobs/save";
 import { seedBuildDemo } from "@/lib/build-record/demo";
 import type { JobStatus, PartKind, Role } from "@/db/schema";
-import { savePartWeight } from "@/db/weights";
+import { savePartWeight } from "@/lib/workshop/save-weight";
 import { createUser } from "@/lib/users/manage";
 import { hashPassword } from "@/lib/auth/password";
 import { seedBillingDemo } from "@/lib/billing/demo";

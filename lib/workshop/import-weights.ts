@@ -1,7 +1,8 @@
 import type { DB } from "@/db/client";
 import type { Job } from "@/db/jobs";
 import { StaleWriteError } from "@/db/errors";
-import { listPartWeights, savePartWeights } from "@/db/weights";
+import { listPartWeights } from "@/db/weights";
+import { savePartWeights } from "./save-weight";
 import type { WeighPhase } from "@/db/schema";
 import { type CsvPreview, previewWeightsCsv } from "./csv";
 import { loadWorkshop, type Workshop } from "./load";

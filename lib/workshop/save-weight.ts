@@ -1,12 +1,18 @@
+import type { Transaction } from "kysely";
+import { createAuditEntry } from "@/db/audit";
 import type { DB } from "@/db/client";
-import type { Job } from "@/db/jobs";
-import type { PartKind, WeighPhase } from "@/db/schema";
+import { NotFoundError, StaleWriteError } from "@/db/errors";
+import { type Job, lockExistingJob, markJobUpdated } from "@/db/jobs";
+import type { Database, PartKind, WeighPhase } from "@/db/schema";
 import {
+  deletePartWeight,
   findOutlierPercent,
+  findPartWeight,
+  insertPartWeight,
   listPartTargets,
   listPartWeights,
   type PartWeight,
-  savePartWeight,
+  updatePartWeight,
 } from "@/db/weights";
 import { DEFAULT_OUTLIER_PERCENT } from "@/lib/balance";
 import { HttpError } from "@/lib/http/errors";
@@ -92,4 +98,107 @@ export async function saveWeighing(
     { pairing: false },
   );
   return { weight, plan };
+}
+
+export interface PartWeightWrite {
+  jobId: number;
+  cylinder: number;
+  kind: PartKind;
+  phase: WeighPhase;
+  /** Empty clears the part. */
+  readings: string[];
+  /** The version the writer last saw; 0 for a part not weighed yet. */
+  baseVersion: number;
+  /**
+   * Stored with the readings: the machinist confirmed them although they sit far from the rest
+   * of the kind. Every write without it clears the mark, so a changed weight is checked afresh.
+   */
+  confirmedOutlier?: boolean;
+}
+
+/**
+ * Saves one part's readings if nobody changed them since the writer read them; every change is
+ * audited with the readings before and after. Returns the saved weight (null when cleared).
+ *
+ * @example await savePartWeight(db, { jobId, cylinder: 1, kind: "piston", phase: "initial", readings: ["512.4"], baseVersion: 0 }, userId)
+ * @throws NotFoundError when there is no such job; StaleWriteError (409) when the part changed
+ *   since `baseVersion`
+ */
+export async function savePartWeight(
+  db: DB,
+  write: PartWeightWrite,
+  actorId: number | null,
+  now = new Date(),
+): Promise<PartWeight | null> {
+  return db.transaction().execute((trx) => writePartWeight(trx, write, actorId, now));
+}
+
+/**
+ * Several parts at once (a CSV import): all of them, or none if any is stale.
+ * @throws NotFoundError, StaleWriteError as {@link savePartWeight}
+ */
+export async function savePartWeights(
+  db: DB,
+  writes: PartWeightWrite[],
+  actorId: number | null,
+  now = new Date(),
+): Promise<(PartWeight | null)[]> {
+  return db.transaction().execute(async (trx) => {
+    const saved = [];
+    for (const write of writes) saved.push(await writePartWeight(trx, write, actorId, now));
+    return saved;
+  });
+}
+
+async function writePartWeight(
+  trx: Transaction<Database>,
+  write: PartWeightWrite,
+  actorId: number | null,
+  now: Date,
+): Promise<PartWeight | null> {
+  // Locked on PostgreSQL: saves of this job's parts wait their turn (db/dialect.ts, lockJob).
+  if (!(await lockExistingJob(trx, write.jobId))) throw new NotFoundError("job");
+  const key = {
+    jobId: write.jobId,
+    cylinder: write.cylinder,
+    kind: write.kind,
+    phase: write.phase,
+  };
+  const before = await findPartWeight(trx, key);
+  const currentVersion = before?.version ?? 0;
+  if (currentVersion !== write.baseVersion) throw new StaleWriteError("weight", currentVersion);
+
+  const at = now.toISOString();
+  let saved: PartWeight | null = null;
+  if (write.readings.length === 0) {
+    if (before) await deletePartWeight(trx, before.id, before.version);
+  } else {
+    const values = {
+      readings: write.readings,
+      confirmedOutlier: write.confirmedOutlier === true,
+      updatedBy: actorId,
+      updatedAt: at,
+    };
+    if (before) await updatePartWeight(trx, before.id, before.version, values);
+    else await insertPartWeight(trx, key, values);
+    saved = {
+      cylinder: key.cylinder,
+      kind: key.kind,
+      phase: key.phase,
+      readings: write.readings,
+      confirmedOutlier: values.confirmedOutlier,
+      version: currentVersion + 1,
+      updatedAt: at,
+    };
+  }
+  await createAuditEntry(trx, {
+    userId: actorId,
+    action: saved ? (saved.confirmedOutlier ? "weigh-confirmed" : "weigh") : "clear",
+    entity: "part_weight",
+    entityId: `${write.jobId}:${write.cylinder}:${write.kind}:${write.phase}`,
+    before: before?.readings ?? [],
+    after: saved?.readings ?? [],
+  });
+  await markJobUpdated(trx, write.jobId, at);
+  return saved;
 }

@@ -1,8 +1,10 @@
 import { PDFParse } from "pdf-parse";
 import type { DB } from "@/db/client";
-import { createJob, type Job, type JobSpec } from "@/db/jobs";
+import { type Job, type JobSpec } from "@/db/jobs";
+import { createJob } from "@/lib/jobs/save";
 import type { PartKind } from "@/db/schema";
-import { saveRotatingRecord, savePartWeight } from "@/db/weights";
+import { saveRotatingRecord } from "@/lib/workshop/save-rotating-record";
+import { savePartWeight } from "@/lib/workshop/save-weight";
 import { DEMO_V8_WEIGHTS } from "@/lib/demo/v8-weights";
 
 // Invented weights (g) for a made-up in-line four.

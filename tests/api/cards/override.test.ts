@@ -9,7 +9,7 @@ import type { Job } from "@/db/jobs";
 import type { PartKind, Role } from "@/db/schema";
 import type { User } from "@/db/users";
 import { listCardsForJob } from "@/db/cards";
-import { savePartWeight } from "@/db/weights";
+import { savePartWeight } from "@/lib/workshop/save-weight";
 import { addOneOfEachRole, freshDb } from "../../helpers/db";
 import { jsonRequest, params } from "../../helpers/http";
 import { signInAs } from "../../helpers/session";

@@ -14,7 +14,7 @@ import type { DB } from "@/db/client";
 import type { Job } from "@/db/jobs";
 import type { Role } from "@/db/schema";
 import type { User } from "@/db/users";
-import { saveRotatingRecord } from "@/db/weights";
+import { saveRotatingRecord } from "@/lib/workshop/save-rotating-record";
 import { createWeighedJob } from "../cards/fixtures";
 import { addOneOfEachRole, freshDb } from "../../helpers/db";
 import { params } from "../../helpers/http";

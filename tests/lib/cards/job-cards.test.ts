@@ -4,10 +4,10 @@ import { renderToStaticMarkup } from "react-dom/server";
 import { beforeEach, describe, expect, it } from "vitest";
 import { JobCards } from "@/components/cards/job-cards";
 import type { DB } from "@/db/client";
-import { createJob } from "@/db/jobs";
+import { createJob } from "@/lib/jobs/save";
 import type { Role } from "@/db/schema";
 import type { User } from "@/db/users";
-import { savePartTarget } from "@/db/weights";
+import { savePartTarget } from "@/lib/workshop/save-target";
 import { issueCard } from "@/lib/cards/issue";
 import { addOneOfEachRole, freshDb } from "../../helpers/db";
 import {

@@ -2,7 +2,7 @@ import { beforeEach, describe, expect, it } from "vitest";
 import type { DB } from "@/db/client";
 import type { Role } from "@/db/schema";
 import type { User } from "@/db/users";
-import { saveRotatingRecord } from "@/db/weights";
+import { saveRotatingRecord } from "@/lib/workshop/save-rotating-record";
 import { parseCardData } from "@/lib/cards/card-data";
 import { issueCard } from "@/lib/cards/issue";
 import { findCardFile } from "@/lib/cards/list";

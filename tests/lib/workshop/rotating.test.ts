@@ -1,7 +1,7 @@
 import { beforeEach, describe, expect, it } from "vitest";
 import type { DB } from "@/db/client";
 import type { RotatingPart } from "@/db/schema";
-import { saveRotatingRecord } from "@/db/weights";
+import { saveRotatingRecord } from "@/lib/workshop/save-rotating-record";
 import { buildCardData } from "@/lib/cards/card-data";
 import type { RotatingRecordInput } from "@/lib/validation/workshop";
 import { loadWorkshop } from "@/lib/workshop/load";

@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { savePartTarget } from "@/db/weights";
+import { savePartTarget } from "@/lib/workshop/save-target";
 import { requireApiPermission } from "@/lib/auth/guard";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";

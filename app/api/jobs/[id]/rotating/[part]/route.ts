@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { saveRotatingRecord } from "@/db/weights";
+import { saveRotatingRecord } from "@/lib/workshop/save-rotating-record";
 import { requireApiPermission } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http/errors";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
