@@ -1,5 +1,5 @@
 import { getDb } from "@/db/client";
-import { undoPairing } from "@/db/pairing";
+import { undoPairing } from "@/lib/workshop/pairing";
 import { requireApiPermission } from "@/lib/auth/guard";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
