@@ -1,9 +1,12 @@
-import type { Kysely } from "kysely";
-import { createAuditEntry } from "./audit";
+import type { Kysely, Transaction } from "kysely";
 import type { BalanceCardRow, CardPageSize, ShopLogoRow } from "./cards-schema";
-import { lockJob } from "./dialect";
-import { ConflictError, NotFoundError } from "./errors";
 import type { Database } from "./schema";
+
+// Balance cards and the shop's logo: the queries only. Issuing a card (the revision check, the
+// job's lock, the audit entry, the one transaction) is lib/cards/issue.ts; the logo's saves are
+// lib/cards/logo.ts.
+
+type Db = Kysely<Database> | Transaction<Database>;
 
 /** An issued card without its bytes: what lists and the verification page need. */
 export interface StoredCard {
@@ -46,7 +49,7 @@ function toCard(row: CardRowWithIssuer): StoredCard {
   };
 }
 
-function selectCards(db: Kysely<Database>) {
+function selectCards(db: Db) {
   return db
     .selectFrom("balance_cards")
     .leftJoin("users", "users.id", "balance_cards.issued_by")
@@ -69,7 +72,7 @@ function selectCards(db: Kysely<Database>) {
 }
 
 /** The revision the next card of this job gets: 1 for the first. */
-export async function findNextCardRevision(db: Kysely<Database>, jobId: number): Promise<number> {
+export async function findNextCardRevision(db: Db, jobId: number): Promise<number> {
   const row = await db
     .selectFrom("balance_cards")
     .select((eb) => eb.fn.max("revision").as("last"))
@@ -78,7 +81,8 @@ export async function findNextCardRevision(db: Kysely<Database>, jobId: number):
   return Number(row?.last ?? 0) + 1;
 }
 
-export interface NewCard {
+/** An issued card to store: its revision checked and its PDF rendered by lib/cards/issue.ts. */
+export interface CardRowInput {
   jobId: number;
   revision: number;
   pageSize: CardPageSize;
@@ -87,82 +91,55 @@ export interface NewCard {
   dataJson: string;
   verificationCode: string;
   issuedAt: string;
-  jobFingerprint?: string | null;
-  /** Why it was issued with parts outside the band, light or held (kept in the audit entry). */
-  overrideReason?: string | null;
+  issuedBy: number | null;
+  jobFingerprint: string | null;
+}
+
+/** Stores an issued card and answers it as lists show it. */
+export async function insertCard(db: Db, card: CardRowInput): Promise<StoredCard> {
+  const { id } = await db
+    .insertInto("balance_cards")
+    .values({
+      job_id: card.jobId,
+      revision: card.revision,
+      page_size: card.pageSize,
+      pdf: card.pdf,
+      size_bytes: card.pdf.byteLength,
+      sha256: card.sha256,
+      data_json: card.dataJson,
+      verification_code: card.verificationCode,
+      issued_by: card.issuedBy,
+      issued_at: card.issuedAt,
+      job_fingerprint: card.jobFingerprint,
+    })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  return toCard(await selectCards(db).where("balance_cards.id", "=", id).executeTakeFirstOrThrow());
 }
 
 /**
- * Stores an issued card and, in the same transaction, marks the revision it replaces as
- * superseded and writes the audit entry. The revision must be the next one: if another card was
- * issued since the caller looked, nothing is written and a ConflictError (409) is thrown.
+ * Marks the job's cards before `revision` that are not yet superseded as superseded by it, at
+ * `at`, and answers their revisions.
  */
-export async function createCard(
-  db: Kysely<Database>,
-  card: NewCard,
-  actorId: number | null,
-): Promise<StoredCard> {
-  return db.transaction().execute(async (trx) => {
-    await lockJob(trx, card.jobId);
-    const job = await trx
-      .selectFrom("jobs")
-      .select("id")
-      .where("id", "=", card.jobId)
-      .executeTakeFirst();
-    if (!job) throw new NotFoundError("job");
-    if ((await findNextCardRevision(trx, card.jobId)) !== card.revision) {
-      throw new ConflictError(
-        "revision",
-        "Another card was issued for this job a moment ago; look at the list and issue again if needed.",
-      );
-    }
-    const { id } = await trx
-      .insertInto("balance_cards")
-      .values({
-        job_id: card.jobId,
-        revision: card.revision,
-        page_size: card.pageSize,
-        pdf: card.pdf,
-        size_bytes: card.pdf.byteLength,
-        sha256: card.sha256,
-        data_json: card.dataJson,
-        verification_code: card.verificationCode,
-        issued_by: actorId,
-        issued_at: card.issuedAt,
-        job_fingerprint: card.jobFingerprint ?? null,
-      })
-      .returning("id")
-      .executeTakeFirstOrThrow();
-    const superseded = await trx
-      .updateTable("balance_cards")
-      .set({ superseded_at: card.issuedAt, superseded_by_revision: card.revision })
-      .where("job_id", "=", card.jobId)
-      .where("revision", "<", card.revision)
-      .where("superseded_at", "is", null)
-      .returning("revision")
-      .execute();
-    const stored = toCard(
-      await selectCards(trx).where("balance_cards.id", "=", id).executeTakeFirstOrThrow(),
-    );
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "issue-card",
-      entity: "job",
-      entityId: card.jobId,
-      after: {
-        revision: stored.revision,
-        sha256: stored.sha256,
-        pageSize: stored.pageSize,
-        supersedes: superseded.map((s) => s.revision),
-        ...(card.overrideReason ? { overrideReason: card.overrideReason } : {}),
-      },
-    });
-    return stored;
-  });
+export async function supersedeEarlierCards(
+  db: Db,
+  jobId: number,
+  revision: number,
+  at: string,
+): Promise<number[]> {
+  const rows = await db
+    .updateTable("balance_cards")
+    .set({ superseded_at: at, superseded_by_revision: revision })
+    .where("job_id", "=", jobId)
+    .where("revision", "<", revision)
+    .where("superseded_at", "is", null)
+    .returning("revision")
+    .execute();
+  return rows.map((r) => r.revision);
 }
 
 /** A job's cards, newest revision first. */
-export async function listCardsForJob(db: Kysely<Database>, jobId: number): Promise<StoredCard[]> {
+export async function listCardsForJob(db: Db, jobId: number): Promise<StoredCard[]> {
   const rows = await selectCards(db)
     .where("balance_cards.job_id", "=", jobId)
     .orderBy("balance_cards.revision", "desc")
@@ -171,7 +148,7 @@ export async function listCardsForJob(db: Kysely<Database>, jobId: number): Prom
 }
 
 export async function findCard(
-  db: Kysely<Database>,
+  db: Db,
   jobId: number,
   revision: number,
 ): Promise<StoredCard | undefined> {
@@ -184,7 +161,7 @@ export async function findCard(
 
 /** The stored PDF bytes of one revision. */
 export async function findCardPdf(
-  db: Kysely<Database>,
+  db: Db,
   jobId: number,
   revision: number,
 ): Promise<Buffer | undefined> {
@@ -197,29 +174,20 @@ export async function findCardPdf(
   return row && Buffer.from(row.pdf);
 }
 
-export async function findCardByCode(
-  db: Kysely<Database>,
-  code: string,
-): Promise<StoredCard | undefined> {
+export async function findCardByCode(db: Db, code: string): Promise<StoredCard | undefined> {
   const row = await selectCards(db)
     .where("balance_cards.verification_code", "=", code)
     .executeTakeFirst();
   return row && toCard(row);
 }
 
-export async function findCardByHash(
-  db: Kysely<Database>,
-  sha256: string,
-): Promise<StoredCard | undefined> {
+export async function findCardByHash(db: Db, sha256: string): Promise<StoredCard | undefined> {
   const row = await selectCards(db).where("balance_cards.sha256", "=", sha256).executeTakeFirst();
   return row && toCard(row);
 }
 
 /** Of the codes given, the first that belongs to an issued card. */
-export async function findCardByAnyCode(
-  db: Kysely<Database>,
-  codes: string[],
-): Promise<StoredCard | undefined> {
+export async function findCardByAnyCode(db: Db, codes: string[]): Promise<StoredCard | undefined> {
   if (codes.length === 0) return undefined;
   const rows = await selectCards(db)
     .where("balance_cards.verification_code", "in", codes)
@@ -252,77 +220,40 @@ function toLogo(row: ShopLogoRow): ShopLogo {
   };
 }
 
-export async function findShopLogo(db: Kysely<Database>): Promise<ShopLogo | undefined> {
+export async function findShopLogo(db: Db): Promise<ShopLogo | undefined> {
   const row = await db.selectFrom("shop_logo").selectAll().where("id", "=", 1).executeTakeFirst();
   return row && toLogo(row);
 }
 
 export type ShopLogoInput = Omit<ShopLogo, "updatedAt">;
 
-/** Replaces the logo (audited: its hash and size before and after, never the bytes). */
-export async function saveShopLogo(
-  db: Kysely<Database>,
+/** Stores the shop's logo in place of the one it had (there is one row) and answers it. */
+export async function upsertShopLogo(
+  db: Db,
   logo: ShopLogoInput,
-  actorId: number | null,
-  now = new Date(),
+  uploadedBy: number | null,
+  at: string,
 ): Promise<ShopLogo> {
-  return db.transaction().execute(async (trx) => {
-    const before = await findShopLogo(trx);
-    const columns = {
-      content: logo.content,
-      content_type: logo.contentType,
-      size_bytes: logo.sizeBytes,
-      sha256: logo.sha256,
-      width: logo.width,
-      height: logo.height,
-      uploaded_by: actorId,
-      updated_at: now.toISOString(),
-    };
-    const row = await trx
-      .insertInto("shop_logo")
-      .values({ id: 1, ...columns })
-      .onConflict((oc) => oc.column("id").doUpdateSet(columns))
-      .returningAll()
-      .executeTakeFirstOrThrow();
-    const after = toLogo(row);
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "set-logo",
-      entity: "settings",
-      entityId: "logo",
-      before: before ? logoSummary(before) : null,
-      after: logoSummary(after),
-    });
-    return after;
-  });
-}
-
-/** Removes the logo; false when there was none. */
-export async function deleteShopLogo(
-  db: Kysely<Database>,
-  actorId: number | null,
-): Promise<boolean> {
-  return db.transaction().execute(async (trx) => {
-    const before = await findShopLogo(trx);
-    if (!before) return false;
-    await trx.deleteFrom("shop_logo").where("id", "=", 1).execute();
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "remove-logo",
-      entity: "settings",
-      entityId: "logo",
-      before: logoSummary(before),
-    });
-    return true;
-  });
-}
-
-function logoSummary(logo: ShopLogo) {
-  return {
+  const columns = {
+    content: logo.content,
+    content_type: logo.contentType,
+    size_bytes: logo.sizeBytes,
     sha256: logo.sha256,
-    contentType: logo.contentType,
-    sizeBytes: logo.sizeBytes,
     width: logo.width,
     height: logo.height,
+    uploaded_by: uploadedBy,
+    updated_at: at,
   };
+  const row = await db
+    .insertInto("shop_logo")
+    .values({ id: 1, ...columns })
+    .onConflict((oc) => oc.column("id").doUpdateSet(columns))
+    .returningAll()
+    .executeTakeFirstOrThrow();
+  return toLogo(row);
+}
+
+/** Removes the shop's logo row (there is at most one). */
+export async function deleteShopLogoRow(db: Db): Promise<void> {
+  await db.deleteFrom("shop_logo").where("id", "=", 1).execute();
 }

@@ -1,7 +1,16 @@
 import { createHash } from "node:crypto";
+import { createAuditEntry } from "@/db/audit";
 import type { DB } from "@/db/client";
-import { createCard, findNextCardRevision, findShopLogo } from "@/db/cards";
+import {
+  findNextCardRevision,
+  findShopLogo,
+  insertCard,
+  type StoredCard,
+  supersedeEarlierCards,
+} from "@/db/cards";
 import type { CardPageSize } from "@/db/cards-schema";
+import { ConflictError, NotFoundError } from "@/db/errors";
+import { lockExistingJob } from "@/db/jobs";
 import { findCounterSettings } from "@/db/counter-settings";
 import { findCustomerById } from "@/db/customers";
 import { findShopSettings } from "@/db/settings";
@@ -110,4 +119,71 @@ export async function issueCard(
   // A customer who was sent an earlier revision gets this one too (through the outbox).
   await tellCardReissued(db, job.id, job.number, revision, actor.id);
   return toCardSummary(stored, job.number);
+}
+
+export interface NewCard {
+  jobId: number;
+  revision: number;
+  pageSize: CardPageSize;
+  pdf: Buffer;
+  sha256: string;
+  dataJson: string;
+  verificationCode: string;
+  issuedAt: string;
+  jobFingerprint?: string | null;
+  /** Why it was issued with parts outside the band, light or held (kept in the audit entry). */
+  overrideReason?: string | null;
+}
+
+/**
+ * Stores an issued card and, in the same transaction, marks the revisions it replaces as
+ * superseded and writes the audit entry. The revision must be the next one: if another card was
+ * issued since the caller looked, nothing is written.
+ *
+ * @example await createCard(db, { jobId, revision: 1, pageSize: "A4", pdf, sha256, dataJson, verificationCode, issuedAt }, userId)
+ * @throws NotFoundError when there is no such job; ConflictError (409) when `revision` is not
+ *   the job's next one
+ */
+export async function createCard(
+  db: DB,
+  card: NewCard,
+  actorId: number | null,
+): Promise<StoredCard> {
+  return db.transaction().execute(async (trx) => {
+    // Locked on PostgreSQL: two issues of the same job's card take their turn.
+    if (!(await lockExistingJob(trx, card.jobId))) throw new NotFoundError("job");
+    if ((await findNextCardRevision(trx, card.jobId)) !== card.revision) {
+      throw new ConflictError(
+        "revision",
+        "Another card was issued for this job a moment ago; look at the list and issue again if needed.",
+      );
+    }
+    const stored = await insertCard(trx, {
+      jobId: card.jobId,
+      revision: card.revision,
+      pageSize: card.pageSize,
+      pdf: card.pdf,
+      sha256: card.sha256,
+      dataJson: card.dataJson,
+      verificationCode: card.verificationCode,
+      issuedAt: card.issuedAt,
+      issuedBy: actorId,
+      jobFingerprint: card.jobFingerprint ?? null,
+    });
+    const superseded = await supersedeEarlierCards(trx, card.jobId, card.revision, card.issuedAt);
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "issue-card",
+      entity: "job",
+      entityId: card.jobId,
+      after: {
+        revision: stored.revision,
+        sha256: stored.sha256,
+        pageSize: stored.pageSize,
+        supersedes: superseded,
+        ...(card.overrideReason ? { overrideReason: card.overrideReason } : {}),
+      },
+    });
+    return stored;
+  });
 }

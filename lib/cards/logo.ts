@@ -1,8 +1,15 @@
 import { createHash } from "node:crypto";
 import { fileTypeFromBuffer } from "file-type";
 import sharp, { type OutputInfo } from "sharp";
+import { createAuditEntry } from "@/db/audit";
+import {
+  deleteShopLogoRow,
+  findShopLogo,
+  type ShopLogo,
+  type ShopLogoInput,
+  upsertShopLogo,
+} from "@/db/cards";
 import type { DB } from "@/db/client";
-import { saveShopLogo, type ShopLogo } from "@/db/cards";
 import type { User } from "@/db/users";
 import { HttpError } from "@/lib/http/errors";
 
@@ -81,4 +88,64 @@ export function describeLogo(logo: ShopLogo | undefined) {
         url: `/api/settings/logo?v=${logo.sha256.slice(0, 12)}`,
       }
     : { present: false as const };
+}
+
+function logoSummary(logo: ShopLogo) {
+  return {
+    sha256: logo.sha256,
+    contentType: logo.contentType,
+    sizeBytes: logo.sizeBytes,
+    width: logo.width,
+    height: logo.height,
+  };
+}
+
+/**
+ * Replaces the logo, audited with its hash and size before and after (never the bytes), in one
+ * transaction.
+ *
+ * @example await saveShopLogo(db, { content, contentType: "image/png", sizeBytes, sha256, width: 600, height: 200 }, userId)
+ * @throws nothing of its own; the bytes are checked by {@link saveLogoUpload}
+ */
+export async function saveShopLogo(
+  db: DB,
+  logo: ShopLogoInput,
+  actorId: number | null,
+  now = new Date(),
+): Promise<ShopLogo> {
+  return db.transaction().execute(async (trx) => {
+    const before = await findShopLogo(trx);
+    const after = await upsertShopLogo(trx, logo, actorId, now.toISOString());
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "set-logo",
+      entity: "settings",
+      entityId: "logo",
+      before: before ? logoSummary(before) : null,
+      after: logoSummary(after),
+    });
+    return after;
+  });
+}
+
+/**
+ * Removes the logo (audited with what it was); false when there was none.
+ *
+ * @example if (!(await deleteShopLogo(db, userId))) // there was no logo
+ * @throws nothing of its own
+ */
+export async function deleteShopLogo(db: DB, actorId: number | null): Promise<boolean> {
+  return db.transaction().execute(async (trx) => {
+    const before = await findShopLogo(trx);
+    if (!before) return false;
+    await deleteShopLogoRow(trx);
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "remove-logo",
+      entity: "settings",
+      entityId: "logo",
+      before: logoSummary(before),
+    });
+    return true;
+  });
 }

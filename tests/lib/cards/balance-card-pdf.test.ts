@@ -1,12 +1,12 @@
 import sharp from "sharp";
 import { beforeEach, describe, expect, it } from "vitest";
-import { saveShopLogo } from "@/db/cards";
+import { saveShopLogo } from "@/lib/cards/logo";
 import type { DB } from "@/db/client";
 import type { Role } from "@/db/schema";
 import { DEFAULT_SETTINGS } from "@/db/settings";
 import { updateShopSettings } from "@/lib/settings/shop-settings";
 import type { User } from "@/db/users";
-import { savePartWeight } from "@/db/weights";
+import { savePartWeight } from "@/lib/workshop/save-weight";
 import { CARD_CAUTIONS } from "@/lib/cards/wording";
 import { parseCardData } from "@/lib/cards/card-data";
 import { formatCode } from "@/lib/cards/code";

@@ -1,8 +1,8 @@
 import { getDb } from "@/db/client";
-import { deleteShopLogo, findShopLogo } from "@/db/cards";
+import { findShopLogo } from "@/db/cards";
 import { requireApiPermission } from "@/lib/auth/guard";
 import { imageResponse } from "@/lib/cards/http";
-import { describeLogo, LOGO_MAX_BYTES, saveLogoUpload } from "@/lib/cards/logo";
+import { deleteShopLogo, describeLogo, LOGO_MAX_BYTES, saveLogoUpload } from "@/lib/cards/logo";
 import { HttpError } from "@/lib/http/errors";
 import { json, route } from "@/lib/http/route";
 import { FORM_OVERHEAD_BYTES, readUploadForm } from "@/lib/uploads/read-form";
