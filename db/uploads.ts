@@ -1,8 +1,11 @@
-import type { Kysely } from "kysely";
-import { createAuditEntry } from "./audit";
-import { NotFoundError } from "./errors";
+import type { Kysely, Transaction } from "kysely";
 import type { Database } from "./schema";
 import type { UploadCategory, UploadContentType, UploadRow } from "./uploads-schema";
+
+// Files attached to jobs: the queries only. Keeping and removing one (the audit entry, the one
+// transaction, the files on disk) is lib/uploads/save.ts.
+
+type Db = Kysely<Database> | Transaction<Database>;
 
 /** A file attached to a job, as the app and the API show it (never the names on disk). */
 export interface Upload {
@@ -56,7 +59,7 @@ export function toPublicUpload(stored: StoredUpload): Upload {
   return upload;
 }
 
-function selectUploads(db: Kysely<Database>) {
+function selectUploads(db: Db) {
   return db
     .selectFrom("uploads")
     .leftJoin("users", "users.id", "uploads.uploaded_by")
@@ -78,60 +81,42 @@ export interface NewUpload {
   height: number | null;
 }
 
-export async function createUpload(
-  db: Kysely<Database>,
+/** Stores a file's row (its bytes are already on disk) and answers it with its uploader. */
+export async function insertUpload(
+  db: Db,
   input: NewUpload,
-  actorId: number | null,
+  uploadedBy: number | null,
 ): Promise<StoredUpload> {
-  return db.transaction().execute(async (trx) => {
-    const job = await trx
-      .selectFrom("jobs")
-      .select("id")
-      .where("id", "=", input.jobId)
-      .executeTakeFirst();
-    if (!job) throw new NotFoundError("job");
-    const { id } = await trx
-      .insertInto("uploads")
-      .values({
-        job_id: input.jobId,
-        category: input.category,
-        caption: input.caption,
-        original_name: input.originalName,
-        content_type: input.contentType,
-        size_bytes: input.sizeBytes,
-        sha256: input.sha256,
-        stored_name: input.storedName,
-        thumbnail_name: input.thumbnailName,
-        width: input.width,
-        height: input.height,
-        uploaded_by: actorId,
-      })
-      .returning("id")
-      .executeTakeFirstOrThrow();
-    const upload = toStoredUpload(
-      await selectUploads(trx).where("uploads.id", "=", id).executeTakeFirstOrThrow(),
-    );
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "create",
-      entity: "upload",
-      entityId: id,
-      after: toPublicUpload(upload),
-    });
-    return upload;
-  });
+  const { id } = await db
+    .insertInto("uploads")
+    .values({
+      job_id: input.jobId,
+      category: input.category,
+      caption: input.caption,
+      original_name: input.originalName,
+      content_type: input.contentType,
+      size_bytes: input.sizeBytes,
+      sha256: input.sha256,
+      stored_name: input.storedName,
+      thumbnail_name: input.thumbnailName,
+      width: input.width,
+      height: input.height,
+      uploaded_by: uploadedBy,
+    })
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  return toStoredUpload(
+    await selectUploads(db).where("uploads.id", "=", id).executeTakeFirstOrThrow(),
+  );
 }
 
-export async function findUploadById(
-  db: Kysely<Database>,
-  id: number,
-): Promise<StoredUpload | undefined> {
+export async function findUploadById(db: Db, id: number): Promise<StoredUpload | undefined> {
   const row = await selectUploads(db).where("uploads.id", "=", id).executeTakeFirst();
   return row && toStoredUpload(row);
 }
 
 /** A job's files, oldest first (the order they were brought in and printed). */
-export async function listUploadsForJob(db: Kysely<Database>, jobId: number): Promise<Upload[]> {
+export async function listUploadsForJob(db: Db, jobId: number): Promise<Upload[]> {
   const rows = await selectUploads(db)
     .where("uploads.job_id", "=", jobId)
     .orderBy("uploads.id")
@@ -139,24 +124,7 @@ export async function listUploadsForJob(db: Kysely<Database>, jobId: number): Pr
   return rows.map((r) => toPublicUpload(toStoredUpload(r)));
 }
 
-/** Removes the row (with an audit entry) and returns it, so the caller can remove the files. */
-export async function deleteUpload(
-  db: Kysely<Database>,
-  id: number,
-  actorId: number | null,
-): Promise<StoredUpload> {
-  return db.transaction().execute(async (trx) => {
-    const row = await selectUploads(trx).where("uploads.id", "=", id).executeTakeFirst();
-    if (!row) throw new NotFoundError("upload");
-    await trx.deleteFrom("uploads").where("id", "=", id).execute();
-    const upload = toStoredUpload(row);
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "delete",
-      entity: "upload",
-      entityId: id,
-      before: toPublicUpload(upload),
-    });
-    return upload;
-  });
+/** Removes a file's row (its bytes stay on disk for the caller to remove). */
+export async function deleteUploadRow(db: Db, id: number): Promise<void> {
+  await db.deleteFrom("uploads").where("id", "=", id).execute();
 }

@@ -1,6 +1,17 @@
 import { createHash } from "node:crypto";
+import { createAuditEntry } from "@/db/audit";
 import type { DB } from "@/db/client";
-import { createUpload, deleteUpload, listUploadsForJob, type StoredUpload } from "@/db/uploads";
+import { NotFoundError } from "@/db/errors";
+import { jobExists } from "@/db/jobs";
+import {
+  deleteUploadRow,
+  findUploadById,
+  insertUpload,
+  listUploadsForJob,
+  type NewUpload,
+  type StoredUpload,
+  toPublicUpload,
+} from "@/db/uploads";
 import type { User } from "@/db/users";
 import { HttpError } from "@/lib/http/errors";
 import { findJobForUser } from "@/lib/jobs/access";
@@ -80,4 +91,55 @@ export async function removeJobUpload(db: DB, id: number, actor: User): Promise<
     console.error("could not remove stored files of upload", id, error),
   );
   return toUploadView(removed);
+}
+
+/**
+ * Stores a file's row (its bytes already written) with its audit entry, in one transaction.
+ *
+ * @example await createUpload(db, { jobId, category: "arrival-photo", caption: null, originalName: "crank.jpg", … }, userId)
+ * @throws NotFoundError when there is no such job
+ */
+export async function createUpload(
+  db: DB,
+  input: NewUpload,
+  actorId: number | null,
+): Promise<StoredUpload> {
+  return db.transaction().execute(async (trx) => {
+    if (!(await jobExists(trx, input.jobId))) throw new NotFoundError("job");
+    const upload = await insertUpload(trx, input, actorId);
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "create",
+      entity: "upload",
+      entityId: upload.id,
+      after: toPublicUpload(upload),
+    });
+    return upload;
+  });
+}
+
+/**
+ * Removes a file's row with its audit entry and answers it, so the caller can remove the files.
+ *
+ * @example const removed = await deleteUpload(db, uploadId, userId)
+ * @throws NotFoundError when there is no such file
+ */
+export async function deleteUpload(
+  db: DB,
+  id: number,
+  actorId: number | null,
+): Promise<StoredUpload> {
+  return db.transaction().execute(async (trx) => {
+    const upload = await findUploadById(trx, id);
+    if (!upload) throw new NotFoundError("upload");
+    await deleteUploadRow(trx, id);
+    await createAuditEntry(trx, {
+      userId: actorId,
+      action: "delete",
+      entity: "upload",
+      entityId: id,
+      before: toPublicUpload(upload),
+    });
+    return upload;
+  });
 }
