@@ -193,7 +193,7 @@ function QuoteSection({
           />
           {quote.status === "offered" ? (
             <div className="flex flex-wrap items-center gap-3">
-              {role === "customer" ? (
+              {!staff ? (
                 <>
                   <button
                     type="button"
@@ -450,7 +450,7 @@ function InvoiceCard({
               disabled={busy || redirecting}
               onClick={payOnline}
             >
-              {role === "customer" ? "Pay online" : "Open online payment"}
+              {!staff ? "Pay online" : "Open online payment"}
             </button>
             {staff && compareMoney(invoice.amountPaid, "0") === 0 ? (
               <button

@@ -4,6 +4,7 @@ import { useState } from "react";
 import type { BuildCardSummary } from "@/db/build-record";
 import type { Role } from "@/db/schema";
 import { ApiError, apiFetch } from "@/lib/api-client";
+import { may } from "@/lib/auth/policy";
 import { shopDate } from "@/lib/dates/shop-time";
 
 const groups = (code: string) => `${code.slice(0, 5)}-${code.slice(5)}`;
@@ -24,8 +25,8 @@ export function BuildCards({
   const [cards, setCards] = useState(initial);
   const [busy, setBusy] = useState(false);
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
-  const canIssue = role === "machinist" || role === "owner";
-  const canSend = role !== "customer";
+  const canIssue = may({ role }, "issue-card");
+  const canSend = may({ role }, "send-card");
 
   async function run(work: () => Promise<string>) {
     setBusy(true);

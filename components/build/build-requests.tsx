@@ -5,6 +5,7 @@ import { useState } from "react";
 import type { BuildRequest } from "@/db/build-record";
 import type { Role } from "@/db/schema";
 import { ApiError, apiFetch } from "@/lib/api-client";
+import { may } from "@/lib/auth/policy";
 
 const STATE_LABEL = { open: "Open", done: "Done", explained: "Not done" } as const;
 const STATE_CLASS = {
@@ -34,8 +35,8 @@ export function BuildRequests({
   const [busy, setBusy] = useState(false);
   const [explaining, setExplaining] = useState<number | null>(null);
   const [note, setNote] = useState("");
-  const canAdd = role !== "customer";
-  const canResolve = role === "machinist" || role === "owner";
+  const canAdd = may({ role }, "add-build-request");
+  const canResolve = may({ role }, "edit-build-record");
   const open = requests.filter((r) => r.state === "open").length;
 
   const replace = (saved: BuildRequest) =>

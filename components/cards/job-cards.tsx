@@ -2,6 +2,7 @@ import { getDb } from "@/db/client";
 import { findCounterSettings } from "@/db/counter-settings";
 import { findCustomerById } from "@/db/customers";
 import type { User } from "@/db/users";
+import { may } from "@/lib/auth/policy";
 import { cardBlocker } from "@/lib/cards/blocker";
 import { cardExceptions } from "@/lib/cards/exceptions";
 import { listJobCards } from "@/lib/cards/list";
@@ -17,8 +18,8 @@ import { CardsPanel } from "./cards-panel";
 export async function JobCards({ jobId, user }: { jobId: number; user: User }) {
   const db = getDb();
   const job = await findJobForUser(db, jobId, user);
-  const canIssue = user.role === "machinist" || user.role === "owner";
-  const canSend = user.role !== "customer";
+  const canIssue = may(user, "issue-card");
+  const canSend = may(user, "send-card");
   const [cards, workshop, customer, { timeZone }] = await Promise.all([
     listJobCards(db, job.id, user),
     canIssue ? loadWorkshop(db, job) : null,

@@ -9,6 +9,7 @@ import { z } from "zod";
 import { ChangedElsewhere, isStaleWrite } from "@/components/ui/changed-elsewhere";
 import type { Job } from "@/db/jobs";
 import { JOB_STATUSES } from "@/db/schema";
+import { may } from "@/lib/auth/policy";
 import { LAYOUT_PRESETS } from "@/lib/balance";
 import { ApiError, apiFetch } from "@/lib/api-client";
 import { jobSpecSchema } from "@/lib/validation/workshop";
@@ -87,7 +88,7 @@ export function JobSettingsForm({ job: initial, role }: { job: Job; role: string
   const router = useRouter();
   const [job, setJob] = useState(initial);
   const [message, setMessage] = useState<{ ok: boolean; lines: string[] } | null>(null);
-  const machinist = role === "machinist" || role === "owner";
+  const machinist = may({ role }, "edit-balancing-settings");
   const form = useForm<Values, unknown, Parsed>({
     resolver: zodResolver(settingsSchema) as unknown as Resolver<Values, unknown, Parsed>,
     defaultValues: formValues(initial),

@@ -3,18 +3,17 @@
 import Link from "next/link";
 import { usePathname } from "next/navigation";
 import type { Role } from "@/db/schema";
+import { may, type Permission } from "@/lib/auth/policy";
 
 // The bench's screens are the shop's; a customer's job page has its own overview.
-const BENCH_TABS: Role[] = ["owner", "machinist", "counter"];
-
-const SECTIONS: { path: string; label: string; roles?: Role[] }[] = [
+const SECTIONS: { path: string; label: string; permission?: Permission }[] = [
   { path: "", label: "Overview" },
-  { path: "/weigh", label: "Scale", roles: BENCH_TABS },
-  { path: "/plan", label: "Metal to remove", roles: BENCH_TABS },
-  { path: "/bobweights", label: "Bobweights", roles: BENCH_TABS },
-  { path: "/rotating", label: "Crank & rotating", roles: BENCH_TABS },
+  { path: "/weigh", label: "Scale", permission: "read-bench" },
+  { path: "/plan", label: "Metal to remove", permission: "read-bench" },
+  { path: "/bobweights", label: "Bobweights", permission: "read-bench" },
+  { path: "/rotating", label: "Crank & rotating", permission: "read-bench" },
   { path: "/build", label: "Build" },
-  { path: "/billing", label: "Billing", roles: ["owner", "counter", "customer"] },
+  { path: "/billing", label: "Billing", permission: "read-billing" },
 ];
 
 export function JobTabs({ jobId, role }: { jobId: number; role: Role }) {
@@ -25,7 +24,7 @@ export function JobTabs({ jobId, role }: { jobId: number; role: Role }) {
       aria-label="Job sections"
       className="mb-6 flex flex-wrap gap-1 border-b border-graphite-200"
     >
-      {SECTIONS.filter((s) => !s.roles || s.roles.includes(role)).map((s) => {
+      {SECTIONS.filter((s) => !s.permission || may({ role }, s.permission)).map((s) => {
         const href = base + s.path;
         const active = pathname === href;
         return (

@@ -1,7 +1,7 @@
 import { getDb } from "@/db/client";
 import { findCounterSettings } from "@/db/counter-settings";
 import type { User } from "@/db/users";
-import { SHOP_ROLES } from "@/lib/auth/guard";
+import { may } from "@/lib/auth/policy";
 import { shopDateTime } from "@/lib/dates/shop-time";
 import { uploadLimitBytes } from "@/lib/uploads/limits";
 import { listJobUploads } from "@/lib/uploads/save";
@@ -18,7 +18,7 @@ export async function JobUploads({ jobId, user }: { jobId: number; user: User })
     listJobUploads(getDb(), jobId, user),
     findCounterSettings(getDb()),
   ]);
-  const canChange = SHOP_ROLES.includes(user.role);
+  const canChange = may(user, "manage-uploads");
 
   return (
     <section className="panel space-y-4 p-4" aria-labelledby="job-uploads-heading">

@@ -4,6 +4,7 @@ import { useActionState, useState } from "react";
 import { createUserAction } from "@/app/(shop)/users/actions";
 import { ActionMessage, Field } from "@/components/ui/field";
 import { ROLES } from "@/db/schema";
+import { isCustomer } from "@/lib/auth/policy";
 
 export function AddUserForm({ customers }: { customers: { id: number; name: string }[] }) {
   const [result, action, pending] = useActionState(createUserAction, null);
@@ -44,7 +45,7 @@ export function AddUserForm({ customers }: { customers: { id: number; name: stri
           ))}
         </select>
       </div>
-      {role === "customer" ? (
+      {isCustomer({ role }) ? (
         <div>
           <label htmlFor="field-customerId" className="mb-1 block text-sm font-semibold">
             Customer record

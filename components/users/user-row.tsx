@@ -5,6 +5,7 @@ import { changeUserAction } from "@/app/(shop)/users/actions";
 import { ROLES } from "@/db/schema";
 import type { User } from "@/db/users";
 import { ResetPasswordForm } from "./reset-password-form";
+import { isCustomer } from "@/lib/auth/policy";
 
 export function UserRow({ user }: { user: User }) {
   const [result, action, pending] = useActionState(changeUserAction, null);
@@ -23,15 +24,15 @@ export function UserRow({ user }: { user: User }) {
             name="role"
             defaultValue={user.role}
             className="field-input w-36 py-1"
-            disabled={user.role === "customer"}
+            disabled={isCustomer(user)}
           >
-            {ROLES.filter((r) => r !== "customer" || user.role === "customer").map((r) => (
+            {ROLES.filter((r) => !isCustomer({ role: r }) || isCustomer(user)).map((r) => (
               <option key={r} value={r}>
                 {r}
               </option>
             ))}
           </select>
-          {user.role !== "customer" ? (
+          {!isCustomer(user) ? (
             <button className="btn-secondary py-1" type="submit" disabled={pending}>
               Change
             </button>

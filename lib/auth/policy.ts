@@ -25,7 +25,8 @@ const EVERYONE = ["owner", "machinist", "counter", "customer"] as const;
  * - "none": nothing of a customer's is read (the balance calculators, their own password).
  * - "own-job": the job (or the record on it) must be theirs: `findJobForUser`.
  * - "own-invoice": the invoice must be on their job and not a draft: `findInvoiceForUser`.
- * - "own-quote": the quote must be on their job and not a draft: `findQuoteForUser`.
+ * - "own-quote": the quote must be on their job, offered or accepted (not a draft, not
+ *   withdrawn): `findQuoteForUser`.
  * - "own-upload": the upload's job must be theirs: `findUploadForUser`.
  * - "scoped-list": a list narrowed to their customer record: `customerScope`.
  * Someone else's record answers 404, exactly as one that does not exist.
@@ -115,7 +116,7 @@ export const PERMISSIONS = {
   "read-quote": {
     roles: BILLING,
     customer: "own-quote",
-    means: "open a quote (a customer: their own, once offered)",
+    means: "open a quote (a customer: their own, offered or accepted)",
   },
   "accept-quote": {
     roles: BILLING,
@@ -156,7 +157,7 @@ export const PERMISSIONS = {
 export type Permission = keyof typeof PERMISSIONS;
 
 /** Anyone asking: a signed-in user, a role alone (a component's prop), or nobody. */
-export type Asker = { role: Role | string | null | undefined } | null | undefined;
+export type Asker = { role?: Role | string | null } | null | undefined;
 
 /**
  * The record a customer must own, as far as the policy needs it: the customer the job (or the
@@ -198,6 +199,14 @@ export function isCustomer(asker: Asker): boolean {
 }
 
 /**
+ * Whether the asker holds the owner's role: the shop must keep at least one active owner, so the
+ * last one can be neither demoted nor disabled.
+ */
+export function isOwner(asker: Asker): boolean {
+  return roleOf(asker) === "owner";
+}
+
+/**
  * The bench board's first section: the counter, who hands jobs back, sees the jobs ready to
  * collect first; the bench sees its work first.
  */
@@ -229,8 +238,9 @@ export function may(asker: Asker, permission: Permission, record?: OwnedRecord |
     case "own-upload":
       return ownsIt;
     case "own-invoice":
-    case "own-quote":
       return ownsIt && record.status !== "draft";
+    case "own-quote":
+      return ownsIt && record.status !== "draft" && record.status !== "withdrawn";
     default:
       return true;
   }

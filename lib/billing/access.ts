@@ -3,6 +3,7 @@ import { findInvoiceById, type Invoice } from "@/db/invoices";
 import { listPaymentsForInvoice, type Payment } from "@/db/payments";
 import { findQuoteById, listQuotesForJob, type Quote } from "@/db/quotes";
 import type { User } from "@/db/users";
+import { isCustomer, may } from "@/lib/auth/policy";
 import { HttpError } from "@/lib/http/errors";
 import { findJobForUser } from "@/lib/jobs/access";
 
@@ -12,11 +13,7 @@ import { findJobForUser } from "@/lib/jobs/access";
  */
 export async function findInvoiceForUser(db: DB, id: number, user: User): Promise<Invoice> {
   const invoice = await findInvoiceById(db, id);
-  if (
-    !invoice ||
-    (user.role === "customer" &&
-      (invoice.customerId !== user.customerId || invoice.status === "draft"))
-  ) {
+  if (!invoice || !may(user, "read-invoice", invoice)) {
     throw new HttpError(404, "not_found", "No such invoice.");
   }
   return invoice;
@@ -29,9 +26,9 @@ export async function findInvoiceForUser(db: DB, id: number, user: User): Promis
 export async function findQuoteForUser(db: DB, id: number, user: User): Promise<Quote> {
   const quote = await findQuoteById(db, id);
   if (!quote) throw new HttpError(404, "not_found", "No such quote.");
-  if (user.role === "customer") {
+  if (isCustomer(user)) {
     const job = await findJobForUser(db, quote.jobId, user).catch(() => undefined);
-    if (!job || quote.status === "draft" || quote.status === "withdrawn")
+    if (!job || !may(user, "read-quote", { customerId: job.customerId, status: quote.status }))
       throw new HttpError(404, "not_found", "No such quote.");
   }
   return quote;
@@ -40,7 +37,7 @@ export async function findQuoteForUser(db: DB, id: number, user: User): Promise<
 /** A job's quotes as this user may see them: customers only their own jobs', never drafts or withdrawn ones. */
 export async function listQuotesForUser(db: DB, jobId: number, user: User): Promise<Quote[]> {
   await findJobForUser(db, jobId, user);
-  const shop = user.role !== "customer";
+  const shop = !isCustomer(user);
   return listQuotesForJob(db, jobId, { includeDrafts: shop, includeWithdrawn: shop });
 }
 

@@ -6,6 +6,7 @@ import { listPriceItems, type PriceItem } from "@/db/prices";
 import type { Quote } from "@/db/quotes";
 import { findShopSettings } from "@/db/settings";
 import type { User } from "@/db/users";
+import { isCustomer } from "@/lib/auth/policy";
 import { findJobForUser } from "@/lib/jobs/access";
 import { listQuotesForUser } from "./access";
 
@@ -24,7 +25,7 @@ export interface JobBilling {
 /** Everything the job's billing page shows, as this user may see it (404 for others' jobs). */
 export async function loadJobBilling(db: DB, jobId: number, user: User): Promise<JobBilling> {
   const job = await findJobForUser(db, jobId, user);
-  const customer = user.role === "customer";
+  const customer = isCustomer(user);
   const [quotes, { invoices }, prices, settings] = await Promise.all([
     listQuotesForUser(db, jobId, user),
     listInvoices(db, { jobId, excludeDrafts: customer, limit: 100 }),

@@ -15,6 +15,7 @@ import {
   replaceDraftLines,
 } from "./document-lines";
 import { BillingInputError } from "./errors";
+import { may } from "@/lib/auth/policy";
 
 /** Starts a quote for a job, priced from the list; one live (not withdrawn) quote per job. */
 export async function createQuote(
@@ -119,5 +120,5 @@ export async function moveQuote(
  */
 export async function acceptQuoteAs(db: DB, id: number, user: User): Promise<Quote> {
   await findQuoteForUser(db, id, user);
-  return moveQuote(db, id, "accept", user.id, { acceptFromDraft: user.role !== "customer" });
+  return moveQuote(db, id, "accept", user.id, { acceptFromDraft: may(user, "write-quotes") });
 }

@@ -15,6 +15,7 @@ import { StaleWriteError } from "@/db/errors";
 import type { Job } from "@/db/jobs";
 import type { Database } from "@/db/schema";
 import type { User } from "@/db/users";
+import { isCustomer } from "@/lib/auth/policy";
 import { HttpError } from "@/lib/http/errors";
 import { type BuildRecordResults, evaluateBuildRecord } from "./evaluate";
 import {
@@ -29,7 +30,7 @@ import { recordedLengths, recordedLoads } from "./units";
 
 /** Whether this user may see the job's build record now (customers: once the job is ready). */
 export function recordShownTo(job: Pick<Job, "status">, user: Pick<User, "role">): boolean {
-  return user.role !== "customer" || CUSTOMER_SEES.includes(job.status);
+  return !isCustomer(user) || CUSTOMER_SEES.includes(job.status);
 }
 
 /**
@@ -47,8 +48,7 @@ export async function buildRecordFor(
   return { record: await loadBuildRecord(db, job, user) };
 }
 
-/** Who writes the build record; the counter reads it; a customer reads their own once ready. */
-export const WRITE_ROLES = ["machinist", "owner"] as const;
+/** A customer reads their own job's build record once the job is ready (the bench writes it). */
 const CUSTOMER_SEES = ["ready", "collected"];
 
 export interface SectionState {

@@ -46,11 +46,6 @@ export async function assertRequestsSettled(
   if (open.length > 0) throw new OpenRequestsError(open, to);
 }
 
-/** Who may tick or explain a request: the machinist and the owner. */
-export const RESOLVE_ROLES = ["machinist", "owner"] as const;
-/** Who may write a request down: the counter too. */
-export const ADD_ROLES = ["counter", "machinist", "owner"] as const;
-
 export function listRequests(db: Kysely<Database>, job: Job): Promise<BuildRequest[]> {
   return listBuildRequests(db, job.id);
 }

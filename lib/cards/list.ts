@@ -2,6 +2,7 @@ import type { DB } from "@/db/client";
 import { findCard, findCardPdf, listCardsForJob } from "@/db/cards";
 import { listMailLog } from "@/db/mail";
 import type { User } from "@/db/users";
+import { isCustomer } from "@/lib/auth/policy";
 import { HttpError } from "@/lib/http/errors";
 import { findJobForUser } from "@/lib/jobs/access";
 import type { CardMailSummary, CardSummary } from "./summary";
@@ -38,9 +39,7 @@ export async function listJobCards(db: DB, jobId: number, user: User): Promise<C
   const job = await findJobForUser(db, jobId, user);
   const [cards, mail] = await Promise.all([
     listCardsForJob(db, job.id),
-    user.role === "customer"
-      ? new Map<number, CardMailSummary[]>()
-      : cardMailByRevision(db, job.id),
+    isCustomer(user) ? new Map<number, CardMailSummary[]>() : cardMailByRevision(db, job.id),
   ]);
   return cards.map((c) => toCardSummary(c, job.number, mail.get(c.revision) ?? []));
 }

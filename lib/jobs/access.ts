@@ -1,6 +1,7 @@
 import type { DB } from "@/db/client";
 import { findJobById, type Job } from "@/db/jobs";
 import type { User } from "@/db/users";
+import { isCustomer, may } from "@/lib/auth/policy";
 import { HttpError } from "@/lib/http/errors";
 
 /**
@@ -9,7 +10,7 @@ import { HttpError } from "@/lib/http/errors";
  */
 export async function findJobForUser(db: DB, id: number, user: User): Promise<Job> {
   const job = await findJobById(db, id);
-  if (!job || (user.role === "customer" && job.customerId !== user.customerId)) {
+  if (!job || !may(user, "read-job", job)) {
     throw new HttpError(404, "not_found", "No such job.");
   }
   return job;
@@ -17,7 +18,7 @@ export async function findJobForUser(db: DB, id: number, user: User): Promise<Jo
 
 /** A customer's queries are always narrowed to their own customer record. */
 export function customerScope(user: User): number | undefined {
-  if (user.role !== "customer") return undefined;
+  if (!isCustomer(user)) return undefined;
   if (user.customerId === null)
     throw new HttpError(403, "forbidden", "This account is not linked to a customer.");
   return user.customerId;

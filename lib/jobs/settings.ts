@@ -1,10 +1,10 @@
 import type { Kysely } from "kysely";
 import type { CustomerInput } from "@/db/customers";
-import { DEFAULT_SPEC, type Job, type JobSpec } from "@/db/jobs";
-import { createJob, updateJob } from "./save";
+import { createJob, DEFAULT_SPEC, type Job, type JobSpec, updateJob } from "@/db/jobs";
 import type { Database, JobStatus } from "@/db/schema";
 import { findShopSettings } from "@/db/settings";
 import { listPartTargets, listPartWeights } from "@/db/weights";
+import { may } from "@/lib/auth/policy";
 import { convertLength, convertMassSetting, findLayoutPreset, parseDrillSize } from "@/lib/balance";
 import { assertRequestsSettled } from "@/lib/build-record/requests";
 import { HttpError } from "@/lib/http/errors";
@@ -172,7 +172,7 @@ export async function updateJobSettings(
   const machinistOnly = Object.keys(input ?? {}).filter(
     (k) => !(COUNTER_SPEC_FIELDS as readonly string[]).includes(k),
   );
-  if (actor.role === "counter" && machinistOnly.length > 0) {
+  if (!may(actor, "edit-balancing-settings") && machinistOnly.length > 0) {
     throw new CounterFieldsError(machinistOnly);
   }
   const mismatch = specMismatch({ ...job.spec, ...input });

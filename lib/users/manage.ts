@@ -15,6 +15,7 @@ import {
   type User,
 } from "@/db/users";
 import { hashPassword } from "@/lib/auth/password";
+import { isCustomer, isOwner } from "@/lib/auth/policy";
 import { HttpError } from "@/lib/http/errors";
 import type { NewUserInput, UserChangesInput } from "@/lib/validation/users";
 
@@ -54,7 +55,7 @@ export async function createUserIn(trx: DB, input: NewUser, actorId: number | nu
     name: input.name.trim(),
     passwordHash: input.passwordHash,
     role: input.role,
-    customerId: input.role === "customer" ? (input.customerId ?? null) : null,
+    customerId: isCustomer(input) ? (input.customerId ?? null) : null,
   });
   await createAuditEntry(trx, {
     userId: actorId,
@@ -75,7 +76,7 @@ function changedColumns(before: UserRow, changes: UserChanges) {
   return {
     name: changes.name?.trim() ?? before.name,
     role,
-    customerId: role === "customer" ? (changes.customerId ?? before.customer_id) : null,
+    customerId: isCustomer({ role }) ? (changes.customerId ?? before.customer_id) : null,
     disabled,
     sessionVersion: Number(before.session_version) + (endsSessions ? 1 : 0),
   };
@@ -176,21 +177,17 @@ export async function changeUser(
   actor: User,
 ): Promise<User> {
   return db.transaction().execute(async (trx) => {
-    const mayLoseOwner = (changes.role && changes.role !== "owner") || changes.disabled === true;
+    const mayLoseOwner = (changes.role && !isOwner(changes)) || changes.disabled === true;
     const owners = mayLoseOwner ? await lockActiveOwnerIds(trx) : [];
     const before = await lockUserRow(trx, id);
     if (!before) throw new HttpError(404, "not_found", "No such user.");
     await checkCustomer(trx, changes.customerId);
-    if (
-      changes.role === "customer" &&
-      changes.customerId === undefined &&
-      before.customer_id === null
-    ) {
+    if (isCustomer(changes) && changes.customerId === undefined && before.customer_id === null) {
       throw new HttpError(422, "invalid_input", "A customer account must belong to a customer.", {
         customerId: "A customer account must belong to a customer.",
       });
     }
-    const losesOwner = mayLoseOwner && before.role === "owner" && before.disabled === 0;
+    const losesOwner = mayLoseOwner && isOwner(before) && before.disabled === 0;
     if (losesOwner && owners.length <= 1) {
       throw new HttpError(409, "last_owner", LAST_OWNER, {
         [changes.disabled ? "disabled" : "role"]: LAST_OWNER,

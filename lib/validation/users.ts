@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { ROLES } from "@/db/schema";
+import { isCustomer } from "@/lib/auth/policy";
 
 export const emailField = z
   .string()
@@ -36,7 +37,7 @@ export const newUserSchema = z
     customerId: customerIdField.optional(),
   })
   .strict()
-  .refine((u) => u.role !== "customer" || u.customerId !== undefined, {
+  .refine((u) => !isCustomer(u) || u.customerId !== undefined, {
     path: ["customerId"],
     message: "A customer account must belong to a customer.",
   });
