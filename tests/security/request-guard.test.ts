@@ -36,6 +36,22 @@ function request(
   } as RequestInit);
 }
 
+/** POST /api/users (NEW_OWNER unless another body is given), as Next calls the handler. */
+function postToUsers(headers: Record<string, string>, body: BodyInit = NEW_OWNER) {
+  return postUser(request("POST", "/api/users", { body, headers }), noParams);
+}
+
+/** POST /api/invites/accept with a body said to be JSON (and any more headers). */
+function postToInviteAccept(body: BodyInit, headers: Record<string, string> = {}) {
+  return acceptInvite(
+    request("POST", "/api/invites/accept", {
+      body,
+      headers: { "content-type": "application/json", ...headers },
+    }),
+    noParams,
+  );
+}
+
 let db: DB;
 let users: Record<Role, User>;
 
@@ -55,44 +71,29 @@ describe("a state-changing request from another site (cross-site request forgery
     // What a page on http://localhost:4000 sends by auto-submitting <form enctype="text/plain">
     // to /api/users: the owner's cookie (same site), its own Origin, and a body that reads as JSON.
     const before = await countRows(db, "users");
-    const res = await postUser(
-      request("POST", "/api/users", {
-        body: NEW_OWNER,
-        headers: {
-          "content-type": "text/plain",
-          "content-length": String(NEW_OWNER.length),
-          origin: "http://localhost:4000",
-          "sec-fetch-site": "same-site",
-        },
-      }),
-      noParams,
-    );
+    const res = await postToUsers({
+      "content-type": "text/plain",
+      "content-length": String(NEW_OWNER.length),
+      origin: "http://localhost:4000",
+      "sec-fetch-site": "same-site",
+    });
     expect(res.status).toBe(403);
     expect((await res.json()).error.code).toBe("cross_site");
     expect(await countRows(db, "users")).toBe(before);
   });
 
   it("refuses a foreign Origin even when the browser sends no Sec-Fetch-Site", async () => {
-    const res = await postUser(
-      request("POST", "/api/users", {
-        body: NEW_OWNER,
-        headers: { "content-type": "application/json", origin: "http://localhost:4000" },
-      }),
-      noParams,
-    );
+    const res = await postToUsers({
+      "content-type": "application/json",
+      origin: "http://localhost:4000",
+    });
     expect(res.status).toBe(403);
   });
 
   it.each([["null"], ["http://localhost:3000.evil.test"], ["not a url"]])(
     "refuses Origin %j",
     async (origin) => {
-      const res = await postUser(
-        request("POST", "/api/users", {
-          body: NEW_OWNER,
-          headers: { "content-type": "application/json", origin },
-        }),
-        noParams,
-      );
+      const res = await postToUsers({ "content-type": "application/json", origin });
       expect(res.status).toBe(403);
     },
   );
@@ -106,13 +107,7 @@ describe("a state-changing request from another site (cross-site request forgery
     ];
     for (const [i, headers] of own.entries()) {
       const body = NEW_OWNER.replace("intruder@", `colleague-${i}@`);
-      const res = await postUser(
-        request("POST", "/api/users", {
-          body,
-          headers: { "content-type": "application/json", ...headers },
-        }),
-        noParams,
-      );
+      const res = await postToUsers({ "content-type": "application/json", ...headers }, body);
       expect(res.status, JSON.stringify(headers)).toBe(201);
     }
   });
@@ -120,24 +115,15 @@ describe("a state-changing request from another site (cross-site request forgery
   it("accepts the origin named by APP_URL", async () => {
     vi.stubEnv("APP_URL", "https://bench.example.test");
     resetEnvCache();
-    const res = await postUser(
-      request("POST", "/api/users", {
-        body: NEW_OWNER,
-        headers: { "content-type": "application/json", origin: "https://bench.example.test" },
-      }),
-      noParams,
-    );
+    const res = await postToUsers({
+      "content-type": "application/json",
+      origin: "https://bench.example.test",
+    });
     expect(res.status).toBe(201);
   });
 
   it("lets a script without Origin through to the session check, and reads stay open to links", async () => {
-    const res = await postUser(
-      request("POST", "/api/users", {
-        body: NEW_OWNER,
-        headers: { "content-type": "application/json" },
-      }),
-      noParams,
-    );
+    const res = await postToUsers({ "content-type": "application/json" });
     expect(res.status).toBe(201);
     const read = await listUsersRoute(
       request("GET", "/api/users", { headers: { "sec-fetch-site": "cross-site" } }),
@@ -150,10 +136,7 @@ describe("a state-changing request from another site (cross-site request forgery
 describe("the body's media type", () => {
   it("answers 415 to JSON sent as text/plain, and writes nothing", async () => {
     const before = await countRows(db, "users");
-    const res = await postUser(
-      request("POST", "/api/users", { body: NEW_OWNER, headers: { "content-type": "text/plain" } }),
-      noParams,
-    );
+    const res = await postToUsers({ "content-type": "text/plain" });
     expect(res.status).toBe(415);
     expect(await res.json()).toEqual({
       error: {
@@ -167,25 +150,16 @@ describe("the body's media type", () => {
   it.each([["application/x-www-form-urlencoded"], ["multipart/form-data; boundary=x"], [""]])(
     "answers 415 to a declared body of type %j",
     async (type) => {
-      const res = await postUser(
-        request("POST", "/api/users", {
-          body: NEW_OWNER,
-          headers: { "content-type": type, "content-length": String(NEW_OWNER.length) },
-        }),
-        noParams,
-      );
+      const res = await postToUsers({
+        "content-type": type,
+        "content-length": String(NEW_OWNER.length),
+      });
       expect(res.status).toBe(415);
     },
   );
 
   it("accepts application/json with a charset", async () => {
-    const res = await postUser(
-      request("POST", "/api/users", {
-        body: NEW_OWNER,
-        headers: { "content-type": "Application/JSON; charset=utf-8" },
-      }),
-      noParams,
-    );
+    const res = await postToUsers({ "content-type": "Application/JSON; charset=utf-8" });
     expect(res.status).toBe(201);
   });
 });
@@ -203,13 +177,7 @@ describe("the body's size and depth", () => {
   it("refuses a declared 9.9 MB body with 413 before reading a byte", async () => {
     signInAs(null);
     const started = performance.now();
-    const res = await acceptInvite(
-      request("POST", "/api/invites/accept", {
-        body: unreadableBody(),
-        headers: { "content-type": "application/json", "content-length": "9900000" },
-      }),
-      noParams,
-    );
+    const res = await postToInviteAccept(unreadableBody(), { "content-length": "9900000" });
     expect(res.status).toBe(413);
     expect((await res.json()).error.code).toBe("too_large");
     expect(performance.now() - started).toBeLessThan(200);
@@ -225,13 +193,7 @@ describe("the body's size and depth", () => {
         controller.enqueue(chunk);
       },
     });
-    const res = await acceptInvite(
-      request("POST", "/api/invites/accept", {
-        body: endless,
-        headers: { "content-type": "application/json" },
-      }),
-      noParams,
-    );
+    const res = await postToInviteAccept(endless);
     expect(res.status).toBe(413);
     // 1 MiB = 16 chunks of 64 KiB; the 17th passes it. A few more may be queued ahead.
     expect(sent).toBeLessThan(24 * 64 * 1024);
@@ -240,13 +202,7 @@ describe("the body's size and depth", () => {
   it("refuses nesting deeper than 16 with 400 before parsing, and parses 16", async () => {
     signInAs(null);
     const deep = `${"[".repeat(17)}${"]".repeat(17)}`;
-    const res = await acceptInvite(
-      request("POST", "/api/invites/accept", {
-        body: deep,
-        headers: { "content-type": "application/json" },
-      }),
-      noParams,
-    );
+    const res = await postToInviteAccept(deep);
     expect(res.status).toBe(400);
     expect((await res.json()).error.code).toBe("too_deep");
 
