@@ -1,4 +1,3 @@
-import { readdirSync, readFileSync } from "node:fs";
 import { beforeEach, describe, expect, it } from "vitest";
 import type { DB } from "@/db/client";
 import { listDocumentLines, replaceDocumentLines, updateDocument } from "@/db/document-lines";
@@ -19,38 +18,7 @@ beforeEach(async () => {
   w = await setUpBilling(db, "20");
 });
 
-const read = (path: string) => readFileSync(new URL(`../../${path}`, import.meta.url), "utf8");
-
-describe("billing layers", () => {
-  const repositories = [
-    "db/invoices.ts",
-    "db/quotes.ts",
-    "db/payments.ts",
-    "db/prices.ts",
-    "db/document-lines.ts",
-  ];
-
-  it.each(repositories)("%s imports nothing from lib/ and opens no transaction", (path) => {
-    const text = read(path);
-    expect(text).not.toMatch(/from "@\/lib\//);
-    expect(text).not.toMatch(/\.transaction\(/);
-  });
-
-  it("no module in db/ imports from lib/ but the configuration (lib/env)", () => {
-    const dir = new URL("../../db/", import.meta.url);
-    const offenders = readdirSync(dir)
-      .filter((f) => f.endsWith(".ts"))
-      .filter((f) => /from "@\/lib\/(?!env")/.test(read(`db/${f}`)));
-    expect(offenders).toEqual([]);
-  });
-
-  it.each(["lib/payments/checkout.ts", "lib/payments/webhook.ts", "lib/billing/quotes.ts"])(
-    "%s builds no SQL of its own",
-    (path) => {
-      expect(read(path)).not.toMatch(/\b(selectFrom|updateTable|insertInto|deleteFrom)\(|sql`/);
-    },
-  );
-});
+// Which db/ modules open transactions, import from lib/ or hold SQL elsewhere: tests/db/layers.test.ts.
 
 describe("versioned writes", () => {
   it("refuse a quote write based on a version someone else has moved on from", async () => {
