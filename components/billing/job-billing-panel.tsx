@@ -8,6 +8,8 @@ import type { Quote } from "@/db/quotes";
 import { formatMoney } from "@/lib/billing/format";
 import type { InvoiceWithPayments } from "@/lib/billing/job-billing";
 import { compareMoney, subtractMoney } from "@/lib/billing/money";
+import { UnappliedPaymentBanner } from "@/components/payments/unapplied-payment-banner";
+import { shopDate } from "@/lib/dates/shop-time";
 import { callApi } from "./api";
 import { BillingStatus } from "./billing-status";
 import { DocumentLines } from "./document-lines";
@@ -52,7 +54,8 @@ function StatusLine({ status, testId }: { status: Status | null; testId: string 
   );
 }
 
-const day = (iso: string | null) => (iso ? iso.slice(0, 10) : "");
+const dayIn = (timeZone: string) => (iso: string | null) =>
+  iso ? shopDate(new Date(iso), timeZone) : "";
 
 export function JobBillingPanel({
   jobId,
@@ -61,6 +64,7 @@ export function JobBillingPanel({
   invoices,
   prices,
   currency,
+  timeZone,
 }: {
   jobId: number;
   role: Role;
@@ -68,6 +72,8 @@ export function JobBillingPanel({
   invoices: InvoiceWithPayments[];
   prices: PriceItem[];
   currency: string;
+  /** The shop's time zone: dates are the shop's calendar dates. */
+  timeZone: string;
 }) {
   const live = quotes.find((q) => q.status !== "withdrawn");
   const past = quotes.filter((q) => q !== live);
@@ -80,8 +86,16 @@ export function JobBillingPanel({
         past={past}
         prices={prices}
         currency={currency}
+        day={dayIn(timeZone)}
       />
-      <InvoiceSection jobId={jobId} role={role} quote={live} invoices={invoices} prices={prices} />
+      <InvoiceSection
+        jobId={jobId}
+        role={role}
+        quote={live}
+        invoices={invoices}
+        prices={prices}
+        day={dayIn(timeZone)}
+      />
     </div>
   );
 }
@@ -93,6 +107,7 @@ function QuoteSection({
   past,
   prices,
   currency,
+  day,
 }: {
   jobId: number;
   role: Role;
@@ -100,6 +115,7 @@ function QuoteSection({
   past: Quote[];
   prices: PriceItem[];
   currency: string;
+  day: (iso: string | null) => string;
 }) {
   const { busy, status, run } = useRunner();
   const staff = role === "staff";
@@ -251,12 +267,14 @@ function InvoiceSection({
   quote,
   invoices,
   prices,
+  day,
 }: {
   jobId: number;
   role: Role;
   quote: Quote | undefined;
   invoices: InvoiceWithPayments[];
   prices: PriceItem[];
+  day: (iso: string | null) => string;
 }) {
   const { busy, status, run } = useRunner();
   const staff = role === "staff";
@@ -303,7 +321,7 @@ function InvoiceSection({
         <p className="text-sm text-graphite-600">No invoices for this job yet.</p>
       ) : null}
       {invoices.map((inv) => (
-        <InvoiceCard key={inv.id} invoice={inv} role={role} prices={prices} />
+        <InvoiceCard key={inv.id} invoice={inv} role={role} prices={prices} day={day} />
       ))}
     </section>
   );
@@ -313,10 +331,12 @@ function InvoiceCard({
   invoice,
   role,
   prices,
+  day,
 }: {
   invoice: InvoiceWithPayments;
   role: Role;
   prices: PriceItem[];
+  day: (iso: string | null) => string;
 }) {
   const { busy, status, run } = useRunner();
   const [redirecting, setRedirecting] = useState(false);
@@ -365,6 +385,9 @@ function InvoiceCard({
           {invoice.status === "draft" ? "Preview PDF" : "PDF"}
         </a>
       </div>
+      {staff && invoice.status !== "draft" ? (
+        <UnappliedPaymentBanner invoiceId={invoice.id} />
+      ) : null}
 
       {invoice.status === "draft" && staff ? (
         <LinesEditor

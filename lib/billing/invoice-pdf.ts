@@ -1,4 +1,5 @@
 import type { DB } from "@/db/client";
+import { findCounterSettings } from "@/db/counter-settings";
 import { listPaymentsForInvoice } from "@/db/payments";
 import { findShopSettings } from "@/db/settings";
 import type { User } from "@/db/users";
@@ -15,15 +16,17 @@ export async function buildInvoicePdf(
   user: User,
 ): Promise<{ filename: string; pdf: Buffer }> {
   const invoice = await findInvoiceForUser(db, id, user);
-  const [settings, payments] = await Promise.all([
+  const [settings, payments, counter] = await Promise.all([
     findShopSettings(db),
     listPaymentsForInvoice(db, id),
+    findCounterSettings(db),
   ]);
   const pdf = await renderInvoicePdf({
     invoice,
     issuer: invoice.issuer ?? settings,
     footer: invoice.status === "draft" ? settings.invoiceFooter : invoice.footer,
     payments,
+    timeZone: counter.timeZone,
   });
   return { filename: `${invoice.number ?? `draft-invoice-${invoice.id}`}.pdf`, pdf };
 }

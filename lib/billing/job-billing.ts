@@ -4,6 +4,7 @@ import type { Job } from "@/db/jobs";
 import { listPaymentsForInvoice, type Payment } from "@/db/payments";
 import { listPriceItems, type PriceItem } from "@/db/prices";
 import type { Quote } from "@/db/quotes";
+import { findCounterSettings } from "@/db/counter-settings";
 import { findShopSettings } from "@/db/settings";
 import type { User } from "@/db/users";
 import { isCustomer } from "@/lib/auth/policy";
@@ -20,17 +21,20 @@ export interface JobBilling {
   prices: PriceItem[];
   taxRate: string;
   currency: string;
+  /** The shop's IANA time zone: every date on the page is the shop's calendar date. */
+  timeZone: string;
 }
 
 /** Everything the job's billing page shows, as this user may see it (404 for others' jobs). */
 export async function loadJobBilling(db: DB, jobId: number, user: User): Promise<JobBilling> {
   const job = await findJobForUser(db, jobId, user);
   const customer = isCustomer(user);
-  const [quotes, { invoices }, prices, settings] = await Promise.all([
+  const [quotes, { invoices }, prices, settings, counter] = await Promise.all([
     listQuotesForUser(db, jobId, user),
     listInvoices(db, { jobId, excludeDrafts: customer, limit: 100 }),
     customer ? Promise.resolve([]) : listPriceItems(db, { activeOnly: true }),
     findShopSettings(db),
+    findCounterSettings(db),
   ]);
   const full = await Promise.all(
     invoices.map(async (s) => ({
@@ -45,5 +49,6 @@ export async function loadJobBilling(db: DB, jobId: number, user: User): Promise
     prices,
     taxRate: settings.taxRate,
     currency: settings.currency,
+    timeZone: counter.timeZone,
   };
 }

@@ -3,6 +3,7 @@ import type { Invoice, Issuer } from "@/db/invoices";
 import type { Payment } from "@/db/payments";
 import { formatMoney, formatRate } from "@/lib/billing/format";
 import { subtractMoney } from "@/lib/billing/money";
+import { shopDate } from "@/lib/dates/shop-time";
 import { PDF_FONTS, registerPdfFonts } from "./fonts";
 
 const INK = "#262a31";
@@ -88,7 +89,9 @@ const METHOD_LABEL: Record<Payment["method"], string> = {
   "card-in-shop": "Card in the shop",
 };
 
-const day = (iso: string | null) => (iso ? iso.slice(0, 10) : "—");
+/** An instant as the date on the shop's calendar (an evening payment west of Greenwich keeps its day). */
+const dayIn = (timeZone: string) => (iso: string | null) =>
+  iso ? shopDate(new Date(iso), timeZone) : "—";
 
 export interface InvoiceDocumentProps {
   invoice: Invoice;
@@ -97,10 +100,19 @@ export interface InvoiceDocumentProps {
   /** Payment terms and bank details printed at the foot. */
   footer: string | null;
   payments: Payment[];
+  /** The shop's IANA time zone, for the dates printed; UTC when not given. */
+  timeZone?: string;
 }
 
 /** Our invoice layout: shop, number and dates, who it is for, the lines, totals, payments. */
-export function InvoiceDocument({ invoice, issuer, footer, payments }: InvoiceDocumentProps) {
+export function InvoiceDocument({
+  invoice,
+  issuer,
+  footer,
+  payments,
+  timeZone = "UTC",
+}: InvoiceDocumentProps) {
+  const day = dayIn(timeZone);
   const money = (a: string) => formatMoney(a, invoice.currency);
   const owed = subtractMoney(invoice.total, invoice.amountPaid);
   const title = invoice.number ?? "DRAFT";

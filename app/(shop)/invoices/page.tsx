@@ -4,11 +4,13 @@ import { INVOICE_STATUS_LABEL } from "@/components/billing/labels";
 import { Pager } from "@/components/ui/pager";
 import { INVOICE_STATUSES } from "@/db/billing-schema";
 import { getDb } from "@/db/client";
+import { findCounterSettings } from "@/db/counter-settings";
 import { listInvoices } from "@/db/invoices";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { isCustomer } from "@/lib/auth/policy";
 import { formatMoney } from "@/lib/billing/format";
 import { subtractMoney } from "@/lib/billing/money";
+import { shopDate } from "@/lib/dates/shop-time";
 import { customerScope } from "@/lib/jobs/access";
 import { invoiceListQuerySchema } from "@/lib/validation/billing";
 
@@ -24,21 +26,31 @@ export default async function InvoicesPage({
   const parsed = invoiceListQuerySchema.safeParse(raw);
   const query = parsed.success ? parsed.data : invoiceListQuerySchema.parse({});
   const customerId = customerScope(user);
-  const { invoices, total } = await listInvoices(getDb(), {
-    customerId,
-    excludeDrafts: customerId !== undefined,
-    status: query.status,
-    limit: query.pageSize,
-    offset: (query.page - 1) * query.pageSize,
-  });
+  const [{ invoices, total }, { timeZone }] = await Promise.all([
+    listInvoices(getDb(), {
+      customerId,
+      excludeDrafts: customerId !== undefined,
+      status: query.status,
+      limit: query.pageSize,
+      offset: (query.page - 1) * query.pageSize,
+    }),
+    findCounterSettings(getDb()),
+  ]);
   const statuses = INVOICE_STATUSES.filter((s) => customerId === undefined || s !== "draft");
 
   return (
     <section>
       <div className="mb-4 flex flex-wrap items-end justify-between gap-4">
-        <h1 className="text-2xl font-semibold">
-          {isCustomer(user) ? "Your invoices" : "Invoices"}
-        </h1>
+        <div>
+          <h1 className="text-2xl font-semibold">
+            {isCustomer(user) ? "Your invoices" : "Invoices"}
+          </h1>
+          {isCustomer(user) ? null : (
+            <Link href="/invoices/reconcile" className="text-sm underline underline-offset-4">
+              Online payments to reconcile
+            </Link>
+          )}
+        </div>
         <form className="flex items-end gap-2">
           <label className="text-sm">
             <span className="mb-1 block font-semibold">State</span>
@@ -90,7 +102,9 @@ export default async function InvoicesPage({
                 {customerId === undefined ? (
                   <td className="px-4 py-2">{inv.customerName}</td>
                 ) : null}
-                <td className="px-4 py-2 font-mono">{inv.issuedAt?.slice(0, 10) ?? "—"}</td>
+                <td className="px-4 py-2 font-mono">
+                  {inv.issuedAt ? shopDate(new Date(inv.issuedAt), timeZone) : "—"}
+                </td>
                 <td className="px-4 py-2 text-right font-mono">
                   {formatMoney(inv.total, inv.currency)}
                 </td>

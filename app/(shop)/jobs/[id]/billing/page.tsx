@@ -39,6 +39,7 @@ export default async function JobBillingPage({ params }: { params: Promise<{ id:
         invoices={billing.invoices}
         prices={billing.prices}
         currency={billing.currency}
+        timeZone={billing.timeZone}
       />
     </article>
   );
