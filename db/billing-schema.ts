@@ -13,6 +13,10 @@ export const PRICE_KINDS = [
 ] as const;
 export type PriceKind = (typeof PRICE_KINDS)[number];
 
+/** What an entry is charged by: one each, or one per cylinder of the job (pistons, rods). */
+export const PRICE_UNITS = ["each", "per-cylinder"] as const;
+export type PriceUnit = (typeof PRICE_UNITS)[number];
+
 export const QUOTE_STATUSES = ["draft", "offered", "accepted", "withdrawn"] as const;
 export type QuoteStatus = (typeof QUOTE_STATUSES)[number];
 
@@ -48,6 +52,8 @@ export interface PriceItemTable {
   description: string;
   kind: PriceKind;
   unit_price: string;
+  /** "each" or "per-cylinder" (see PRICE_UNITS). */
+  unit: ColumnType<PriceUnit, PriceUnit | undefined, PriceUnit>;
   active: Generated<number>;
   version: Generated<number>;
   created_at: ColumnType<string, string | undefined, never>;

@@ -1,4 +1,4 @@
-import { PRICE_KINDS, type PriceItemRow, type PriceKind } from "./billing-schema";
+import { PRICE_KINDS, type PriceItemRow, type PriceKind, type PriceUnit } from "./billing-schema";
 import { lockRow } from "./dialect";
 import type { Db } from "./document-lines";
 import { NotFoundError, StaleWriteError } from "./errors";
@@ -10,6 +10,8 @@ export interface PriceItem {
   description: string;
   kind: PriceKind;
   unitPrice: string;
+  /** "per-cylinder": a new line starts at the job's cylinder count; "each": at 1. */
+  unit: PriceUnit;
   active: boolean;
   version: number;
   updatedAt: string;
@@ -22,6 +24,7 @@ export function toPriceItem(row: PriceItemRow): PriceItem {
     description: row.description,
     kind: row.kind,
     unitPrice: row.unit_price,
+    unit: row.unit,
     active: row.active === 1,
     version: row.version,
     updatedAt: row.updated_at,
@@ -33,6 +36,7 @@ export interface PriceItemInput {
   description: string;
   kind: PriceKind;
   unitPrice: string;
+  unit?: PriceUnit;
   active?: boolean;
 }
 
@@ -56,6 +60,7 @@ export async function insertPriceItem(db: Db, input: PriceItemInput): Promise<Pr
       description: input.description,
       kind: input.kind,
       unit_price: input.unitPrice,
+      unit: input.unit ?? "each",
       active: input.active === false ? 0 : 1,
     })
     .returningAll()
@@ -87,6 +92,7 @@ export async function updatePriceItemRow(
       description: changes.description,
       kind: changes.kind,
       unit_price: changes.unitPrice,
+      unit: changes.unit,
       active: changes.active === undefined ? undefined : changes.active ? 1 : 0,
       version: version + 1,
       updated_at: now.toISOString(),

@@ -1,4 +1,10 @@
-import type { InvoiceStatus, PaymentMethod, PriceKind, QuoteStatus } from "@/db/billing-schema";
+import type {
+  InvoiceStatus,
+  PaymentMethod,
+  PriceKind,
+  PriceUnit,
+  QuoteStatus,
+} from "@/db/billing-schema";
 
 export const PRICE_KIND_LABEL: Record<PriceKind, string> = {
   "balancing-by-layout": "Balancing, by engine layout",
@@ -6,6 +12,12 @@ export const PRICE_KIND_LABEL: Record<PriceKind, string> = {
   "machining-per-part": "Machining, per part",
   rush: "Rush",
   other: "Other",
+};
+
+/** How an entry is charged; a per-cylinder line starts at the job's cylinder count. */
+export const PRICE_UNIT_LABEL: Record<PriceUnit, string> = {
+  each: "each",
+  "per-cylinder": "per cylinder",
 };
 
 export const QUOTE_STATUS_LABEL: Record<QuoteStatus, string> = {

@@ -3,9 +3,9 @@
 import { startTransition, useActionState } from "react";
 import { createPriceAction, updatePriceAction } from "@/app/(shop)/prices/actions";
 import { ActionMessage, Field } from "@/components/ui/field";
-import { PRICE_KINDS, type PriceKind } from "@/db/billing-schema";
+import { PRICE_KINDS, PRICE_UNITS, type PriceKind, type PriceUnit } from "@/db/billing-schema";
 import type { PriceItem } from "@/db/prices";
-import { PRICE_KIND_LABEL } from "./labels";
+import { PRICE_KIND_LABEL, PRICE_UNIT_LABEL } from "./labels";
 
 /** Submits through the action inside a transition, so a refused form keeps what was typed. */
 function submitWith(action: (data: FormData) => void) {
@@ -22,6 +22,29 @@ function KindSelect({ id, defaultValue }: { id: string; defaultValue: PriceKind 
       {PRICE_KINDS.map((k) => (
         <option key={k} value={k}>
           {PRICE_KIND_LABEL[k]}
+        </option>
+      ))}
+    </select>
+  );
+}
+
+function UnitSelect(props: {
+  id: string;
+  form?: string;
+  defaultValue: PriceUnit;
+  className?: string;
+}) {
+  return (
+    <select
+      id={props.id}
+      form={props.form}
+      name="unit"
+      defaultValue={props.defaultValue}
+      className={props.className ?? "field-input py-1"}
+    >
+      {PRICE_UNITS.map((u) => (
+        <option key={u} value={u}>
+          {PRICE_UNIT_LABEL[u]}
         </option>
       ))}
     </select>
@@ -95,6 +118,15 @@ export function PriceRow({ price }: { price: PriceItem }) {
           defaultValue={price.unitPrice}
           className="field-input w-28 py-1 text-right font-mono"
         />
+        <label className="sr-only" htmlFor={`${formId}-unit`}>
+          Charged
+        </label>
+        <UnitSelect
+          id={`${formId}-unit`}
+          form={formId}
+          defaultValue={price.unit}
+          className="field-input mt-1 w-28 py-1 text-xs"
+        />
       </td>
       <td className="px-3 py-2">
         <label className="flex items-center gap-2">
@@ -147,7 +179,14 @@ export function AddPriceForm() {
         <KindSelect id="new-price-kind" defaultValue="balancing-by-layout" />
         {fields?.kind ? <p className="mt-1 text-sm text-replace">{fields.kind}</p> : null}
       </div>
-      <div className="flex items-end gap-4 sm:col-span-3">
+      <div>
+        <label htmlFor="new-price-unit" className="mb-1 block text-sm font-semibold">
+          Charged
+        </label>
+        <UnitSelect id="new-price-unit" defaultValue="each" />
+        {fields?.unit ? <p className="mt-1 text-sm text-replace">{fields.unit}</p> : null}
+      </div>
+      <div className="flex items-end gap-4 sm:col-span-2">
         <button className="btn-primary" type="submit" disabled={pending}>
           Add
         </button>

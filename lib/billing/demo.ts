@@ -1,5 +1,5 @@
 import type { DB } from "@/db/client";
-import type { PriceKind } from "@/db/billing-schema";
+import type { PriceKind, PriceUnit } from "@/db/billing-schema";
 import { listJobs } from "@/db/jobs";
 import { countPriceItems, listPriceItems } from "@/db/prices";
 import type { JobStatus } from "@/db/schema";
@@ -10,7 +10,13 @@ import { createPriceItem } from "./prices";
 import { createQuote, moveQuote } from "./quotes";
 
 // An invented shop and price list; the figures are plausible, not anyone's real prices.
-const DEMO_PRICES: { code: string; description: string; kind: PriceKind; unitPrice: string }[] = [
+const DEMO_PRICES: {
+  code: string;
+  description: string;
+  kind: PriceKind;
+  unitPrice: string;
+  unit?: PriceUnit;
+}[] = [
   {
     code: "BAL-1CYL",
     description: "Balance single-cylinder assembly",
@@ -64,12 +70,14 @@ const DEMO_PRICES: { code: string; description: string; kind: PriceKind; unitPri
     description: "Match piston to set weight (per piston)",
     kind: "machining-per-part",
     unitPrice: "6.50",
+    unit: "per-cylinder",
   },
   {
     code: "MCH-ROD",
     description: "Match con-rod big and small end (per rod)",
     kind: "machining-per-part",
     unitPrice: "9.75",
+    unit: "per-cylinder",
   },
   {
     code: "MCH-HMP",

@@ -13,21 +13,52 @@ import {
 } from "@/db/document-lines";
 import { ConflictError, NotFoundError, StaleWriteError } from "@/db/errors";
 import { findInvoiceById, type Invoice } from "@/db/invoices";
+import { findJobById } from "@/db/jobs";
 import { findPriceItemsByIds } from "@/db/prices";
 import { findQuoteById, type Quote } from "@/db/quotes";
 import { findShopSettings } from "@/db/settings";
 import { BillingInputError } from "./errors";
 import { parseDecimal } from "./money";
+import { startingQuantity } from "./quantity";
 import { computeTotals, type DocumentTotals } from "./totals";
 
 // The rules quotes and invoices share for their lines: where a line's price comes from, and the
 // totals the stored lines add up to.
 
-/** What a caller sends for one line: a new line from the price list, or an existing line kept
- * at the price it was made with (its quantity and description may change). */
+/**
+ * What a caller sends for one line: a new line from the price list (quantity left out: 1, or the
+ * job's cylinder count for an entry charged per cylinder), an existing line kept at the price it
+ * was made with (its quantity and description may change), or a one-off line the counter typed
+ * (what the work is, how many, the price each; no price-list entry).
+ */
 export type LineInput =
-  | { priceItemId: number; lineId?: undefined; quantity: string; description?: string | null }
-  | { lineId: number; priceItemId?: undefined; quantity: string; description?: string | null };
+  | {
+      priceItemId: number;
+      lineId?: undefined;
+      unitPrice?: undefined;
+      quantity?: string;
+      description?: string | null;
+    }
+  | {
+      lineId: number;
+      priceItemId?: undefined;
+      unitPrice?: undefined;
+      quantity: string;
+      description?: string | null;
+    }
+  | {
+      priceItemId?: undefined;
+      lineId?: undefined;
+      description: string;
+      quantity: string;
+      unitPrice: string;
+    };
+
+/** What pricing a job's lines needs to know of the job. */
+export interface LineContext {
+  /** The job's cylinder count (null when not entered): where per-cylinder lines start. */
+  cylinders: number | null;
+}
 
 /** A line ready to store: the price comes from the list (or the kept line), never the caller. */
 export interface PricedLineValues {
@@ -42,13 +73,15 @@ type KeptLine = Pick<DocumentLine, "id" | "priceItemId" | "code" | "description"
 
 /**
  * Prices the lines a caller sent. New lines take the current price of an active price-list
- * entry; lines that name one of `kept` keep their stored price. Field errors are keyed
- * `lines.<n>.<field>`.
+ * entry (and start at the job's cylinder count when charged per cylinder and no quantity was
+ * sent); lines that name one of `kept` keep their stored price; one-off lines keep the price
+ * typed, as a plain decimal. Field errors are keyed `lines.<n>.<field>`.
  */
 export async function priceLines(
   db: Db,
   inputs: readonly LineInput[],
   kept: readonly KeptLine[] = [],
+  context: LineContext = { cylinders: null },
 ): Promise<PricedLineValues[]> {
   const ids = [
     ...new Set(inputs.flatMap((l) => (l.priceItemId === undefined ? [] : [l.priceItemId]))),
@@ -57,8 +90,23 @@ export async function priceLines(
   const keptById = new Map(kept.map((l) => [l.id, l] as const));
   return inputs.map((input, i) => {
     const description = input.description?.trim() || null;
-    const quantity = parseDecimal(input.quantity, "quantity").toFixed();
+    const quantityOf = (q: string) => parseDecimal(q, `lines.${i}.quantity`).toFixed();
+    if (input.unitPrice !== undefined) {
+      if (!description) {
+        throw new BillingInputError(`lines.${i}.description`, "Describe the work.");
+      }
+      const unitPrice = input.unitPrice.trim();
+      parseDecimal(unitPrice, `lines.${i}.unitPrice`); // refuses anything but a plain decimal
+      return {
+        priceItemId: null,
+        code: null,
+        description,
+        quantity: quantityOf(input.quantity),
+        unitPrice,
+      };
+    }
     if (input.lineId !== undefined) {
+      const quantity = quantityOf(input.quantity);
       const line = keptById.get(input.lineId);
       if (!line)
         throw new BillingInputError(`lines.${i}.lineId`, "That line is not on this document.");
@@ -81,10 +129,16 @@ export async function priceLines(
       priceItemId: item.id,
       code: item.code,
       description: description ?? item.description,
-      quantity,
+      quantity: quantityOf(input.quantity ?? startingQuantity(item.unit, context.cylinders)),
       unitPrice: item.unitPrice,
     };
   });
+}
+
+/** What pricing needs to know of the job a document is for. */
+export async function lineContextOf(db: Db, jobId: number): Promise<LineContext> {
+  const job = await findJobById(db, jobId);
+  return { cylinders: job?.spec.cylinders ?? null };
 }
 
 /** Priced lines numbered in order with their totals, and the document's totals at a tax rate. */
@@ -135,8 +189,9 @@ export async function repriceDocumentLines(
   document: { id: number; lines: readonly DocumentLine[] },
   inputs: readonly LineInput[],
   taxRate: string,
+  context: LineContext = { cylinders: null },
 ): Promise<DocumentTotals> {
-  const stored = linesWithTotals(await priceLines(trx, inputs, document.lines), taxRate);
+  const stored = linesWithTotals(await priceLines(trx, inputs, document.lines, context), taxRate);
   await replaceDocumentLines(trx, kind, document.id, stored.lines);
   return stored.totals;
 }
@@ -277,7 +332,14 @@ export function replaceDraftLines<K extends DocumentKind>(
     decide: async (before) => {
       if (before.status !== "draft") refuseInState(kind, before.status, "changed");
       const settings = await findShopSettings(trx);
-      const totals = await repriceDocumentLines(trx, kind, before, inputs, settings.taxRate);
+      const totals = await repriceDocumentLines(
+        trx,
+        kind,
+        before,
+        inputs,
+        settings.taxRate,
+        await lineContextOf(trx, before.jobId),
+      );
       return { ...totalsColumns(totals, settings), updated_at: now.toISOString() };
     },
   });

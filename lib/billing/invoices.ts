@@ -44,7 +44,8 @@ export async function createInvoice(
   now = new Date(),
 ): Promise<Invoice> {
   return db.transaction().execute(async (trx) => {
-    if (!(await findJobById(trx, input.jobId))) throw new NotFoundError("job");
+    const job = await findJobById(trx, input.jobId);
+    if (!job) throw new NotFoundError("job");
     let priced: PricedLineValues[];
     if (input.quoteId !== undefined) {
       const quote = await findQuoteById(trx, input.quoteId);
@@ -59,7 +60,7 @@ export async function createInvoice(
       }
       priced = quote.lines;
     } else {
-      priced = await priceLines(trx, input.lines);
+      priced = await priceLines(trx, input.lines, [], { cylinders: job.spec.cylinders });
     }
     return createDocument(
       trx,

@@ -25,7 +25,8 @@ export async function createQuote(
   now = new Date(),
 ): Promise<Quote> {
   return db.transaction().execute(async (trx) => {
-    if (!(await findJobById(trx, input.jobId))) throw new NotFoundError("job");
+    const job = await findJobById(trx, input.jobId);
+    if (!job) throw new NotFoundError("job");
     const live = await findLiveQuoteForJob(trx, input.jobId);
     if (live) {
       throw new ConflictError(
@@ -39,7 +40,7 @@ export async function createQuote(
       trx,
       "quote",
       { number: await takeNextNumber(trx, "quote", now), job_id: input.jobId },
-      await priceLines(trx, input.lines),
+      await priceLines(trx, input.lines, [], { cylinders: job.spec.cylinders }),
       actorId,
       now,
     );

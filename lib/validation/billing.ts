@@ -1,5 +1,10 @@
 import { z } from "zod";
-import { INVOICE_STATUSES, MANUAL_PAYMENT_METHODS, PRICE_KINDS } from "@/db/billing-schema";
+import {
+  INVOICE_STATUSES,
+  MANUAL_PAYMENT_METHODS,
+  PRICE_KINDS,
+  PRICE_UNITS,
+} from "@/db/billing-schema";
 import type { LineInput } from "@/lib/billing/document-lines";
 import type { NewInvoiceInput } from "@/lib/billing/invoices";
 import { currencyPlaces } from "@/lib/billing/format";
@@ -105,6 +110,9 @@ export const priceItemSchema = z
       .max(200, "Use at most 200 characters."),
     kind: priceKindField,
     unitPrice: unitPriceField,
+    unit: z
+      .enum(PRICE_UNITS, { message: "Choose how it is charged: each, or per cylinder." })
+      .optional(),
     active: z.boolean().optional(),
   })
   .strict();
@@ -123,24 +131,55 @@ const lineDescription = z
   .optional()
   .nullable();
 
-/** A new line from the price list (priceItemId), or an existing line kept at its price (lineId). */
+/** The price of a one-off line as the counter types it: 0 or more, up to four places. */
+const oneOffPriceField = z
+  .string({ message: "Enter the price each, like 45.50." })
+  .trim()
+  .regex(/^\d{1,7}(\.\d{1,4})?$/, "Enter the price each, like 45.50 (up to 4 decimal places).");
+
+/**
+ * One line of a quote or invoice, one of three: a new line from the price list (priceItemId;
+ * quantity left out starts at 1, or at the job's cylinder count for a per-cylinder entry), an
+ * existing line kept at its price (lineId), or a one-off line typed by the counter (description,
+ * quantity and unitPrice, no price-list entry).
+ */
 export const lineSchema = z
   .object({
     priceItemId: z.number().int().positive("Choose an entry of the price list.").optional(),
     lineId: z.number().int().positive().optional(),
-    quantity: quantityField,
+    quantity: quantityField.optional(),
     description: lineDescription,
+    unitPrice: oneOffPriceField.optional(),
   })
   .strict()
-  .refine((l) => (l.priceItemId === undefined) !== (l.lineId === undefined), {
-    message: "Choose an entry of the price list.",
-    path: ["priceItemId"],
+  .superRefine((l, ctx) => {
+    const oneOff = l.unitPrice !== undefined;
+    const sources = [l.priceItemId !== undefined, l.lineId !== undefined, oneOff];
+    if (sources.filter(Boolean).length !== 1) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["priceItemId"],
+        message: oneOff
+          ? "A line from the price list takes the list's price: leave the price out."
+          : "Choose an entry of the price list, or type the work and its price.",
+      });
+    }
+    if (oneOff && !l.description) {
+      ctx.addIssue({ code: "custom", path: ["description"], message: "Describe the work." });
+    }
+    if (l.priceItemId === undefined && l.quantity === undefined) {
+      ctx.addIssue({ code: "custom", path: ["quantity"], message: "Enter how many." });
+    }
   })
-  .transform((l): LineInput =>
-    l.lineId !== undefined
-      ? { lineId: l.lineId, quantity: l.quantity, description: l.description }
-      : { priceItemId: l.priceItemId!, quantity: l.quantity, description: l.description },
-  );
+  .transform((l): LineInput => {
+    if (l.lineId !== undefined) {
+      return { lineId: l.lineId, quantity: l.quantity!, description: l.description };
+    }
+    if (l.unitPrice !== undefined) {
+      return { description: l.description!, quantity: l.quantity!, unitPrice: l.unitPrice };
+    }
+    return { priceItemId: l.priceItemId!, quantity: l.quantity, description: l.description };
+  });
 
 const linesField = z.array(lineSchema).max(100, "At most 100 lines.");
 

@@ -19,6 +19,7 @@ function priceValues(form: FormData) {
     description: text("description"),
     kind: text("kind"),
     unitPrice: text("unitPrice"),
+    unit: text("unit") || undefined,
     active: form.get("active") === "on" || form.get("active") === "true",
   };
 }

@@ -14,17 +14,27 @@ export interface BillingWorld {
   otherCustomer: User;
   job: Job;
   otherJob: Job;
-  prices: { balance: PriceItem; piston: PriceItem; rush: PriceItem; retired: PriceItem };
+  prices: {
+    balance: PriceItem;
+    piston: PriceItem;
+    rush: PriceItem;
+    retired: PriceItem;
+    /** Charged per cylinder: a new line starts at the job's cylinder count. */
+    rod: PriceItem;
+  };
 }
 
-/** One of each role, a job for the customer and one for another customer, settings and prices. */
+/**
+ * One of each role, a job for the customer (an in-line four, 4 cylinders entered) and one for
+ * another customer (cylinders not entered), settings and prices.
+ */
 export async function setUpBilling(db: DB, taxRate = "20"): Promise<BillingWorld> {
   const users = await addOneOfEachRole(db);
   const other = await addTestCustomer(db, "Orrin Vale");
   const otherCustomer = await addTestUser(db, "customer", { customerId: other.id });
   const job = await createJob(
     db,
-    { customerId: users.customer.customerId!, engine: "In-line four" },
+    { customerId: users.customer.customerId!, engine: "In-line four", spec: { cylinders: 4 } },
     null,
   );
   const otherJob = await createJob(db, { customerId: other.id, engine: "Flat twin" }, null);
@@ -49,6 +59,17 @@ export async function setUpBilling(db: DB, taxRate = "20"): Promise<BillingWorld
     balance: await add("BAL-I4", "balancing-by-layout", "285.00", "Balance in-line four"),
     piston: await add("MCH-PIS", "machining-per-part", "6.50", "Match piston"),
     rush: await add("RUSH", "rush", "120.00", "Rush"),
+    rod: await createPriceItem(
+      db,
+      {
+        code: "MCH-ROD",
+        description: "Match con-rod",
+        kind: "machining-per-part",
+        unitPrice: "9.75",
+        unit: "per-cylinder",
+      },
+      null,
+    ),
     retired: await createPriceItem(
       db,
       { code: "OLD", description: "Retired", kind: "other", unitPrice: "1.00", active: false },

@@ -112,6 +112,7 @@ describe("the price list", () => {
     expect((await list.json()).prices.map((p: { code: string }) => p.code)).toEqual([
       "BAL-I4",
       "MCH-PIS",
+      "MCH-ROD",
       "RUSH",
     ]);
     const add = await postPrice(
