@@ -1,5 +1,5 @@
 // A local stand-in for the payment provider, just big enough for what Counterpoise asks of it:
-// create and read a Checkout Session, show a hosted page with Pay and Decline, and send the
+// create, read and expire a Checkout Session, show a hosted page with Pay and Decline, and send the
 // signed notification to our webhook. Standalone: `npx tsx scripts/fake-payments.ts`
 // (FAKE_PAYMENTS_PORT, FAKE_PAYMENTS_WEBHOOK_URL, STRIPE_WEBHOOK_SECRET from the environment).
 import { randomBytes } from "node:crypto";
@@ -298,6 +298,22 @@ export async function startFakePayments(options: FakePaymentsOptions): Promise<F
       }
       if (method === "POST" && url.pathname === "/v1/checkout/sessions") {
         return createSession(parseStripeForm(await readBody(req)), res);
+      }
+      const expire = /^\/v1\/checkout\/sessions\/([\w-]+)\/expire$/.exec(url.pathname);
+      if (method === "POST" && expire) {
+        const session = sessions.get(expire[1]!);
+        if (!session) return apiError(res, 404, `No such checkout.session: '${expire[1]}'`, "id");
+        if (session.status !== "open") {
+          return apiError(
+            res,
+            400,
+            `Only Checkout Sessions with a status in ["open"] can be expired (this one is ${session.status}).`,
+          );
+        }
+        session.status = "expired";
+        session.url = null;
+        await notify("checkout.session.expired", session);
+        return sendJson(res, 200, session);
       }
       const match = /^\/v1\/checkout\/sessions\/([\w-]+)$/.exec(url.pathname);
       if (method === "GET" && match) {

@@ -4,19 +4,12 @@ import type { DB } from "@/db/client";
 import { type Db, lockDocument, updateDocument } from "@/db/document-lines";
 import { ConflictError, NotFoundError } from "@/db/errors";
 import { findInvoiceById, type Invoice } from "@/db/invoices";
-import {
-  insertPayment,
-  insertPaymentSession,
-  markPaymentSessionComplete,
-  type Payment,
-  type PaymentSession,
-  paymentSessionApplied,
-} from "@/db/payments";
+import { insertPayment, markPaymentSessionComplete, type Payment } from "@/db/payments";
 import { BillingInputError } from "./errors";
 import { compareMoney, subtractMoney, sumMoney } from "./money";
 
 /** The invoice with its row locked for the rest of the transaction (see lockRow). */
-async function lockInvoice(trx: Db, id: number): Promise<Invoice | undefined> {
+export async function lockInvoice(trx: Db, id: number): Promise<Invoice | undefined> {
   await lockDocument(trx, "invoice", id);
   return findInvoiceById(trx, id);
 }
@@ -101,41 +94,26 @@ export async function recordManualPayment(
   return db.transaction().execute((trx) => addPayment(trx, invoiceId, { ...input }, actorId, now));
 }
 
-export type OnlinePaymentOutcome =
-  | "paid"
-  | "part-paid"
-  | "already-settled"
-  | "session-already-applied"
-  | "unknown-invoice"
-  | "currency-mismatch"
-  | "amount-mismatch";
-
 /**
- * Applies a completed online payment exactly once. Nothing changes when the invoice is no longer
- * open (already paid, void), when this session was applied before, or when the currency or
- * amount does not fit what is owed; the outcome says which. The caller owns the transaction.
+ * Puts an online payment on an issued invoice and closes its checkout session. The caller owns
+ * the transaction and has checked that the payment fits (lib/payments/reconcile.ts
+ * `whyNotApplicable`): this still refuses, as addPayment does, anything that does not.
+ * `actorId` is null when the provider's notification applies it, the person's id when the
+ * counter applies a payment kept to reconcile.
  */
-export async function applyOnlinePayment(
+export async function addOnlinePayment(
   trx: Db,
   input: {
     invoiceId: number;
     sessionId: string;
     eventId: string;
     amount: string;
-    currency: string;
     reference: string | null;
   },
+  actorId: number | null,
   now = new Date(),
-): Promise<OnlinePaymentOutcome> {
-  const invoice = await lockInvoice(trx, input.invoiceId);
-  if (!invoice) return "unknown-invoice";
-  if (await paymentSessionApplied(trx, input.sessionId)) return "session-already-applied";
-  if (invoice.status !== "issued") return "already-settled";
-  if (invoice.currency.toLowerCase() !== input.currency.toLowerCase()) return "currency-mismatch";
-  if (compareMoney(input.amount, subtractMoney(invoice.total, invoice.amountPaid)) > 0) {
-    return "amount-mismatch";
-  }
-  const { paid } = await addPayment(
+): Promise<{ payment: Payment; paid: boolean }> {
+  const result = await addPayment(
     trx,
     input.invoiceId,
     {
@@ -145,28 +123,9 @@ export async function applyOnlinePayment(
       providerSessionId: input.sessionId,
       providerEventId: input.eventId,
     },
-    null,
+    actorId,
     now,
   );
   await markPaymentSessionComplete(trx, input.sessionId);
-  return paid ? "paid" : "part-paid";
-}
-
-/** Records that a hosted payment page was opened for an invoice, with who opened it. */
-export async function createPaymentSession(
-  db: DB,
-  input: { id: string; invoiceId: number; amount: string; currency: string },
-  actorId: number | null,
-): Promise<PaymentSession> {
-  return db.transaction().execute(async (trx) => {
-    const session = await insertPaymentSession(trx, input, actorId);
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "checkout-started",
-      entity: "invoice",
-      entityId: input.invoiceId,
-      after: { sessionId: input.id, amount: input.amount, currency: input.currency },
-    });
-    return session;
-  });
+  return result;
 }

@@ -32,6 +32,11 @@ import { BUILD_SECTIONS, sectionWriteSchema } from "@/lib/build-record/schemas";
 import { buildSettingsWriteSchema } from "@/lib/build-record/settings-schema";
 import { counterSettingsSchema } from "@/lib/validation/counter-settings";
 import {
+  applyUnappliedSchema,
+  refundUnappliedSchema,
+  unappliedListQuerySchema,
+} from "@/lib/payments/schemas";
+import {
   bookingSchema,
   pairingApplySchema,
   pairingUndoSchema,
@@ -297,6 +302,20 @@ export const API_PATHS: ZodOpenApiPathsObject = {
   "/api/invoices/{id}/pdf": { get: file("The invoice as PDF", "application/pdf") },
   "/api/invoices/{id}/checkout": {
     post: op("Start paying online: answers the hosted payment page's address"),
+  },
+  "/api/payments/unapplied": {
+    get: op(
+      "Online payments received and not applied, to refund or apply (the desk)",
+      undefined,
+      unappliedListQuerySchema,
+      none,
+    ),
+  },
+  "/api/payments/unapplied/{id}/apply": {
+    post: op("Apply a payment kept to reconcile to its invoice, where it fits", applyUnappliedSchema),
+  },
+  "/api/payments/unapplied/{id}/refund": {
+    post: op("Mark a payment kept to reconcile as refunded, with a note", refundUnappliedSchema),
   },
   "/api/payments/webhook": {
     post: {

@@ -120,6 +120,9 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "GET /api/invoices/[id]/payments": { allowed: BILLING_READ, customer: "own-invoice" },
   "POST /api/invoices/[id]/payments": { allowed: DESK },
   "POST /api/invoices/[id]/checkout": { allowed: BILLING_READ, customer: "own-invoice" },
+  "GET /api/payments/unapplied": { allowed: DESK },
+  "POST /api/payments/unapplied/[id]/apply": { allowed: DESK },
+  "POST /api/payments/unapplied/[id]/refund": { allowed: DESK },
 
   // The shop's own setup.
   "GET /api/prices": { allowed: SHOP },

@@ -283,6 +283,8 @@ function valueFor(name: string, before: string | undefined, ids: ShopIds, patter
       users: ids.user,
       uploads: ids.upload,
       mail: ids.mail,
+      // No online payment is kept to reconcile in this shop: those allowed get 404.
+      unapplied: 1,
     };
     const id = before === undefined ? undefined : byCollection[before];
     if (id !== undefined) return String(id);

@@ -5,8 +5,9 @@ import { POST as checkoutRoute } from "@/app/api/invoices/[id]/checkout/route";
 import PayReturnPage from "@/app/pay/return/page";
 import type { DB } from "@/db/client";
 import { findInvoiceById } from "@/db/invoices";
-import { listPaymentsForInvoice } from "@/db/payments";
+import { listPaymentsForInvoice, listUnappliedPayments } from "@/db/payments";
 import { createInvoice, issueInvoice } from "@/lib/billing/invoices";
+import { recordManualPayment } from "@/lib/billing/payments";
 import { resetEnvCache } from "@/lib/env";
 import { resetStripeClient } from "@/lib/payments/stripe";
 import { type FakePayments, startFakePayments } from "@/scripts/fake-payments";
@@ -46,9 +47,10 @@ beforeEach(async () => {
   db = await freshDb();
   w = await setUpBilling(db, "20");
   vi.spyOn(console, "info").mockImplementation(() => {});
+  vi.spyOn(console, "warn").mockImplementation(() => {});
 });
 
-afterEach(() => vi.mocked(console.info).mockRestore());
+afterEach(() => vi.restoreAllMocks());
 
 async function issued(jobId = w.job.id) {
   const draft = await createInvoice(
@@ -188,5 +190,152 @@ describe("paying an invoice online through the SDK and the local fake", () => {
       resetEnvCache();
       resetStripeClient();
     }
+  });
+});
+
+/** The session as the provider holds it (the fake answers the SDK's read). */
+async function atProvider(sessionId: string): Promise<{ status: string; amount_total: number }> {
+  const res = await fetch(`${fake.url}/v1/checkout/sessions/${sessionId}`, {
+    headers: { authorization: "Bearer sk_test_local" },
+  });
+  return res.json();
+}
+
+const pay = (sessionId: string) =>
+  fetch(`${fake.url}/pay/${sessionId}/pay`, { method: "POST", redirect: "manual" });
+
+const sessionRows = (invoiceId: number) =>
+  db
+    .selectFrom("payment_sessions")
+    .select(["id", "status", "amount"])
+    .where("invoice_id", "=", invoiceId)
+    .orderBy("created_at")
+    .execute();
+
+describe("one payment page per invoice and amount", () => {
+  it("offers the same page to a second checkout for the same amount, so the customer pays once", async () => {
+    const invoice = await issued();
+    signInAs(w.users.customer);
+    const first = await startCheckout(invoice.id);
+    signInAs(w.users.counter);
+    const second = await startCheckout(invoice.id);
+    expect(second.status).toBe(201);
+    expect(second.body).toEqual(first.body);
+    expect(await sessionRows(invoice.id)).toEqual([
+      { id: first.body.sessionId, status: "open", amount: "342.00" },
+    ]);
+
+    await pay(first.body.sessionId);
+    const deliveries = fake.deliveries.length;
+    await pay(second.body.sessionId); // the same page: already paid, nothing more is taken
+    expect(fake.deliveries.length).toBe(deliveries);
+    expect(await listPaymentsForInvoice(db, invoice.id)).toHaveLength(1);
+    expect(await findInvoiceById(db, invoice.id)).toMatchObject({ status: "paid" });
+    // Paid: no page is offered any more.
+    expect((await startCheckout(invoice.id)).status).toBe(409);
+  });
+
+  it("closes the old page at the provider and opens one for the new amount once cash was taken", async () => {
+    const invoice = await issued();
+    signInAs(w.users.customer);
+    const old = await startCheckout(invoice.id);
+    // 342.00 − 10.00 cash = 332.00 still owed.
+    await recordManualPayment(db, invoice.id, { method: "cash", amount: "10.00" }, null);
+    const fresh = await startCheckout(invoice.id);
+    expect(fresh.status).toBe(201);
+    expect(fresh.body).toMatchObject({ amount: "332.00", currency: "USD" });
+    expect(fresh.body.sessionId).not.toBe(old.body.sessionId);
+    expect((await atProvider(old.body.sessionId)).status).toBe("expired");
+    expect(await atProvider(fresh.body.sessionId)).toMatchObject({
+      status: "open",
+      amount_total: 33200,
+    });
+    expect(await sessionRows(invoice.id)).toEqual([
+      { id: old.body.sessionId, status: "expired", amount: "342.00" },
+      { id: fresh.body.sessionId, status: "open", amount: "332.00" },
+    ]);
+    // The closed page takes no money.
+    const deliveries = fake.deliveries.length;
+    await pay(old.body.sessionId);
+    expect(fake.deliveries.length).toBe(deliveries);
+  });
+
+  it("keeps to reconcile a payment on the old page made after cash was taken, and opens a new one", async () => {
+    const invoice = await issued();
+    signInAs(w.users.customer);
+    const old = await startCheckout(invoice.id);
+    await recordManualPayment(db, invoice.id, { method: "cash", amount: "10.00" }, null);
+    await pay(old.body.sessionId); // 342.00 taken where 332.00 is owed
+    expect(fake.deliveries.at(-1)).toMatchObject({
+      type: "checkout.session.completed",
+      status: 200,
+    });
+    expect(await findInvoiceById(db, invoice.id)).toMatchObject({ amountPaid: "10.00" });
+    expect(await listUnappliedPayments(db, { invoiceId: invoice.id })).toMatchObject([
+      { amount: "342.00", reason: "over-owed", status: "open", sessionId: old.body.sessionId },
+    ]);
+    const fresh = await startCheckout(invoice.id);
+    expect(fresh.body).toMatchObject({ amount: "332.00" });
+    expect(fresh.body.sessionId).not.toBe(old.body.sessionId);
+  });
+
+  it("opens one page when two checkouts start at once, and closes the other at the provider", async () => {
+    const invoice = await issued();
+    signInAs(w.users.customer);
+    const created = fake.deliveries.length;
+    const [a, b] = await Promise.all([startCheckout(invoice.id), startCheckout(invoice.id)]);
+    expect([a.status, b.status]).toEqual([201, 201]);
+    expect(a.body.url).toBe(b.body.url);
+    expect(await sessionRows(invoice.id)).toEqual([
+      { id: a.body.sessionId, status: "open", amount: "342.00" },
+    ]);
+    // The loser's page was opened at the provider and closed again there.
+    const closed = fake.deliveries
+      .slice(created)
+      .filter((d) => d.type === "checkout.session.expired");
+    expect(closed).toHaveLength(1);
+    expect(closed[0]!.sessionId).not.toBe(a.body.sessionId);
+    expect((await atProvider(closed[0]!.sessionId)).status).toBe("expired");
+  });
+
+  it("does not offer again a page about to lapse at the provider", async () => {
+    const invoice = await issued();
+    signInAs(w.users.customer);
+    const old = await startCheckout(invoice.id);
+    await db
+      .updateTable("payment_sessions")
+      .set({ expires_at: new Date(Date.now() + 5 * 60_000).toISOString() })
+      .where("id", "=", old.body.sessionId)
+      .execute();
+    const fresh = await startCheckout(invoice.id);
+    expect(fresh.body.sessionId).not.toBe(old.body.sessionId);
+    expect((await atProvider(old.body.sessionId)).status).toBe("expired");
+  });
+});
+
+describe("a page paid while its notice is still on the way", () => {
+  it("stops a new checkout (409) instead of opening a second page beside a payment being made", async () => {
+    const invoice = await issued();
+    signInAs(w.users.customer);
+    const old = await startCheckout(invoice.id);
+    // The notice does not get through (our webhook checks another secret), so the page is paid
+    // at the provider and still open on our side.
+    vi.stubEnv("STRIPE_WEBHOOK_SECRET", "whsec_not_the_fakes");
+    resetEnvCache();
+    try {
+      await pay(old.body.sessionId);
+      expect(fake.deliveries.at(-1)).toMatchObject({ sessionId: old.body.sessionId, status: 400 });
+    } finally {
+      vi.unstubAllEnvs();
+      vi.stubEnv("STRIPE_API_BASE", fake.url);
+      resetEnvCache();
+    }
+    await recordManualPayment(db, invoice.id, { method: "cash", amount: "10.00" }, null);
+    const res = await startCheckout(invoice.id);
+    expect(res.status).toBe(409);
+    expect(res.body.error.code).toBe("payment_in_progress");
+    expect(await sessionRows(invoice.id)).toEqual([
+      { id: old.body.sessionId, status: "open", amount: "342.00" },
+    ]);
   });
 });

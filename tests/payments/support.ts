@@ -2,6 +2,8 @@ import { createServer, type Server } from "node:http";
 import type { AddressInfo } from "node:net";
 import Stripe from "stripe";
 import { POST as webhookRoute } from "@/app/api/payments/webhook/route";
+import type { DB } from "@/db/client";
+import { insertPaymentSession, type PaymentSession } from "@/db/payments";
 import { noParams } from "../helpers/http";
 
 export const TEST_WEBHOOK_SECRET = "whsec_local";
@@ -37,6 +39,31 @@ export function completedEvent(
       },
     },
   };
+}
+
+/**
+ * A checkout session as the checkout stores it when the payment page opens: the invoice, amount
+ * and currency the webhook checks a payment against.
+ */
+export function storeSession(
+  db: DB,
+  invoiceId: number,
+  amount: string,
+  id = "cs_test_one",
+  currency = "USD",
+): Promise<PaymentSession> {
+  return insertPaymentSession(
+    db,
+    {
+      id,
+      invoiceId,
+      amount,
+      currency,
+      url: `http://127.0.0.1:9/pay/${id}`,
+      expiresAt: new Date(Date.now() + 24 * 3600_000).toISOString(),
+    },
+    null,
+  );
 }
 
 /** The raw request the provider would make: body and, unless left off, its signature header. */
