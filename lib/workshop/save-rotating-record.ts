@@ -23,7 +23,7 @@ export interface RotatingRecordWrite {
  * Saves the record of one rotating part (crank, flywheel, clutch, damper) if nobody changed it
  * since the writer read it; audited with the record before and after.
  *
- * @example await saveRotatingRecord(db, { jobId, part: "crank", data, baseVersion: 0 }, userId)
+ * @example await saveRotatingRecord(db, { jobId, part: "crankshaft", data, baseVersion: 0 }, userId)
  * @throws StaleWriteError (409) when the record changed since `baseVersion`
  */
 export async function saveRotatingRecord(
