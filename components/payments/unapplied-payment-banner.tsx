@@ -1,0 +1,92 @@
+"use client";
+
+import Link from "next/link";
+import { useRouter } from "next/navigation";
+import { useCallback, useEffect, useState } from "react";
+import type { UnappliedPaymentListed } from "@/db/payments";
+import { formatMoney } from "@/lib/billing/format";
+import { unappliedReasonText } from "@/lib/payments/reasons";
+import { callPayments } from "./call";
+import { UnappliedPaymentActions } from "./unapplied-payment-actions";
+
+/**
+ * On an invoice, for the counter and the owner: each online payment received for it and not
+ * applied, in plain words, with "Apply as payment" and "Mark refunded". Reads its own data, so it
+ * can sit in any invoice view; shows nothing when there is none.
+ */
+export function UnappliedPaymentBanner({ invoiceId }: { invoiceId: number }) {
+  const router = useRouter();
+  const [items, setItems] = useState<UnappliedPaymentListed[]>([]);
+  const [message, setMessage] = useState<string | null>(null);
+  const [failed, setFailed] = useState<string | null>(null);
+
+  const load = useCallback(async () => {
+    const outcome = await callPayments<{ payments: UnappliedPaymentListed[] }>(
+      `/api/payments/unapplied?invoiceId=${invoiceId}&status=open`,
+      "GET",
+    );
+    if (outcome.ok) {
+      setItems(outcome.data.payments);
+      setFailed(null);
+    } else {
+      setFailed(`Could not check for online payments not applied: ${outcome.message}`);
+    }
+  }, [invoiceId]);
+
+  useEffect(() => {
+    void load();
+  }, [load]);
+
+  if (failed) {
+    return (
+      <p className="text-sm text-replace" role="status">
+        {failed}
+      </p>
+    );
+  }
+  if (items.length === 0) {
+    return message ? (
+      <p className="text-sm text-within" role="status" data-testid="unapplied-payment-message">
+        {message}
+      </p>
+    ) : null;
+  }
+  return (
+    <div className="space-y-2">
+      {items.map((item) => (
+        <div
+          key={item.id}
+          role="alert"
+          className="space-y-2 rounded border-2 border-replace bg-white p-3"
+          data-testid="unapplied-payment-banner"
+        >
+          <p className="font-semibold">
+            A payment of{" "}
+            <span className="font-mono">{formatMoney(item.amount, item.currency)}</span> was
+            received online and not applied: refund it or apply it.
+          </p>
+          <p className="text-sm text-graphite-700">
+            {unappliedReasonText(item.reason)}
+            {item.reference ? (
+              <>
+                {" "}
+                Payment service reference: <span className="font-mono">{item.reference}</span>.
+              </>
+            ) : null}{" "}
+            <Link href="/invoices/reconcile" className="underline underline-offset-4">
+              All payments to reconcile
+            </Link>
+          </p>
+          <UnappliedPaymentActions
+            item={item}
+            onDone={(done) => {
+              setMessage(done);
+              void load();
+              router.refresh();
+            }}
+          />
+        </div>
+      ))}
+    </div>
+  );
+}
