@@ -1,17 +1,22 @@
 import { createRequire } from "node:module";
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
 import { getDb } from "@/db/client";
-import type { Role } from "@/db/schema";
 import { signInAs } from "../helpers/session";
 import { type DiscoveredEndpoint, discoverActions, discoverRoutes, endpointsOf } from "./discover";
+import { readFileSync } from "node:fs";
+import path from "node:path";
 import {
   ACTION_RULES,
+  allowedRoles,
   CALLERS,
   type Caller,
   expectedFor,
+  expectedForAction,
   type Ownership,
+  ownershipOf,
   ROUTE_RULES,
 } from "./rules";
+import { ROOT } from "./discover";
 import { callAs, seedShop, type Shop, totalChanges } from "./world";
 
 // next-auth's own route reads cookies and headers through next/headers, which only answer inside
@@ -78,9 +83,45 @@ describe("the access rules", () => {
 
   it("say how customers are kept to their own records wherever customers are let in", () => {
     const unstated = Object.entries(ROUTE_RULES)
-      .filter(([, r]) => !r.public && r.allowed.includes("customer") && r.customer === undefined)
+      .filter(([, r]) => allowedRoles(r).includes("customer") && ownershipOf(r) === undefined)
       .map(([key]) => key);
     expect(unstated).toEqual([]);
+  });
+
+  it("match the permission each route handler asks for in its code", () => {
+    const asked = (body: string) =>
+      [...body.matchAll(/requireApiPermission\(\s*"([\w-]+)"/g)].map((m) => m[1]);
+    const differing = endpoints
+      .map((e) => {
+        const rule = ROUTE_RULES[e.key];
+        if (!rule) return null;
+        const found = asked(e.body);
+        const wanted = rule.public ? [] : [rule.permission];
+        return JSON.stringify(found) === JSON.stringify(wanted)
+          ? null
+          : `${e.key}: the code asks for ${JSON.stringify(found)}, the rule says ${JSON.stringify(wanted)}`;
+      })
+      .filter((d) => d !== null);
+    expect(differing).toEqual([]);
+  });
+
+  it("match the permission each server action asks for in its code", () => {
+    const differing = actions
+      .map((a) => {
+        const wanted = ACTION_RULES[a.key];
+        if (!wanted) return null;
+        const source = readFileSync(path.join(ROOT, a.file), "utf8");
+        const start = source.search(new RegExp(`export\\s+async\\s+function\\s+${a.name}\\b`));
+        const rest = source.slice(start + 1);
+        const end = rest.search(/\nexport\s/);
+        const body = end === -1 ? rest : rest.slice(0, end);
+        const found = [...body.matchAll(/checkPermission\(\s*"([\w-]+)"/g)].map((m) => m[1]);
+        return JSON.stringify(found) === JSON.stringify([wanted])
+          ? null
+          : `${a.key}: the code asks for ${JSON.stringify(found)}, the rule says "${wanted}"`;
+      })
+      .filter((d) => d !== null);
+    expect(differing).toEqual([]);
   });
 
   it("find the server actions by their directive, and only async functions in them", () => {
@@ -107,7 +148,7 @@ describe("access matrix", () => {
     const rule = ROUTE_RULES[endpoint.key];
     if (!rule) continue; // reported by "have a rule for every method" above
 
-    describe(endpoint.key, () => {
+    describe(`${endpoint.key} (${rule.public ? "public" : rule.permission})`, () => {
       for (const caller of CALLERS) {
         const expected = expectedFor(rule, caller);
         it(title(caller, expected, rule.public === true), async () => {
@@ -145,8 +186,8 @@ const RECORD_NAMES: Record<Exclude<Ownership, "none" | "scoped-list">, string> =
 
 function ownedRecord(endpoint: DiscoveredEndpoint): string | null {
   const rule = ROUTE_RULES[endpoint.key];
-  if (!rule || rule.public || !rule.allowed.includes("customer")) return null;
-  const ownership = rule.customer;
+  if (!rule || !allowedRoles(rule).includes("customer")) return null;
+  const ownership = ownershipOf(rule);
   if (ownership === undefined || ownership === "none" || ownership === "scoped-list") return null;
   return RECORD_NAMES[ownership];
 }
@@ -248,13 +289,12 @@ describe("customer isolation", () => {
 
 describe("server actions", () => {
   for (const action of actions) {
-    const allowed = ACTION_RULES[action.key];
-    if (!allowed) continue; // reported by "have a rule for every server action" above
+    const permission = ACTION_RULES[action.key];
+    if (!permission) continue; // reported by "have a rule for every server action" above
 
-    describe(action.key, () => {
+    describe(`${action.key} (${permission})`, () => {
       for (const caller of CALLERS) {
-        const refusal =
-          caller === "anonymous" ? 401 : allowed.includes(caller as Role) ? null : 403;
+        const refusal = expectedForAction(permission, caller);
         const who = describeCaller(caller);
         it(
           refusal ? `refuses ${who} with ${refusal}` : `lets ${who} past the role check`,

@@ -1,42 +1,26 @@
 import type { Role } from "@/db/schema";
+import { type Ownership, type Permission, ruleOf } from "@/lib/auth/policy";
 
-// Who may call what. Every route handler method and every server action the app has must be
-// listed here: access-matrix.test.ts finds them in the code and fails on one without a rule, and
-// on a rule whose route or action is gone.
+// Which permission each route method and server action asks for. The roles come from the policy
+// (lib/auth/policy.ts), never from here. Every route handler method and every server action the
+// app has must be listed: access-matrix.test.ts finds them in the code and fails on one without a
+// rule, on a rule whose route or action is gone, and on a handler that asks for another permission.
 
 export type Caller = Role | "anonymous";
-
-/**
- * How a customer is kept to their own records where customers are let in at all.
- * - "none": nothing of a customer's is read (the balance calculators).
- * - "own-job": the job in the path (or `?jobId=`) must be theirs: `findJobForUser`.
- * - "own-invoice": the invoice must be on their job and not a draft: `findInvoiceForUser`.
- * - "own-quote": the quote must be on their job and not a draft: `findQuoteForUser`.
- * - "own-upload": the upload's job must be theirs: `findUploadForUser`.
- * - "scoped-list": a list narrowed to their customer record: `customerScope`.
- * Someone else's record answers 404, exactly as one that does not exist.
- */
-export type Ownership =
-  "none" | "own-job" | "own-invoice" | "own-quote" | "own-upload" | "scoped-list";
+export type { Ownership };
 
 export type RouteRule =
   /** Reached without signing in; `why` says what stands in for the session. */
   | { public: true; why: string }
   | {
       public?: false;
-      allowed: readonly Role[];
-      /** Required when customers are allowed. */
-      customer?: Ownership;
+      /** The permission the handler asks for (`requireApiPermission`). */
+      permission: Permission;
       /** What a signed-in role that is not allowed gets: 403 unless the route hides existence. */
       refusedWith?: 403 | 404;
     };
 
-const OWNER = ["owner"] as const;
-const DESK = ["owner", "counter"] as const;
-const BENCH = ["owner", "machinist"] as const;
-const SHOP = ["owner", "machinist", "counter"] as const;
-const BILLING_READ = ["owner", "counter", "customer"] as const;
-const EVERYONE = ["owner", "machinist", "counter", "customer"] as const;
+const can = (permission: Permission) => ({ permission }) as const;
 
 export const ROUTE_RULES: Record<string, RouteRule> = {
   // Sign-in itself, and what the outside world reaches without an account.
@@ -51,114 +35,118 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
 
   // The balance calculators work on the numbers sent; nobody's records are read.
   // Everyone changes their own password; nobody else's record is read.
-  "POST /api/account/password": { allowed: EVERYONE, customer: "none" },
-  "POST /api/balance": { allowed: EVERYONE, customer: "none" },
-  "POST /api/balance/crank": { allowed: EVERYONE, customer: "none" },
-  "POST /api/balance/hole": { allowed: EVERYONE, customer: "none" },
+  "POST /api/account/password": can("change-own-password"),
+  "POST /api/balance": can("use-calculators"),
+  "POST /api/balance/crank": can("use-calculators"),
+  "POST /api/balance/hole": can("use-calculators"),
 
   // Customers' records are the desk's.
-  "GET /api/customers": { allowed: SHOP },
-  "POST /api/customers": { allowed: DESK },
-  "GET /api/customers/[id]": { allowed: SHOP },
-  "PATCH /api/customers/[id]": { allowed: DESK },
-  "POST /api/customers/[id]/merge": { allowed: DESK },
-  "POST /api/invites": { allowed: DESK },
+  "GET /api/customers": can("read-customers"),
+  "POST /api/customers": can("manage-customers"),
+  "GET /api/customers/[id]": can("read-customers"),
+  "PATCH /api/customers/[id]": can("manage-customers"),
+  "POST /api/customers/[id]/merge": can("manage-customers"),
+  "POST /api/invites": can("manage-customers"),
 
   // Jobs: everyone sees (customers their own); the desk books; the bench weighs and balances.
   // The bench's working (weights, plan, CSVs) is the shop's: a customer is refused (403).
-  "GET /api/jobs": { allowed: EVERYONE, customer: "scoped-list" },
-  "POST /api/jobs": { allowed: DESK },
-  "GET /api/jobs/[id]": { allowed: EVERYONE, customer: "own-job" },
-  "PATCH /api/jobs/[id]": { allowed: SHOP },
-  "GET /api/jobs/[id]/workshop": { allowed: SHOP },
-  "PUT /api/jobs/[id]/weights": { allowed: BENCH },
-  "PUT /api/jobs/[id]/targets": { allowed: BENCH },
-  "POST /api/jobs/[id]/pairing": { allowed: BENCH },
-  "POST /api/jobs/[id]/pairing/undo": { allowed: BENCH },
-  "GET /api/jobs/[id]/weights/csv": { allowed: SHOP },
-  "POST /api/jobs/[id]/weights/import": { allowed: BENCH },
-  "GET /api/jobs/[id]/plan/csv": { allowed: SHOP },
-  "PUT /api/jobs/[id]/rotating/[part]": { allowed: BENCH },
-  "GET /api/jobs/[id]/build": { allowed: EVERYONE, customer: "own-job" },
-  "PUT /api/jobs/[id]/build/[section]": { allowed: BENCH },
-  "GET /api/jobs/[id]/build/requests": { allowed: EVERYONE, customer: "own-job" },
-  "POST /api/jobs/[id]/build/requests": { allowed: SHOP },
-  "PATCH /api/jobs/[id]/build/requests/[requestId]": { allowed: BENCH },
-  "GET /api/jobs/[id]/build/cards": { allowed: EVERYONE, customer: "own-job" },
-  "POST /api/jobs/[id]/build/cards": { allowed: BENCH },
-  "GET /api/jobs/[id]/build/cards/[revision]/pdf": { allowed: EVERYONE, customer: "own-job" },
-  "POST /api/jobs/[id]/build/cards/[revision]/send": { allowed: SHOP },
-  "GET /api/jobs/[id]/uploads": { allowed: EVERYONE, customer: "own-job" },
-  "POST /api/jobs/[id]/uploads": { allowed: SHOP },
-  "GET /api/uploads/[id]": { allowed: EVERYONE, customer: "own-upload" },
-  "DELETE /api/uploads/[id]": { allowed: SHOP },
-  "GET /api/uploads/[id]/thumbnail": { allowed: EVERYONE, customer: "own-upload" },
+  "GET /api/jobs": can("list-jobs"),
+  "POST /api/jobs": can("book-job"),
+  "GET /api/jobs/[id]": can("read-job"),
+  "PATCH /api/jobs/[id]": can("edit-job"),
+  "GET /api/jobs/[id]/workshop": can("read-bench"),
+  "PUT /api/jobs/[id]/weights": can("weigh"),
+  "PUT /api/jobs/[id]/targets": can("weigh"),
+  "POST /api/jobs/[id]/pairing": can("weigh"),
+  "POST /api/jobs/[id]/pairing/undo": can("weigh"),
+  "GET /api/jobs/[id]/weights/csv": can("read-bench"),
+  "POST /api/jobs/[id]/weights/import": can("weigh"),
+  "GET /api/jobs/[id]/plan/csv": can("read-bench"),
+  "PUT /api/jobs/[id]/rotating/[part]": can("weigh"),
+  "GET /api/jobs/[id]/build": can("read-job"),
+  "PUT /api/jobs/[id]/build/[section]": can("edit-build-record"),
+  "GET /api/jobs/[id]/build/requests": can("read-job"),
+  "POST /api/jobs/[id]/build/requests": can("add-build-request"),
+  "PATCH /api/jobs/[id]/build/requests/[requestId]": can("edit-build-record"),
+  "GET /api/jobs/[id]/build/cards": can("read-job"),
+  "POST /api/jobs/[id]/build/cards": can("issue-card"),
+  "GET /api/jobs/[id]/build/cards/[revision]/pdf": can("read-job"),
+  "POST /api/jobs/[id]/build/cards/[revision]/send": can("send-card"),
+  "GET /api/jobs/[id]/uploads": can("read-job"),
+  "POST /api/jobs/[id]/uploads": can("manage-uploads"),
+  "GET /api/uploads/[id]": can("read-upload"),
+  "DELETE /api/uploads/[id]": can("manage-uploads"),
+  "GET /api/uploads/[id]/thumbnail": can("read-upload"),
 
   // Balance cards: only the bench issues one; the shop sends it; the customer reads their own.
-  "GET /api/jobs/[id]/cards": { allowed: EVERYONE, customer: "own-job" },
-  "POST /api/jobs/[id]/cards": { allowed: BENCH },
-  "GET /api/jobs/[id]/cards/[revision]/pdf": { allowed: EVERYONE, customer: "own-job" },
-  "POST /api/jobs/[id]/cards/[revision]/send": { allowed: SHOP },
-  "GET /api/jobs/[id]/cards/status": { allowed: SHOP },
+  "GET /api/jobs/[id]/cards": can("read-job"),
+  "POST /api/jobs/[id]/cards": can("issue-card"),
+  "GET /api/jobs/[id]/cards/[revision]/pdf": can("read-job"),
+  "POST /api/jobs/[id]/cards/[revision]/send": can("send-card"),
+  "GET /api/jobs/[id]/cards/status": can("read-bench"),
 
   // Quotes and invoices: the desk writes them; the customer reads, accepts and pays their own.
-  "GET /api/quotes": { allowed: BILLING_READ, customer: "own-job" },
-  "POST /api/quotes": { allowed: DESK },
-  "GET /api/quotes/[id]": { allowed: BILLING_READ, customer: "own-quote" },
-  "PUT /api/quotes/[id]": { allowed: DESK },
-  "POST /api/quotes/[id]/offer": { allowed: DESK },
-  "POST /api/quotes/[id]/withdraw": { allowed: DESK },
-  "POST /api/quotes/[id]/accept": { allowed: BILLING_READ, customer: "own-quote" },
-  "GET /api/invoices": { allowed: BILLING_READ, customer: "scoped-list" },
-  "POST /api/invoices": { allowed: DESK },
-  "GET /api/invoices/[id]": { allowed: BILLING_READ, customer: "own-invoice" },
-  "PUT /api/invoices/[id]": { allowed: DESK },
-  "DELETE /api/invoices/[id]": { allowed: DESK },
-  "POST /api/invoices/[id]/issue": { allowed: DESK },
-  "POST /api/invoices/[id]/void": { allowed: DESK },
-  "GET /api/invoices/[id]/pdf": { allowed: BILLING_READ, customer: "own-invoice" },
-  "GET /api/invoices/[id]/payments": { allowed: BILLING_READ, customer: "own-invoice" },
-  "POST /api/invoices/[id]/payments": { allowed: DESK },
-  "POST /api/invoices/[id]/checkout": { allowed: BILLING_READ, customer: "own-invoice" },
-  "GET /api/payments/unapplied": { allowed: DESK },
-  "POST /api/payments/unapplied/[id]/apply": { allowed: DESK },
-  "POST /api/payments/unapplied/[id]/refund": { allowed: DESK },
+  "GET /api/quotes": can("list-quotes"),
+  "POST /api/quotes": can("write-quotes"),
+  "GET /api/quotes/[id]": can("read-quote"),
+  "PUT /api/quotes/[id]": can("write-quotes"),
+  "POST /api/quotes/[id]/offer": can("write-quotes"),
+  "POST /api/quotes/[id]/withdraw": can("write-quotes"),
+  "POST /api/quotes/[id]/accept": can("accept-quote"),
+  "GET /api/invoices": can("list-invoices"),
+  "POST /api/invoices": can("write-invoices"),
+  "GET /api/invoices/[id]": can("read-invoice"),
+  "PUT /api/invoices/[id]": can("write-invoices"),
+  "DELETE /api/invoices/[id]": can("write-invoices"),
+  "POST /api/invoices/[id]/issue": can("write-invoices"),
+  "POST /api/invoices/[id]/void": can("write-invoices"),
+  "GET /api/invoices/[id]/pdf": can("read-invoice"),
+  "GET /api/invoices/[id]/payments": can("read-invoice"),
+  "POST /api/invoices/[id]/payments": can("record-payment"),
+  "POST /api/invoices/[id]/checkout": can("pay-invoice"),
+  "GET /api/payments/unapplied": can("record-payment"),
+  "POST /api/payments/unapplied/[id]/apply": can("record-payment"),
+  "POST /api/payments/unapplied/[id]/refund": can("record-payment"),
+  // Online payments that arrived with no invoice to apply them to: the desk reconciles them.
+  "GET /api/payments/unapplied": can("record-payment"),
+  "POST /api/payments/unapplied/[id]/apply": can("record-payment"),
+  "POST /api/payments/unapplied/[id]/refund": can("record-payment"),
 
   // The shop's own setup.
-  "GET /api/prices": { allowed: SHOP },
-  "POST /api/prices": { allowed: OWNER },
-  "GET /api/prices/[id]": { allowed: SHOP },
-  "PATCH /api/prices/[id]": { allowed: OWNER },
-  "GET /api/settings": { allowed: SHOP },
-  "PUT /api/settings": { allowed: OWNER },
-  "GET /api/settings/logo": { allowed: SHOP },
-  "PUT /api/settings/logo": { allowed: OWNER },
-  "DELETE /api/settings/logo": { allowed: OWNER },
-  "GET /api/settings/build": { allowed: SHOP },
-  "PUT /api/settings/build": { allowed: OWNER },
-  "GET /api/settings/counter": { allowed: SHOP },
-  "PUT /api/settings/counter": { allowed: OWNER },
-  "GET /api/users": { allowed: OWNER },
-  "POST /api/users": { allowed: OWNER },
-  "GET /api/users/[id]": { allowed: OWNER },
-  "PATCH /api/users/[id]": { allowed: OWNER },
-  "GET /api/mail/outbox": { allowed: OWNER },
-  "POST /api/mail/[id]/retry": { allowed: OWNER },
+  "GET /api/prices": can("read-shop-setup"),
+  "POST /api/prices": can("manage-prices"),
+  "GET /api/prices/[id]": can("read-shop-setup"),
+  "PATCH /api/prices/[id]": can("manage-prices"),
+  "GET /api/settings": can("read-shop-setup"),
+  "PUT /api/settings": can("manage-settings"),
+  "GET /api/settings/logo": can("read-shop-setup"),
+  "PUT /api/settings/logo": can("manage-settings"),
+  "DELETE /api/settings/logo": can("manage-settings"),
+  "GET /api/settings/build": can("read-shop-setup"),
+  "PUT /api/settings/build": can("manage-settings"),
+  "GET /api/settings/counter": can("read-shop-setup"),
+  "PUT /api/settings/counter": can("manage-settings"),
+  "GET /api/users": can("manage-users"),
+  "POST /api/users": can("manage-users"),
+  "GET /api/users/[id]": can("manage-users"),
+  "PATCH /api/users/[id]": can("manage-users"),
+  "GET /api/mail/outbox": can("manage-mail"),
+  "POST /api/mail/[id]/retry": can("manage-mail"),
 };
 
-/** Server actions: the roles `checkAccess` lets through; everyone else gets 401 or 403. */
-export const ACTION_RULES: Record<string, readonly Role[]> = {
-  "app/(shop)/account/password/actions.ts#changePasswordAction": EVERYONE,
-  "app/(shop)/customers/actions.ts#createCustomerAction": DESK,
-  "app/(shop)/customers/actions.ts#mergeCustomerAction": DESK,
-  "app/(shop)/customers/actions.ts#updateCustomerAction": DESK,
-  "app/(shop)/outbox/actions.ts#retryMailAction": OWNER,
-  "app/(shop)/prices/actions.ts#createPriceAction": OWNER,
-  "app/(shop)/prices/actions.ts#updatePriceAction": OWNER,
-  "app/(shop)/settings/actions.ts#saveSettingsAction": OWNER,
-  "app/(shop)/users/actions.ts#createUserAction": OWNER,
-  "app/(shop)/users/actions.ts#changeUserAction": OWNER,
-  "app/(shop)/users/actions.ts#resetPasswordAction": OWNER,
+/** Server actions: the permission each asks for (`checkPermission`); others get 401 or 403. */
+export const ACTION_RULES: Record<string, Permission> = {
+  "app/(shop)/account/password/actions.ts#changePasswordAction": "change-own-password",
+  "app/(shop)/customers/actions.ts#createCustomerAction": "manage-customers",
+  "app/(shop)/customers/actions.ts#mergeCustomerAction": "manage-customers",
+  "app/(shop)/customers/actions.ts#updateCustomerAction": "manage-customers",
+  "app/(shop)/outbox/actions.ts#retryMailAction": "manage-mail",
+  "app/(shop)/prices/actions.ts#createPriceAction": "manage-prices",
+  "app/(shop)/prices/actions.ts#updatePriceAction": "manage-prices",
+  "app/(shop)/settings/actions.ts#saveSettingsAction": "manage-settings",
+  "app/(shop)/users/actions.ts#createUserAction": "manage-users",
+  "app/(shop)/users/actions.ts#changeUserAction": "manage-users",
+  "app/(shop)/users/actions.ts#resetPasswordAction": "manage-users",
 };
 
 export const CALLERS: readonly Caller[] = [
@@ -169,10 +157,26 @@ export const CALLERS: readonly Caller[] = [
   "customer",
 ];
 
+/** The roles a rule lets past the role check, read from the policy. */
+export function allowedRoles(rule: RouteRule): readonly Role[] {
+  return rule.public ? [] : ruleOf(rule.permission).roles;
+}
+
+/** How a customer is kept to their own records under this rule (from the policy). */
+export function ownershipOf(rule: RouteRule): Ownership | undefined {
+  return rule.public ? undefined : ruleOf(rule.permission).customer;
+}
+
 /** What the rule expects for this caller: "allowed", or the status of the refusal. */
 export function expectedFor(rule: RouteRule, caller: Caller): "allowed" | 401 | 403 | 404 {
   if (rule.public) return "allowed";
   if (caller === "anonymous") return 401;
-  if (rule.allowed.includes(caller)) return "allowed";
+  if (allowedRoles(rule).includes(caller)) return "allowed";
   return rule.refusedWith ?? 403;
+}
+
+/** The same for a server action's permission. */
+export function expectedForAction(permission: Permission, caller: Caller): null | 401 | 403 {
+  if (caller === "anonymous") return 401;
+  return ruleOf(permission).roles.includes(caller) ? null : 403;
 }
