@@ -412,17 +412,17 @@ export interface StoredBuildCard {
   issuedAt: string;
 }
 
-/** An issued build record by its verification code (stored form), with the job's latest revision. */
-export async function findBuildCardByCode(
-  db: Db,
-  code: string,
-): Promise<StoredBuildCard | undefined> {
-  const row = await db
+function selectStoredBuildCards(db: Db) {
+  return db
     .selectFrom("build_cards")
-    .select(["job_id", "revision", "sha256", "data_json", "verification_code", "issued_at"])
-    .where("verification_code", "=", code)
-    .executeTakeFirst();
-  if (!row) return undefined;
+    .select(["job_id", "revision", "sha256", "data_json", "verification_code", "issued_at"]);
+}
+
+type StoredBuildCardRow = Awaited<
+  ReturnType<ReturnType<typeof selectStoredBuildCards>["executeTakeFirstOrThrow"]>
+>;
+
+async function toStoredBuildCard(db: Db, row: StoredBuildCardRow): Promise<StoredBuildCard> {
   return {
     jobId: row.job_id,
     revision: row.revision,
@@ -432,4 +432,36 @@ export async function findBuildCardByCode(
     verificationCode: row.verification_code,
     issuedAt: row.issued_at,
   };
+}
+
+/** An issued build record by its verification code (stored form), with the job's latest revision. */
+export async function findBuildCardByCode(
+  db: Db,
+  code: string,
+): Promise<StoredBuildCard | undefined> {
+  const row = await selectStoredBuildCards(db)
+    .where("verification_code", "=", code)
+    .executeTakeFirst();
+  return row && toStoredBuildCard(db, row);
+}
+
+/** The issued build record whose PDF has this SHA-256 (hex), or undefined. */
+export async function findBuildCardByHash(
+  db: Db,
+  sha256: string,
+): Promise<StoredBuildCard | undefined> {
+  const row = await selectStoredBuildCards(db).where("sha256", "=", sha256).executeTakeFirst();
+  return row && toStoredBuildCard(db, row);
+}
+
+/** Of the codes given (stored form), the first that belongs to an issued build record. */
+export async function findBuildCardByAnyCode(
+  db: Db,
+  codes: string[],
+): Promise<StoredBuildCard | undefined> {
+  if (codes.length === 0) return undefined;
+  const rows = await selectStoredBuildCards(db).where("verification_code", "in", codes).execute();
+  const byCode = new Map(rows.map((r) => [r.verification_code, r]));
+  const first = codes.map((c) => byCode.get(c)).find((r) => r !== undefined);
+  return first && toStoredBuildCard(db, first);
 }

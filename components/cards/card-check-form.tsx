@@ -4,6 +4,7 @@ import { useMutation } from "@tanstack/react-query";
 import { type FormEvent, useState } from "react";
 import { ApiError, apiFetch } from "@/lib/api-client";
 import type { CardCheck } from "@/lib/cards/verify";
+import { VerifiedBuildCardView } from "@/components/build/verified-build-card";
 import { VerifiedCardView } from "./verified-card-view";
 
 type State =
@@ -38,7 +39,7 @@ export function CardCheckForm() {
       <form onSubmit={check} className="flex flex-wrap items-end gap-3">
         <div className="grow">
           <label htmlFor="verify-file" className="mb-1 block text-sm font-semibold">
-            Balance card PDF
+            Balance card PDF (or engine build record PDF)
           </label>
           <input
             id="verify-file"
@@ -65,8 +66,29 @@ function CheckOutcome({ check }: { check: CardCheck }) {
   if (check.result === "unknown") {
     return (
       <p className="font-semibold text-graphite-700">
-        Not one of our cards: this file matches no balance card on record and names none.
+        Not one of our cards: this file matches no balance card or build record on record and names
+        none.
       </p>
+    );
+  }
+  if ("buildRecord" in check) {
+    const record = check.buildRecord;
+    return (
+      <div className="space-y-3">
+        {check.result === "genuine" ? (
+          <p className="font-semibold text-within">
+            Genuine: this file is exactly the engine build record the shop issued (code{" "}
+            {record.verificationCode}, revision {record.revision} of job {record.jobNumber}).
+          </p>
+        ) : (
+          <p className="font-semibold text-replace">
+            Altered: this file names engine build record {record.verificationCode}, revision{" "}
+            {record.revision} of job {record.jobNumber}, but it is not the file the shop issued. Do
+            not rely on its figures; the record on file is below.
+          </p>
+        )}
+        <VerifiedBuildCardView card={record} headingLevel={2} />
+      </div>
     );
   }
   return (

@@ -3,11 +3,14 @@ import type { Kysely } from "kysely";
 import { createAuditEntry } from "@/db/audit";
 import {
   type BuildCardSummary,
+  findBuildCardByAnyCode,
   findBuildCardByCode,
+  findBuildCardByHash,
   findBuildCardPdf,
   findLatestBuildCardRevision,
   insertBuildCard,
   listBuildCards,
+  type StoredBuildCard,
 } from "@/db/build-record";
 import { findCounterSettings } from "@/db/counter-settings";
 import { findCustomerById } from "@/db/customers";
@@ -225,15 +228,7 @@ export interface VerifiedBuildCard {
   tables: CardTable[];
 }
 
-/** The build record a code was printed on, or undefined when no build record carries it. */
-export async function verifyBuildCardCode(
-  db: Kysely<Database>,
-  typed: string,
-): Promise<VerifiedBuildCard | undefined> {
-  const code = normaliseCode(typed);
-  if (!code) return undefined;
-  const card = await findBuildCardByCode(db, code);
-  if (!card) return undefined;
+function toVerifiedBuildCard(card: StoredBuildCard): VerifiedBuildCard {
   const data = JSON.parse(card.dataJson) as BuildCardData;
   return {
     verificationCode: formatCode(card.verificationCode),
@@ -248,4 +243,32 @@ export async function verifyBuildCardCode(
     sha256: card.sha256,
     tables: buildCardTables(data),
   };
+}
+
+/** The build record a code was printed on, or undefined when no build record carries it. */
+export async function verifyBuildCardCode(
+  db: Kysely<Database>,
+  typed: string,
+): Promise<VerifiedBuildCard | undefined> {
+  const code = normaliseCode(typed);
+  const card = code ? await findBuildCardByCode(db, code) : undefined;
+  return card && toVerifiedBuildCard(card);
+}
+
+/** The issued build record whose PDF is exactly these bytes (by SHA-256, hex), or undefined. */
+export async function findIssuedBuildCardByHash(
+  db: Kysely<Database>,
+  sha256: string,
+): Promise<VerifiedBuildCard | undefined> {
+  const card = await findBuildCardByHash(db, sha256);
+  return card && toVerifiedBuildCard(card);
+}
+
+/** Of the codes a file names (stored form, in its order), the first issued build record's. */
+export async function findIssuedBuildCardByAnyCode(
+  db: Kysely<Database>,
+  codes: string[],
+): Promise<VerifiedBuildCard | undefined> {
+  const card = await findBuildCardByAnyCode(db, codes);
+  return card && toVerifiedBuildCard(card);
 }

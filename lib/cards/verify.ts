@@ -2,6 +2,11 @@ import { createHash } from "node:crypto";
 import { fileTypeFromBuffer } from "file-type";
 import type { DB } from "@/db/client";
 import { findCardByAnyCode, findCardByCode, findCardByHash, type StoredCard } from "@/db/cards";
+import {
+  findIssuedBuildCardByAnyCode,
+  findIssuedBuildCardByHash,
+  type VerifiedBuildCard,
+} from "@/lib/build-record/card";
 import { HttpError } from "@/lib/http/errors";
 import { parseCardData } from "./card-data";
 import { formatCode, normaliseCode } from "./code";
@@ -79,11 +84,14 @@ export type CardCheck =
   | { result: "genuine"; sha256: string; card: VerifiedCard }
   /** The file names one of our cards but is not the file that was issued. */
   | { result: "altered"; sha256: string; card: VerifiedCard }
+  /** An engine build record PDF the shop issued, unchanged or not. */
+  | { result: "genuine" | "altered"; sha256: string; buildRecord: VerifiedBuildCard }
   | { result: "unknown"; sha256: string };
 
-// Our cards carry their code in the document information (Keywords and Subject).
+// Our cards and build records carry their code in the document information (Keywords, Subject).
 const CODE_MARKS = [
   /counterpoise-card\s+([0-9A-Z]{10})/g,
+  /counterpoise-build-record\s+([0-9A-Z]{10})/g,
   /verification code\s+([0-9A-Z]{5})-?([0-9A-Z]{5})/gi,
 ];
 
@@ -112,8 +120,9 @@ export function findCodesInPdf(bytes: Uint8Array): string[] {
 }
 
 /**
- * Checks an uploaded file against the cards issued: the very file we issued ("genuine"), a PDF
- * that names one of our cards but differs from it by even one byte ("altered"), or neither.
+ * Checks an uploaded file against the balance cards and engine build records issued: the very
+ * file we issued ("genuine"), a PDF that names one of ours but differs from it by even one byte
+ * ("altered"), or neither.
  *
  * `spendOnCodes`, when given, is called with the number of codes the file names before they are
  * looked up (the per-address rate limit counts each one) and may throw to refuse the lookup.
@@ -133,6 +142,8 @@ export async function checkCardPdf(
   const sha256 = createHash("sha256").update(bytes).digest("hex");
   const exact = await findCardByHash(db, sha256);
   if (exact) return { result: "genuine", sha256, card: toVerifiedCard(exact) };
+  const exactBuild = await findIssuedBuildCardByHash(db, sha256);
+  if (exactBuild) return { result: "genuine", sha256, buildRecord: exactBuild };
   const codes = findCodesInPdf(bytes);
   if (codes.length > MAX_CODES_PER_CHECK) {
     const message = `This file names ${codes.length} verification codes; a balance card names one. Choose the card PDF itself.`;
@@ -141,6 +152,8 @@ export async function checkCardPdf(
   if (spendOnCodes && codes.length > 0) await spendOnCodes(codes.length);
   const named = await findFirstCard(db, codes);
   if (named) return { result: "altered", sha256, card: toVerifiedCard(named) };
+  const namedBuild = await findFirstOf(codes, (some) => findIssuedBuildCardByAnyCode(db, some));
+  if (namedBuild) return { result: "altered", sha256, buildRecord: namedBuild };
   return { result: "unknown", sha256 };
 }
 
@@ -154,10 +167,18 @@ export const MAX_CODES_PER_CHECK = 200;
 const CODES_PER_QUERY = 100;
 
 /** The card of the first code (in the order the file names them) that is one of ours. */
-async function findFirstCard(db: DB, codes: string[]): Promise<StoredCard | undefined> {
+function findFirstCard(db: DB, codes: string[]): Promise<StoredCard | undefined> {
+  return findFirstOf(codes, (some) => findCardByAnyCode(db, some));
+}
+
+/** Looks the codes up a query's worth at a time; the first found, in the file's order. */
+async function findFirstOf<T>(
+  codes: string[],
+  lookUp: (some: string[]) => Promise<T | undefined>,
+): Promise<T | undefined> {
   for (let i = 0; i < codes.length; i += CODES_PER_QUERY) {
-    const card = await findCardByAnyCode(db, codes.slice(i, i + CODES_PER_QUERY));
-    if (card) return card;
+    const found = await lookUp(codes.slice(i, i + CODES_PER_QUERY));
+    if (found) return found;
   }
   return undefined;
 }

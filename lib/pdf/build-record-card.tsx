@@ -74,6 +74,8 @@ function BuildRecordDocument({ data, qr }: { data: BuildCardData; qr: string }) 
     <Document
       title={`Engine build record ${data.job.number} r${data.revision}`}
       author={data.shopName}
+      subject={`Engine build record verification code ${code}`}
+      keywords={`counterpoise-build-record ${data.code} job ${data.job.number} revision ${data.revision}`}
     >
       <Page size="A4" style={s.page}>
         <View style={s.head}>

@@ -6,13 +6,12 @@ import { VerifiedBuildCardView } from "@/components/build/verified-build-card";
 import type { DB } from "@/db/client";
 import { updateCounterSettings } from "@/lib/settings/counter-settings";
 import type { Job } from "@/db/jobs";
-import { createJob } from "@/lib/jobs/save";
 import type { Role } from "@/db/schema";
 import type { User } from "@/db/users";
 import { issueBuildCard, verifyBuildCardCode } from "@/lib/build-record/card";
 import { emptySection } from "@/lib/build-record/schemas";
 import { readPdf } from "../cards/fixtures";
-import { addOneOfEachRole, freshDb } from "../../helpers/db";
+import { setUpBuildJob } from "./fixtures";
 import { jsonRequest, params } from "../../helpers/http";
 import { signInAs } from "../../helpers/session";
 
@@ -25,13 +24,7 @@ let users: Record<Role, User>;
 let job: Job;
 
 beforeEach(async () => {
-  db = await freshDb();
-  users = await addOneOfEachRole(db);
-  job = await createJob(
-    db,
-    { customerId: users.customer.customerId!, engine: "Invented V8", spec: { cylinders: 8 } },
-    null,
-  );
+  ({ db, users, job } = await setUpBuildJob());
   await updateCounterSettings(
     db,
     0,

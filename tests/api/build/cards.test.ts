@@ -7,12 +7,12 @@ import { PUT as putSection } from "@/app/api/jobs/[id]/build/[section]/route";
 import type { DB } from "@/db/client";
 import { StaleWriteError } from "@/db/errors";
 import type { Job } from "@/db/jobs";
-import { createJob } from "@/lib/jobs/save";
 import type { Role } from "@/db/schema";
 import type { User } from "@/db/users";
 import { storeBuildCard, verifyBuildCardCode } from "@/lib/build-record/card";
 import { emptySection } from "@/lib/build-record/schemas";
-import { addOneOfEachRole, addTestUser, freshDb } from "../../helpers/db";
+import { addTestUser } from "../../helpers/db";
+import { setUpBuildJob } from "./fixtures";
 import { jsonRequest, params } from "../../helpers/http";
 import { signInAs } from "../../helpers/session";
 
@@ -21,13 +21,7 @@ let users: Record<Role, User>;
 let job: Job;
 
 beforeEach(async () => {
-  db = await freshDb();
-  users = await addOneOfEachRole(db);
-  job = await createJob(
-    db,
-    { customerId: users.customer.customerId!, engine: "Invented V8", spec: { cylinders: 8 } },
-    null,
-  );
+  ({ db, users, job } = await setUpBuildJob());
   signInAs(users.machinist);
 });
 

@@ -9,7 +9,8 @@ import type { Role } from "@/db/schema";
 import type { User } from "@/db/users";
 import type { BuildRecordView } from "@/lib/build-record/record";
 import { emptySection } from "@/lib/build-record/schemas";
-import { addOneOfEachRole, addTestUser, freshDb } from "../../helpers/db";
+import { addTestUser } from "../../helpers/db";
+import { setUpBuildJob } from "./fixtures";
 import { jsonRequest, params } from "../../helpers/http";
 import { signInAs } from "../../helpers/session";
 
@@ -18,17 +19,7 @@ let users: Record<Role, User>;
 let job: Job;
 
 beforeEach(async () => {
-  db = await freshDb();
-  users = await addOneOfEachRole(db);
-  job = await createJob(
-    db,
-    {
-      customerId: users.customer.customerId!,
-      engine: "Invented small-block V8",
-      spec: { cylinders: 8 },
-    },
-    null,
-  );
+  ({ db, users, job } = await setUpBuildJob({ engine: "Invented small-block V8" }));
   signInAs(users.machinist);
 });
 

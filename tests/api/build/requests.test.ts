@@ -5,10 +5,10 @@ import { GET as listRequests, POST as addRequest } from "@/app/api/jobs/[id]/bui
 import { listAuditEntries } from "@/db/audit";
 import type { DB } from "@/db/client";
 import type { Job } from "@/db/jobs";
-import { createJob } from "@/lib/jobs/save";
 import type { Role } from "@/db/schema";
 import type { User } from "@/db/users";
-import { addOneOfEachRole, addTestUser, freshDb } from "../../helpers/db";
+import { addTestUser } from "../../helpers/db";
+import { setUpBuildJob } from "./fixtures";
 import { jsonRequest, params } from "../../helpers/http";
 import { signInAs } from "../../helpers/session";
 
@@ -17,13 +17,7 @@ let users: Record<Role, User>;
 let job: Job;
 
 beforeEach(async () => {
-  db = await freshDb();
-  users = await addOneOfEachRole(db);
-  job = await createJob(
-    db,
-    { customerId: users.customer.customerId!, engine: "Invented V8", status: "checking" },
-    null,
-  );
+  ({ db, users, job } = await setUpBuildJob({ status: "checking" }));
   signInAs(users.counter);
 });
 
