@@ -12,7 +12,9 @@ import { isWeighCell, typeIntoCell } from "./hand-to-cell";
 import {
   BAUD_RATES,
   DEFAULT_SCALE_SETTINGS,
+  describePortSettings,
   loadScaleSettings,
+  rememberedPort,
   saveScaleSettings,
   type ScaleSettings,
 } from "./scale-settings";
@@ -44,7 +46,68 @@ function boxName(input: HTMLInputElement): string {
   return label.replace(/,\s*\S+$/, "").toLowerCase();
 }
 
-const selectClass = "rounded border border-graphite-300 px-2 py-1.5";
+type PortKey = "baudRate" | "dataBits" | "parity" | "stopBits" | "flowControl";
+
+/** The port settings a scale's menu offers, each a choice of values: one select each. */
+const PORT_CHOICES: {
+  key: PortKey;
+  label: string;
+  options: { value: ScaleSettings[PortKey]; text: string }[];
+}[] = [
+  {
+    key: "baudRate",
+    label: "Baud rate",
+    options: BAUD_RATES.map((b) => ({ value: b, text: `${b}` })),
+  },
+  { key: "dataBits", label: "Data bits", options: [8, 7].map((b) => ({ value: b, text: `${b}` })) },
+  {
+    key: "parity",
+    label: "Parity",
+    options: (["none", "even", "odd"] as const).map((p) => ({ value: p, text: p })),
+  },
+  { key: "stopBits", label: "Stop bits", options: [1, 2].map((b) => ({ value: b, text: `${b}` })) },
+  {
+    key: "flowControl",
+    label: "Handshake",
+    options: [
+      { value: "none", text: "none" },
+      { value: "hardware", text: "hardware (RTS/CTS)" },
+    ],
+  },
+];
+
+function PortSelect({
+  choice,
+  settings,
+  disabled,
+  onChange,
+}: {
+  choice: (typeof PORT_CHOICES)[number];
+  settings: ScaleSettings;
+  disabled: boolean;
+  onChange: (patch: Partial<ScaleSettings>) => void;
+}) {
+  return (
+    <label>
+      <span className="mb-1 block">{choice.label}</span>
+      <select
+        className="rounded border border-graphite-300 px-2 py-1.5"
+        value={String(settings[choice.key])}
+        disabled={disabled}
+        onChange={(e) => {
+          const picked = choice.options.find((o) => String(o.value) === e.target.value);
+          if (picked) onChange({ [choice.key]: picked.value });
+        }}
+      >
+        {choice.options.map((o) => (
+          <option key={String(o.value)} value={String(o.value)}>
+            {o.text}
+          </option>
+        ))}
+      </select>
+    </label>
+  );
+}
 
 /**
  * Reads the shop scale over a serial or USB-serial port (Web Serial) on the weigh-in page.
@@ -122,8 +185,17 @@ export function ConnectScale({ unit, resolution }: { unit: JobMassUnit; resoluti
     setLive({ kind: "entered", figure, into: boxName(box), accepted: settings.autoAccept });
   }
 
-  const { state, connect, disconnect, sendCommand } = useScalePort(onReading);
+  const { state, granted, connect, disconnect, sendCommand } = useScalePort(onReading);
   const connected = state.status === "connected";
+  // A port this browser already has permission for: one click opens it, without the picker.
+  const known = rememberedPort(granted, settings.lastPort);
+
+  async function open(port: SerialPort | null) {
+    const opened = await connect(settings, port);
+    if (!opened) return;
+    const { usbVendorId, usbProductId } = opened.getInfo?.() ?? {};
+    change({ lastPort: { usbVendorId, usbProductId } });
+  }
 
   return (
     <section
@@ -155,17 +227,43 @@ export function ConnectScale({ unit, resolution }: { unit: JobMassUnit; resoluti
               Disconnect
             </button>
           </span>
+        ) : known ? (
+          <span className="flex flex-wrap gap-2">
+            <button
+              type="button"
+              className="btn-primary"
+              disabled={state.status === "connecting"}
+              onClick={() => void open(known)}
+            >
+              Reconnect scale ({settings.baudRate} baud)
+            </button>
+            <button
+              type="button"
+              className="btn-secondary"
+              disabled={state.status === "connecting"}
+              onClick={() => void open(null)}
+            >
+              Choose another port
+            </button>
+          </span>
         ) : (
           <button
             type="button"
             className="btn-primary"
             disabled={state.status === "connecting" || state.status === "checking"}
-            onClick={() => void connect(settings)}
+            onClick={() => void open(null)}
           >
             Connect scale
           </button>
         )}
       </div>
+      {known && !connected && state.status !== "unavailable" ? (
+        <p className="text-sm text-graphite-600" data-testid="scale-remembered">
+          This browser already has permission for the scale&apos;s port: Reconnect opens it with the
+          settings remembered on this PC ({describePortSettings(settings)}) without asking which
+          port. It does not connect on its own when the page opens.
+        </p>
+      ) : null}
 
       {state.status === "unavailable" ? (
         <p className="text-sm text-graphite-600" data-testid="scale-unavailable">
@@ -200,72 +298,15 @@ export function ConnectScale({ unit, resolution }: { unit: JobMassUnit; resoluti
               Port settings for this PC (as set on the scale)
             </summary>
             <div className="mt-2 flex flex-wrap items-end gap-3">
-              <label>
-                <span className="mb-1 block">Baud rate</span>
-                <select
-                  className={selectClass}
-                  value={settings.baudRate}
+              {PORT_CHOICES.map((choice) => (
+                <PortSelect
+                  key={choice.key}
+                  choice={choice}
+                  settings={settings}
                   disabled={connected}
-                  onChange={(e) => change({ baudRate: Number(e.target.value) })}
-                >
-                  {BAUD_RATES.map((b) => (
-                    <option key={b} value={b}>
-                      {b}
-                    </option>
-                  ))}
-                </select>
-              </label>
-              <label>
-                <span className="mb-1 block">Data bits</span>
-                <select
-                  className={selectClass}
-                  value={settings.dataBits}
-                  disabled={connected}
-                  onChange={(e) => change({ dataBits: e.target.value === "7" ? 7 : 8 })}
-                >
-                  <option value={8}>8</option>
-                  <option value={7}>7</option>
-                </select>
-              </label>
-              <label>
-                <span className="mb-1 block">Parity</span>
-                <select
-                  className={selectClass}
-                  value={settings.parity}
-                  disabled={connected}
-                  onChange={(e) => change({ parity: e.target.value as ScaleSettings["parity"] })}
-                >
-                  <option value="none">none</option>
-                  <option value="even">even</option>
-                  <option value="odd">odd</option>
-                </select>
-              </label>
-              <label>
-                <span className="mb-1 block">Stop bits</span>
-                <select
-                  className={selectClass}
-                  value={settings.stopBits}
-                  disabled={connected}
-                  onChange={(e) => change({ stopBits: e.target.value === "2" ? 2 : 1 })}
-                >
-                  <option value={1}>1</option>
-                  <option value={2}>2</option>
-                </select>
-              </label>
-              <label>
-                <span className="mb-1 block">Handshake</span>
-                <select
-                  className={selectClass}
-                  value={settings.flowControl}
-                  disabled={connected}
-                  onChange={(e) =>
-                    change({ flowControl: e.target.value === "hardware" ? "hardware" : "none" })
-                  }
-                >
-                  <option value="none">none</option>
-                  <option value="hardware">hardware (RTS/CTS)</option>
-                </select>
-              </label>
+                  onChange={change}
+                />
+              ))}
               <label>
                 <span className="mb-1 block">Print command (optional)</span>
                 <input

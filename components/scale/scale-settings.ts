@@ -9,6 +9,11 @@ export type ScaleSettings = {
   printCommand: string;
   /** Press Enter for the machinist after a stable reading goes into the box. */
   autoAccept: boolean;
+  /**
+   * The USB ids of the port last opened here (what `SerialPort.getInfo()` gave), to find it among
+   * the ports this browser already has permission for; null before the first connection.
+   */
+  lastPort: { usbVendorId?: number; usbProductId?: number } | null;
 };
 
 export const BAUD_RATES = [1200, 2400, 4800, 9600, 19200, 38400, 57600, 115200] as const;
@@ -22,6 +27,7 @@ export const DEFAULT_SCALE_SETTINGS: ScaleSettings = {
   flowControl: "none",
   printCommand: "",
   autoAccept: false,
+  lastPort: null,
 };
 
 export const SCALE_SETTINGS_KEY = "counterpoise.scale-settings";
@@ -47,7 +53,46 @@ export function loadScaleSettings(storage: Pick<Storage, "getItem"> | undefined)
     printCommand:
       typeof saved.printCommand === "string" ? saved.printCommand.slice(0, 40) : d.printCommand,
     autoAccept: typeof saved.autoAccept === "boolean" ? saved.autoAccept : d.autoAccept,
+    lastPort: portIds(saved.lastPort),
   };
+}
+
+/** USB ids kept as whole numbers from 0 to 0xFFFF; anything else is forgotten. */
+function portIds(value: unknown): ScaleSettings["lastPort"] {
+  if (typeof value !== "object" || value === null) return null;
+  const id = (v: unknown) =>
+    typeof v === "number" && Number.isInteger(v) && v >= 0 && v <= 0xffff ? v : undefined;
+  const { usbVendorId, usbProductId } = value as Record<string, unknown>;
+  return { usbVendorId: id(usbVendorId), usbProductId: id(usbProductId) };
+}
+
+/**
+ * Of the ports this browser already has permission for, the one to reconnect: the one with the
+ * remembered USB ids, else the only one there is; null when there is none or no way to choose.
+ */
+export function rememberedPort<P extends { getInfo?: () => SerialPortInfo }>(
+  ports: readonly P[],
+  last: ScaleSettings["lastPort"],
+): P | null {
+  if (last && last.usbVendorId !== undefined) {
+    const same = ports.find((p) => {
+      const info = p.getInfo?.() ?? {};
+      return info.usbVendorId === last.usbVendorId && info.usbProductId === last.usbProductId;
+    });
+    if (same) return same;
+  }
+  return ports.length === 1 ? ports[0]! : null;
+}
+
+/** "4800 baud, 7 data bits, even parity, 1 stop bit": the settings as the scale's menu shows them. */
+export function describePortSettings(s: ScaleSettings): string {
+  return [
+    `${s.baudRate} baud`,
+    `${s.dataBits} data bits`,
+    `${s.parity} parity`,
+    `${s.stopBits} stop bit${s.stopBits === 1 ? "" : "s"}`,
+    ...(s.flowControl === "hardware" ? ["hardware handshake"] : []),
+  ].join(", ");
 }
 
 export function saveScaleSettings(

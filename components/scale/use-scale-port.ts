@@ -23,8 +23,9 @@ export function serialUnavailableReason(): string | null {
 }
 
 /**
- * A scale on a serial port: picked on a click, opened with the bench PC's settings, each line
- * read and handed to `onReading` with the time it arrived.
+ * A scale on a serial port: picked on a click (or, when this browser already has permission for
+ * it, opened again without the picker), opened with the bench PC's settings, each line read and
+ * handed to `onReading` with the time it arrived.
  */
 export function useScalePort(onReading: (reading: ScaleReading, at: number) => void) {
   const [state, setState] = useState<PortState>({ status: "checking" });
@@ -36,9 +37,32 @@ export function useScalePort(onReading: (reading: ScaleReading, at: number) => v
     handler.current = onReading;
   });
 
+  // Ports this browser already has permission for (picked on an earlier visit): they open again
+  // without the picker.
+  const [granted, setGranted] = useState<SerialPort[]>([]);
+
   useEffect(() => {
     const reason = serialUnavailableReason();
     setState(reason ? { status: "unavailable", reason } : { status: "idle" });
+    if (reason || !navigator.serial) return;
+    const serial = navigator.serial;
+    let live = true;
+    const refresh = () =>
+      void serial
+        .getPorts()
+        .then((ports) => {
+          if (live) setGranted(ports);
+        })
+        .catch(() => undefined);
+    refresh();
+    // A scale plugged in or out while the page is open.
+    serial.addEventListener?.("connect", refresh);
+    serial.addEventListener?.("disconnect", refresh);
+    return () => {
+      live = false;
+      serial.removeEventListener?.("connect", refresh);
+      serial.removeEventListener?.("disconnect", refresh);
+    };
   }, []);
 
   const readLoop = useCallback(async (open: SerialPort) => {
@@ -81,16 +105,21 @@ export function useScalePort(onReading: (reading: ScaleReading, at: number) => v
     }
   }, []);
 
+  /**
+   * Opens the scale's port with `settings`: `known`, a port this browser already has permission
+   * for, opens without the picker; otherwise the browser's picker asks which port. Resolves to
+   * the port opened, or null.
+   */
   const connect = useCallback(
-    async (settings: ScaleSettings) => {
-      if (!navigator.serial) return;
+    async (settings: ScaleSettings, known?: SerialPort | null): Promise<SerialPort | null> => {
+      if (!navigator.serial) return null;
       setState({ status: "connecting" });
       let picked: SerialPort;
       try {
-        picked = await navigator.serial.requestPort();
+        picked = known ?? (await navigator.serial.requestPort());
       } catch {
         setState({ status: "idle" }); // the machinist closed the picker
-        return;
+        return null;
       }
       try {
         await picked.open({
@@ -105,12 +134,14 @@ export function useScalePort(onReading: (reading: ScaleReading, at: number) => v
           status: "failed",
           message: `The port would not open${error instanceof Error && error.message ? ` (${error.message})` : ""}: is another program or tab using the scale?`,
         });
-        return;
+        return null;
       }
       closing.current = false;
       port.current = picked;
+      setGranted((ports) => (ports.includes(picked) ? ports : [...ports, picked]));
       setState({ status: "connected" });
       void readLoop(picked);
+      return picked;
     },
     [readLoop],
   );
@@ -152,5 +183,5 @@ export function useScalePort(onReading: (reading: ScaleReading, at: number) => v
     [],
   );
 
-  return { state, connect, disconnect, sendCommand };
+  return { state, granted, connect, disconnect, sendCommand };
 }

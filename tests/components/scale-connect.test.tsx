@@ -4,10 +4,10 @@ import userEvent from "@testing-library/user-event";
 import { type KeyboardEvent, useRef, useState } from "react";
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import { ConnectScale } from "@/components/scale/connect-scale";
-import { SCALE_SETTINGS_KEY } from "@/components/scale/scale-settings";
+import { rememberedPort, SCALE_SETTINGS_KEY } from "@/components/scale/scale-settings";
 
 /** A serial port whose bytes the test sends; what the page writes is kept. */
-function installFakeSerial() {
+function installFakeSerial(options: { granted?: boolean } = {}) {
   let feed!: ReadableStreamDefaultController<Uint8Array>;
   const written: number[][] = [];
   const port = {
@@ -23,8 +23,13 @@ function installFakeSerial() {
     }),
     open: vi.fn(async () => undefined),
     close: vi.fn(async () => undefined),
+    // An invented USB-serial adapter's ids.
+    getInfo: () => ({ usbVendorId: 0x1a2b, usbProductId: 0x0c0d }),
   };
-  const serial = { requestPort: vi.fn(async () => port), getPorts: vi.fn(async () => []) };
+  const serial = {
+    requestPort: vi.fn(async () => port),
+    getPorts: vi.fn(async () => (options.granted ? [port] : [])),
+  };
   Object.defineProperty(navigator, "serial", { value: serial, configurable: true });
   const encoder = new TextEncoder();
   return {
@@ -129,6 +134,40 @@ describe("Connect scale", () => {
     });
   });
 
+  it("reopens a port this browser already has permission for without the picker", async () => {
+    window.localStorage.setItem(
+      SCALE_SETTINGS_KEY,
+      JSON.stringify({ baudRate: 4800, dataBits: 7, parity: "even", stopBits: 1 }),
+    );
+    const fake = installFakeSerial({ granted: true });
+    render(<Bench />);
+    expect((await screen.findByTestId("scale-remembered")).textContent).toContain(
+      "4800 baud, 7 data bits, even parity, 1 stop bit",
+    );
+    expect(screen.queryByRole("button", { name: "Connect scale" })).toBeNull();
+    await userEvent.click(screen.getByRole("button", { name: "Reconnect scale (4800 baud)" }));
+    await waitFor(() => expect(fake.port.open).toHaveBeenCalled());
+    expect(fake.serial.requestPort).not.toHaveBeenCalled();
+    expect(fake.port.open).toHaveBeenCalledWith({
+      baudRate: 4800,
+      dataBits: 7,
+      parity: "even",
+      stopBits: 1,
+      flowControl: "none",
+    });
+    await screen.findByText(/Waiting for the scale/);
+  });
+
+  it("keeps the port picked on this PC, to find it again next time", async () => {
+    installFakeSerial();
+    render(<Bench />);
+    await userEvent.click(await screen.findByRole("button", { name: "Connect scale" }));
+    await screen.findByText(/Waiting for the scale/);
+    expect(JSON.parse(window.localStorage.getItem(SCALE_SETTINGS_KEY) ?? "{}")).toMatchObject({
+      lastPort: { usbVendorId: 0x1a2b, usbProductId: 0x0c0d },
+    });
+  });
+
   it("remembers a changed setting on this PC", async () => {
     installFakeSerial();
     render(<Bench />);
@@ -212,5 +251,24 @@ describe("Connect scale", () => {
       await screen.findByRole("button", { name: "Ask the scale for a reading" }),
     );
     await waitFor(() => expect(fake.written).toEqual([[0x50, 0x0d, 0x0a]]));
+  });
+});
+
+describe("which granted port is the scale", () => {
+  const port = (usbVendorId?: number, usbProductId?: number) => ({
+    getInfo: () => ({ usbVendorId, usbProductId }),
+  });
+
+  it("is the one with the remembered USB ids among several", () => {
+    const ports = [port(1, 2), port(0x1a2b, 0x0c0d), port(3, 4)];
+    expect(rememberedPort(ports, { usbVendorId: 0x1a2b, usbProductId: 0x0c0d })).toBe(ports[1]);
+  });
+
+  it("is the only one there is, and none when several could be it", () => {
+    const only = [port(5, 6)];
+    expect(rememberedPort(only, { usbVendorId: 0x1a2b, usbProductId: 0x0c0d })).toBe(only[0]);
+    expect(rememberedPort(only, null)).toBe(only[0]);
+    expect(rememberedPort([port(1, 2), port(3, 4)], null)).toBeNull();
+    expect(rememberedPort([], null)).toBeNull();
   });
 });

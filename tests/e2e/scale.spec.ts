@@ -1,68 +1,6 @@
-import { expect, type Page, test } from "@playwright/test";
+import { expect, test } from "@playwright/test";
 import { findJobPath, signInAs } from "./helpers";
-
-// Chromium has no serial port to emulate: the page gets a stand-in `navigator.serial` whose port
-// streams what the test feeds it, recorded lines of an invented status-prefixed scale.
-declare global {
-  interface Window {
-    __scale: {
-      feed: (text: string) => void;
-      opened: unknown[];
-      written: number[][];
-    };
-  }
-}
-
-async function fakeSerialPort(page: Page) {
-  await page.addInitScript(() => {
-    let controller: ReadableStreamDefaultController<Uint8Array> | null = null;
-    const state = {
-      opened: [] as unknown[],
-      written: [] as number[][],
-      feed: (text: string) => controller?.enqueue(new TextEncoder().encode(text)),
-    };
-    const port = {
-      readable: null as ReadableStream<Uint8Array> | null,
-      writable: null as WritableStream<Uint8Array> | null,
-      async open(options: unknown) {
-        state.opened.push(options);
-        port.readable = new ReadableStream<Uint8Array>({
-          start(c) {
-            controller = c;
-          },
-        });
-        port.writable = new WritableStream<Uint8Array>({
-          write(chunk) {
-            state.written.push([...chunk]);
-          },
-        });
-      },
-      async close() {
-        port.readable = null;
-        port.writable = null;
-      },
-      getInfo: () => ({}),
-    };
-    Object.defineProperty(window, "__scale", { value: state });
-    Object.defineProperty(navigator, "serial", {
-      configurable: true,
-      value: {
-        requestPort: async () => port,
-        getPorts: async () => [port],
-        addEventListener() {},
-        removeEventListener() {},
-      },
-    });
-  });
-}
-
-const feed = (page: Page, ...chunks: string[]) =>
-  page.evaluate(async (parts) => {
-    for (const part of parts) {
-      window.__scale.feed(part);
-      await new Promise((r) => setTimeout(r, 20));
-    }
-  }, chunks);
+import { fakeSerialPort, feedScale as feed } from "./support/fake-serial";
 
 test("the demo in-line four's pistons weighed from a scale on a serial port", async ({
   page,
@@ -77,6 +15,9 @@ test("the demo in-line four's pistons weighed from a scale on a serial port", as
 
   // Port settings as set on the scale, remembered on this PC; opened with them.
   const panel = page.getByTestId("connect-scale");
+  // No port picked on this browser yet: nothing to reconnect, the picker asks.
+  await expect(panel.getByRole("button", { name: "Connect scale" })).toBeVisible();
+  await expect(panel.getByTestId("scale-remembered")).toHaveCount(0);
   await panel.getByLabel("Baud rate").selectOption("4800");
   await panel.getByLabel("Parity").selectOption("even");
   await panel.getByLabel("Data bits").selectOption("7");
@@ -85,6 +26,7 @@ test("the demo in-line four's pistons weighed from a scale on a serial port", as
   expect(await page.evaluate(() => window.__scale.opened)).toEqual([
     { baudRate: 4800, dataBits: 7, parity: "even", stopBits: 1, flowControl: "none" },
   ]);
+  expect(await page.evaluate(() => window.__scale.picked)).toBe(1);
 
   const live = page.getByTestId("scale-live");
   const piston = (n: number) => page.getByLabel(`Cylinder ${n} Piston, g`);
@@ -135,4 +77,22 @@ test("the demo in-line four's pistons weighed from a scale on a serial port", as
   await expect(page.getByLabel("Cylinder 1 Wrist pin, g")).toHaveValue("100.2");
   // The port settings were kept on this PC.
   await expect(page.getByTestId("connect-scale").getByLabel("Baud rate")).toHaveValue("4800");
+
+  // The port the browser already has permission for opens again with one click, the same
+  // settings, and no picker.
+  const again = page.getByTestId("connect-scale");
+  await expect(again.getByTestId("scale-remembered")).toContainText(
+    "4800 baud, 7 data bits, even parity, 1 stop bit",
+  );
+  await expect(again.getByTestId("scale-remembered")).toContainText("does not connect on its own");
+  expect(await page.evaluate(() => window.__scale.opened)).toEqual([]);
+  await again.getByRole("button", { name: "Reconnect scale (4800 baud)" }).click();
+  await expect(again.getByText(/Waiting for the scale/)).toBeVisible();
+  expect(await page.evaluate(() => window.__scale.opened)).toEqual([
+    { baudRate: 4800, dataBits: 7, parity: "even", stopBits: 1, flowControl: "none" },
+  ]);
+  expect(await page.evaluate(() => window.__scale.picked)).toBe(0);
+  await page.getByLabel("Cylinder 2 Wrist pin, g").focus();
+  await feed(page, "S S     100.3 g\r\n");
+  await expect(page.getByLabel("Cylinder 2 Wrist pin, g")).toHaveValue("100.3");
 });
