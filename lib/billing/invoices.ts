@@ -28,6 +28,8 @@ import {
 } from "./document-lines";
 import { BillingInputError } from "./errors";
 import { compareMoney } from "./money";
+import { tellInvoiceIssued } from "@/lib/mail/events";
+import type { SendOptions } from "@/lib/mail/send";
 
 export type NewInvoiceInput =
   | { jobId: number; quoteId: number; lines?: undefined }
@@ -144,6 +146,21 @@ export async function issueInvoice(
       }),
     }),
   );
+}
+
+/**
+ * Issues a draft (see issueInvoice) and sends the customer the invoice's e-mail through the
+ * outbox (the owner's switch for "invoice-issued" respected; the invoice is issued either way).
+ */
+export async function issueInvoiceToCustomer(
+  db: DB,
+  id: number,
+  actorId: number | null,
+  options: { now?: Date; mail?: SendOptions } = {},
+): Promise<Invoice> {
+  const invoice = await issueInvoice(db, id, actorId, options.now);
+  await tellInvoiceIssued(db, invoice, actorId, options.mail); // never throws
+  return invoice;
 }
 
 /** Voids an issued invoice nothing has been paid on; it keeps its number. */

@@ -15,6 +15,8 @@ import {
   replaceDraftLines,
 } from "./document-lines";
 import { BillingInputError } from "./errors";
+import { tellQuoteOffered } from "@/lib/mail/events";
+import type { SendOptions } from "@/lib/mail/send";
 import { may } from "@/lib/auth/policy";
 
 /** Starts a quote for a job, priced from the list; one live (not withdrawn) quote per job. */
@@ -122,4 +124,20 @@ export async function moveQuote(
 export async function acceptQuoteAs(db: DB, id: number, user: User): Promise<Quote> {
   await findQuoteForUser(db, id, user);
   return moveQuote(db, id, "accept", user.id, { acceptFromDraft: may(user, "write-quotes") });
+}
+
+/**
+ * Offers a draft quote to the customer and tells them by e-mail, through the outbox (the owner's
+ * switch for "quote-offered" respected; a message that cannot go out waits there, and the offer
+ * stands either way).
+ */
+export async function offerQuote(
+  db: DB,
+  id: number,
+  actorId: number | null,
+  options: { now?: Date; mail?: SendOptions } = {},
+): Promise<Quote> {
+  const quote = await moveQuote(db, id, "offer", actorId, { now: options.now });
+  await tellQuoteOffered(db, quote, actorId, options.mail); // never throws
+  return quote;
 }

@@ -1,12 +1,11 @@
-import { tellInvoiceIssued } from "@/lib/mail/events";
 import { getDb } from "@/db/client";
 import { requireApiPermission } from "@/lib/auth/guard";
-import { issueInvoice } from "@/lib/billing/invoices";
+import { issueInvoiceToCustomer } from "@/lib/billing/invoices";
 import { json, parseId, route } from "@/lib/http/route";
 
+/** Numbers and issues a draft; the service e-mails the customer through the outbox. */
 export const POST = route<{ id: string }>(async (_req, { params }) => {
   const actor = await requireApiPermission("write-invoices");
-  const invoice = await issueInvoice(getDb(), parseId((await params).id), actor.id);
-  await tellInvoiceIssued(getDb(), invoice, actor.id); // through the outbox; never throws
-  return json({ invoice });
+  const id = parseId((await params).id);
+  return json({ invoice: await issueInvoiceToCustomer(getDb(), id, actor.id) });
 });

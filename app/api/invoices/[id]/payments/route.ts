@@ -1,8 +1,7 @@
-import { tellPaymentReceived } from "@/lib/mail/events";
 import { getDb } from "@/db/client";
 import { requireApiPermission } from "@/lib/auth/guard";
 import { listPaymentsForUser } from "@/lib/billing/access";
-import { recordManualPayment } from "@/lib/billing/payments";
+import { takeCounterPayment } from "@/lib/billing/counter-payments";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { manualPaymentSchema } from "@/lib/validation/billing";
 
@@ -18,7 +17,5 @@ export const POST = route<Params>(async (req, { params }) => {
   const actor = await requireApiPermission("record-payment");
   const id = parseId((await params).id);
   const input = await parseJson(req, manualPaymentSchema);
-  const recorded = await recordManualPayment(getDb(), id, input, actor.id);
-  await tellPaymentReceived(getDb(), id, input.amount, actor.id); // through the outbox; never throws
-  return json(recorded, 201);
+  return json(await takeCounterPayment(getDb(), id, input, actor.id), 201);
 });
