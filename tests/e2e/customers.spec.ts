@@ -49,8 +49,14 @@ test("edit a customer and merge a duplicate into it at phone width", async ({ pa
   await page.getByRole("button", { name: "Save details" }).click();
   await expect(page.getByTestId("action-message").first()).toContainText("Details saved.");
 
-  // Merge: asks for the tick first, then moves the duplicate's job here.
-  await page.getByLabel("Duplicate to merge in and remove").selectOption(String(dupId));
+  // Merge: the duplicate is found by typing and picked with the keyboard; asks for the tick
+  // first, then moves the duplicate's job here.
+  const pick = page.getByRole("combobox", { name: "Duplicate to merge in and remove" });
+  await pick.fill(`Tamsin Orly ${tag}`);
+  await expect(page.getByRole("option", { name: new RegExp(`no\\. ${dupId}\\)`) })).toBeVisible();
+  await pick.press("ArrowDown");
+  await pick.press("Enter");
+  await expect(page.getByTestId("merge-chosen")).toContainText(`Tamsin Orly ${tag}`);
   await page.getByRole("button", { name: "Merge customers" }).click();
   await expect(page.getByText("Tick the box to confirm the merge.").first()).toBeVisible();
   await page.getByLabel(/I have checked these are the same customer/).check();

@@ -5,7 +5,7 @@ import { EditCustomerForm } from "@/components/customers/edit-customer-form";
 import { MergeCustomerForm } from "@/components/customers/merge-customer-form";
 import { getDb } from "@/db/client";
 import { findCounterSettings } from "@/db/counter-settings";
-import { findCustomerById, listCustomerHistory, listCustomers } from "@/db/customers";
+import { findCustomerById, listCustomerHistory } from "@/db/customers";
 import { listJobs } from "@/db/jobs";
 import { requirePagePermission } from "@/lib/auth/guard";
 import { may } from "@/lib/auth/policy";
@@ -27,19 +27,12 @@ export default async function CustomerPage({
   const customer = await findCustomerById(db, customerId);
   if (!customer) notFound();
   const canEdit = may(user, "manage-customers");
-  const [{ jobs, total }, history, { timeZone }, others, { merged }] = await Promise.all([
+  const [{ jobs, total }, history, { timeZone }, { merged }] = await Promise.all([
     listJobs(db, { customerId, limit: 50 }),
     listCustomerHistory(db, customerId),
     findCounterSettings(db),
-    canEdit ? listCustomers(db, { limit: 500 }) : Promise.resolve({ customers: [], total: 0 }),
     searchParams,
   ]);
-  const candidates = others.customers
-    .filter((c) => c.id !== customerId)
-    .map((c) => ({
-      id: c.id,
-      label: [c.name, c.company, c.email].filter(Boolean).join(" · ") + ` (no. ${c.id})`,
-    }));
 
   return (
     <section className="space-y-4">
@@ -92,9 +85,7 @@ export default async function CustomerPage({
           </ul>
         )}
       </section>
-      {canEdit && candidates.length > 0 ? (
-        <MergeCustomerForm keepId={customer.id} keepName={customer.name} candidates={candidates} />
-      ) : null}
+      {canEdit ? <MergeCustomerForm keepId={customer.id} keepName={customer.name} /> : null}
       <CustomerHistory changes={history} timeZone={timeZone} />
     </section>
   );
