@@ -104,9 +104,6 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "GET /api/invoices/[id]/payments": can("read-invoice"),
   "POST /api/invoices/[id]/payments": can("record-payment"),
   "POST /api/invoices/[id]/checkout": can("pay-invoice"),
-  "GET /api/payments/unapplied": can("record-payment"),
-  "POST /api/payments/unapplied/[id]/apply": can("record-payment"),
-  "POST /api/payments/unapplied/[id]/refund": can("record-payment"),
   // Online payments that arrived with no invoice to apply them to: the desk reconciles them.
   "GET /api/payments/unapplied": can("record-payment"),
   "POST /api/payments/unapplied/[id]/apply": can("record-payment"),
