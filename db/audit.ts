@@ -52,9 +52,19 @@ export interface JobChange {
   after: unknown;
 }
 
-const JOB_PART_ENTITIES = ["part_weight", "part_target", "rotating_record"];
+const JOB_PART_ENTITIES = [
+  "part_weight",
+  "part_target",
+  "rotating_record",
+  "build_section",
+  "build_request",
+  "build_card",
+];
 
-/** Every change to the job and its weights, targets and records, newest first, with who made it. */
+/**
+ * Every change to the job and its weights, targets, records and build record, newest first, with
+ * who made it.
+ */
 export async function listJobChanges(
   db: Executor,
   jobId: number,

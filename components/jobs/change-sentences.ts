@@ -3,6 +3,7 @@ import type { JobChange } from "@/db/audit";
 import type { BroughtEntry, JobSpec } from "@/db/jobs";
 import type { PartKind } from "@/db/schema";
 import { findLayoutPreset, MATERIAL_DENSITIES, type MaterialId } from "@/lib/balance";
+import { describeBuildChange } from "@/lib/build-record/history";
 import { showDrillSize, showLength } from "@/lib/jobs/lengths";
 import { describePairingChange, type PistonMoveLike } from "@/lib/workshop/pairing-history";
 import { parseDrillMaterials } from "@/lib/workshop/plan";
@@ -289,6 +290,8 @@ function partLabel(subject: string | null): { name: string; phase: string } {
  * not shown). `unit` is the job's mass unit, which weights and targets are recorded in.
  */
 export function describeChange(change: JobChange, unit: "g" | "oz"): string[] {
+  const build = describeBuildChange(change);
+  if (build) return build;
   if (change.entity === "part_weight") {
     const { name, phase } = partLabel(change.subject);
     const was = readingsText(change.before, unit);

@@ -146,7 +146,9 @@ export async function seedBuildDemo(
   await db.transaction().execute(async (trx) => {
     for (const section of Object.keys(DEMO_BUILD_RECORD) as BuildSection[]) {
       const data = SECTION_SCHEMAS[section].parse(DEMO_BUILD_RECORD[section]);
-      await writeBuildSection(trx, { jobId: jobs.complete, section, data, baseVersion: 0 }, null);
+      const { lengthUnit, loadUnit } = DEMO_BUILD_RECORD.specs;
+      const write = { jobId: jobs.complete, section, data, baseVersion: 0 };
+      await writeBuildSection(trx, { ...write, units: { lengthUnit, loadUnit } }, null);
     }
   });
   const kept = await createBuildRequest(

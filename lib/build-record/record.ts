@@ -242,9 +242,16 @@ export async function saveSection(
     const record = { ...current.data, [section]: write.data } as BuildRecordData;
     if (section === "specs") checkUnitSwitch(current.data, record.specs);
     checkSection(job, record, section, current.settings);
+    const { lengthUnit, loadUnit } = current.data.specs;
     await writeBuildSection(
       trx,
-      { jobId: job.id, section, data: write.data, baseVersion: write.version },
+      {
+        jobId: job.id,
+        section,
+        data: write.data,
+        baseVersion: write.version,
+        units: { lengthUnit, loadUnit },
+      },
       actor.id,
     );
     return loadBuildRecord(trx, job, actor);
@@ -260,7 +267,14 @@ export async function saveSection(
  */
 export async function writeBuildSection(
   trx: Transaction<Database>,
-  write: { jobId: number; section: BuildSectionName; data: unknown; baseVersion: number },
+  write: {
+    jobId: number;
+    section: BuildSectionName;
+    data: unknown;
+    baseVersion: number;
+    /** The record's units as the figures were typed, kept in the audit entry for the history. */
+    units?: { lengthUnit: "in" | "mm"; loadUnit: "lb" | "N" };
+  },
   actorId: number | null,
   now = new Date(),
 ): Promise<{ version: number; updatedAt: string }> {
@@ -282,7 +296,7 @@ export async function writeBuildSection(
     entity: "build_section",
     entityId: `${write.jobId}:${write.section}`,
     before: before ? before.data : null,
-    after: write.data,
+    after: write.section === "specs" ? write.data : { ...(write.data as object), ...write.units },
   });
   return { version, updatedAt: at };
 }
