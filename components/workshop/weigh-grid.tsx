@@ -62,6 +62,8 @@ const queueId = (phase: WeighPhase, name: string) => `${phase}:${name}`;
 export const queueStorageKey = (jobId: number, phase: WeighPhase) =>
   `counterpoise:weigh-queue:${jobId}:${phase}`;
 const PHASES: WeighPhase[] = ["initial", "final"];
+/** Marks the extra history entry that makes the browser's Back ask first (see WeighGrid). */
+const BACK_GUARD = "counterpoiseWeighBackGuard";
 
 function readQueue(jobId: number): Record<string, QueuedSave> {
   const queue: Record<string, QueuedSave> = {};
@@ -185,6 +187,14 @@ export function WeighGrid({
   const retryTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
   const draining = useRef(false);
   const [nextTry, setNextTry] = useState<number | null>(null);
+  // Back asks while weights are unsaved: the extra history entry is in place; the machinist said leave.
+  const backGuard = useRef(false);
+  const leaving = useRef(false);
+  function pushBackGuard() {
+    const state = (window.history.state as Record<string, unknown> | null) ?? {};
+    window.history.pushState({ ...state, [BACK_GUARD]: true }, "", window.location.href);
+    backGuard.current = true;
+  }
   const unit = workshop.job.spec.massUnit;
   // What a keyboard-wedge scale types ("+ 498.6 g") is read too, in the job's unit.
   const readingRule = useMemo(() => readingsTextSchemaFor(unit), [unit]);
@@ -555,29 +565,49 @@ export function WeighGrid({
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, []);
 
-  // Leaving with weights not saved asks first: a reload or closing the tab (beforeunload) and
-  // links inside the app (they do not unload the page). What was typed is kept on this PC.
+  /** Typed cells not sent yet go on the queue: kept on this PC, sent with the others. */
+  function keepDirtyOnThisPc() {
+    const dirty = dirtyNames();
+    for (const name of dirty) {
+      const parsed = readingRule.safeParse(form.getValues(name) ?? "");
+      if (!parsed.success) continue;
+      const [, c, kind] = /^c(\d+)_(.+)$/.exec(name) ?? [];
+      enqueue({
+        name,
+        phase: phaseRef.current,
+        cylinder: Number(c),
+        kind: kind as PartKind,
+        readings: parsed.data,
+        version: saved.current[name]?.version ?? 0,
+      });
+    }
+    return dirty.length;
+  }
+  /** Weights not saved yet: queued, or typed and not sent. */
+  const unsavedCount = () => Object.keys(queueRef.current).length + dirtyNames().length;
+  const leaveQuestion = (count: number) =>
+    `${count} weight${count === 1 ? " is" : "s are"} not saved yet. ` +
+    "They are kept on this PC and sent when the weigh-in is open again. Leave the weigh-in?";
+
+  // Leaving with weights not saved asks first: a reload or closing the tab (beforeunload), links
+  // inside the app (they do not unload the page) and the browser's Back. For Back, an extra
+  // history entry for this same page is pushed once something is unsaved: Back then lands on
+  // this page's own entry (popstate, seen here before the router), the question is asked, and
+  // either the entry is put back (stay) or the grid steps back once more for the machinist.
   useEffect(() => {
     if (!canEdit) return;
+    if (!backGuard.current) {
+      if ((window.history.state as Record<string, unknown> | null)?.[BACK_GUARD])
+        backGuard.current = true;
+      else if (unsavedCount() > 0) pushBackGuard();
+    }
     const beforeUnload = (event: BeforeUnloadEvent) => {
-      const dirty = dirtyNames();
-      for (const name of dirty) {
-        const parsed = readingRule.safeParse(form.getValues(name) ?? "");
-        if (!parsed.success) continue;
-        const [, c, kind] = /^c(\d+)_(.+)$/.exec(name) ?? [];
-        enqueue({
-          name,
-          phase: phaseRef.current,
-          cylinder: Number(c),
-          kind: kind as PartKind,
-          readings: parsed.data,
-          version: saved.current[name]?.version ?? 0,
-        });
-      }
+      const dirty = keepDirtyOnThisPc();
       // Kept now; if the machinist stays, they are sent like any other queued save.
-      if (dirty.length > 0) scheduleRetry();
+      if (dirty > 0) scheduleRetry();
+      if (leaving.current) return; // already asked on Back
       const waiting =
-        Object.keys(queueRef.current).length + Object.keys(inflight.current).length + dirty.length;
+        Object.keys(queueRef.current).length + Object.keys(inflight.current).length + dirty;
       if (waiting === 0) return;
       event.preventDefault();
       // Older browsers ask only when returnValue is set.
@@ -589,21 +619,37 @@ export function WeighGrid({
       const link = (event.target as Element | null)?.closest?.("a[href]");
       if (!(link instanceof HTMLAnchorElement)) return;
       if (link.target === "_blank" || link.hasAttribute("download")) return;
-      const count = Object.keys(queueRef.current).length + dirtyNames().length;
+      const count = unsavedCount();
       if (count === 0) return;
-      const ok = window.confirm(
-        `${count} weight${count === 1 ? " is" : "s are"} not saved yet (the server could not be reached). ` +
-          "They are kept on this PC and sent when the weigh-in is open again. Leave the weigh-in?",
-      );
-      if (ok) return;
+      if (window.confirm(leaveQuestion(count))) return;
       event.preventDefault();
       event.stopPropagation();
     };
+    const onPopState = (event: PopStateEvent) => {
+      if (!backGuard.current || leaving.current) return;
+      // Forward onto the extra entry: nothing to ask.
+      if ((event.state as Record<string, unknown> | null)?.[BACK_GUARD]) return;
+      // Back from the extra entry to this page's own: the router need not move.
+      event.stopImmediatePropagation();
+      backGuard.current = false;
+      const count = unsavedCount();
+      if (count > 0 && !window.confirm(leaveQuestion(count))) {
+        pushBackGuard();
+        return;
+      }
+      if (keepDirtyOnThisPc() > 0) void drain();
+      leaving.current = true;
+      window.setTimeout(() => (leaving.current = false), 2000);
+      window.history.back();
+    };
     window.addEventListener("beforeunload", beforeUnload);
     window.addEventListener("click", onClick, true);
+    // Capture: called before the router's own popstate listener on the window.
+    window.addEventListener("popstate", onPopState, true);
     return () => {
       window.removeEventListener("beforeunload", beforeUnload);
       window.removeEventListener("click", onClick, true);
+      window.removeEventListener("popstate", onPopState, true);
     };
   });
 

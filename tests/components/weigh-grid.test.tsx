@@ -525,6 +525,35 @@ describe("leaving with weights not saved", () => {
     await user.click(link);
     expect(followed).toHaveBeenCalledTimes(1);
   });
+
+  it("asks on the browser's Back while saves are queued, and stays when told to", async () => {
+    answer = (call) => {
+      if (call.method === "PUT") throw new TypeError("Failed to fetch");
+      return { status: 200, body: {} };
+    };
+    const confirm = vi.fn(() => false);
+    vi.stubGlobal("confirm", confirm);
+    const user = renderGrid();
+    const entries = window.history.length;
+    await user.click(cell(1, "Piston"));
+    await user.keyboard("498.6{Enter}");
+    await screen.findByTestId("unsaved-weights");
+    // Something unsaved: an extra entry for this same page stands in front of Back.
+    await waitFor(() => expect(window.history.length).toBe(entries + 1));
+    const address = window.location.href;
+    // The router's own listener must not see the Back it asked about.
+    const router = vi.fn();
+    window.addEventListener("popstate", router);
+    window.history.back();
+    await waitFor(() =>
+      expect(confirm).toHaveBeenCalledWith(expect.stringContaining("1 weight is not saved yet")),
+    );
+    expect(router).not.toHaveBeenCalled();
+    expect(window.location.href).toBe(address);
+    // Stayed: the extra entry is back, so the next Back asks again.
+    expect(window.history.state).toMatchObject({ counterpoiseWeighBackGuard: true });
+    window.removeEventListener("popstate", router);
+  });
 });
 
 describe("the readings box", () => {

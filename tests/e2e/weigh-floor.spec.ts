@@ -3,7 +3,8 @@ import { signInAs } from "./helpers";
 
 // The weigh-in on the shop floor, on an invented in-line four (g): the cursor starts in the
 // grid, the shop Wi-Fi drops (the weights API cut off in the browser), weights typed meanwhile
-// are kept on this PC through a reload and a refused link, and go to the server once it answers.
+// are kept on this PC through a reload, a refused link and a refused Back, and go to the server
+// once it answers.
 
 async function bookFour(page: Page): Promise<number> {
   return page.evaluate(
@@ -72,8 +73,25 @@ test("weights typed while the server is cut off are kept, survive a reload, and 
   await expect(page.getByTestId("weigh-grid")).toBeVisible();
   expect(new URL(page.url()).pathname).toBe(`/jobs/${jobId}/weigh`);
 
+  // The browser's Back asks too; saying no stays on the weigh-in with the weights as typed.
+  const backAsked = new Promise<string>((resolve) =>
+    page.once("dialog", (dialog) => {
+      resolve(dialog.message());
+      void dialog.dismiss();
+    }),
+  );
+  await page.evaluate(() => window.history.back());
+  expect(await backAsked).toContain("2 weights are not saved yet");
+  await expect(page.getByTestId("weigh-grid")).toBeVisible();
+  expect(new URL(page.url()).pathname).toBe(`/jobs/${jobId}/weigh`);
+  await expect(page.getByLabel("Cylinder 2 Piston, g")).toHaveValue("401.2");
+
   // A reload (the page asks; the test says leave): the typed weights come back from this PC.
-  page.on("dialog", (dialog) => void dialog.accept());
+  const asked: string[] = [];
+  page.on("dialog", (dialog) => {
+    asked.push(dialog.type());
+    void dialog.accept();
+  });
   await page.reload();
   await expect(page.getByTestId("weigh-grid")).toHaveAttribute("data-ready", "true");
   await expect(page.getByLabel("Cylinder 1 Piston, g")).toHaveValue("400.0");
@@ -92,6 +110,12 @@ test("weights typed while the server is cut off are kept, survive a reload, and 
       jobId,
     ),
   ).toBeNull();
+
+  // Everything saved: Back leaves the weigh-in without asking.
+  const before = asked.length;
+  await page.evaluate(() => window.history.back());
+  await expect(page).not.toHaveURL(new RegExp(`/jobs/${jobId}/weigh$`));
+  expect(asked.length).toBe(before);
 });
 
 test("the readings box fits repeated readings, and a phone shows one card per cylinder", async ({
