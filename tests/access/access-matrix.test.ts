@@ -16,7 +16,7 @@ import {
   ownershipOf,
   ROUTE_RULES,
 } from "./rules";
-import { ROOT } from "./discover";
+import { discoverRouteMethods, ROOT } from "./discover";
 import { callAs, seedShop, type Shop, totalChanges } from "./world";
 
 // next-auth's own route reads cookies and headers through next/headers, which only answer inside
@@ -63,6 +63,14 @@ describe("the access rules", () => {
   it("have a rule for every method of every route handler under app/", () => {
     const missing = endpoints.map((e) => e.key).filter((key) => !(key in ROUTE_RULES));
     expect(missing, "add these to tests/access/rules.ts").toEqual([]);
+  });
+
+  it("are found from the files' text alone as well as by loading them (for the HTTP suites)", () => {
+    expect(
+      discoverRouteMethods()
+        .map((m) => m.key)
+        .sort(),
+    ).toEqual(endpoints.map((e) => e.key).sort());
   });
 
   it("name no route or method that is gone", () => {

@@ -63,6 +63,44 @@ function patternOf(file: string): string {
   return `/${segments.join("/")}`;
 }
 
+/** One method of a route handler file, found from its source text alone (nothing imported). */
+export interface RouteMethod {
+  key: string;
+  method: HttpMethod;
+  pattern: string;
+  file: string;
+}
+
+/**
+ * The route methods from the files' text, for a process that cannot load the app's modules (a
+ * suite against a running server): `export const GET =`, `export async function GET`,
+ * `export { handler as GET }`. access-matrix.test.ts checks it finds what importing finds.
+ */
+export function discoverRouteMethods(): RouteMethod[] {
+  const found: RouteMethod[] = [];
+  for (const file of filesUnder(APP).filter((f) => /[/\\]route\.(ts|tsx|js)$/.test(f))) {
+    const source = readFileSync(file, "utf8");
+    const exported = new Set<string>();
+    for (const m of source.matchAll(
+      /export\s+(?:const\s+([A-Z]+)\s*=|(?:async\s+)?function\s+([A-Z]+)\b)/g,
+    ))
+      exported.add((m[1] ?? m[2])!);
+    for (const m of source.matchAll(/export\s*\{([^}]*)\}/g))
+      for (const name of m[1]!.split(","))
+        exported.add(
+          name
+            .trim()
+            .split(/\s+as\s+/)
+            .pop()!
+            .trim(),
+        );
+    const pattern = patternOf(file);
+    for (const method of HTTP_METHODS.filter((m) => exported.has(m)))
+      found.push({ key: `${method} ${pattern}`, method, pattern, file: relative(file) });
+  }
+  return found;
+}
+
 export async function discoverRoutes(): Promise<DiscoveredRoute[]> {
   const routes: DiscoveredRoute[] = [];
   for (const file of filesUnder(APP).filter((f) => /[/\\]route\.(ts|tsx|js)$/.test(f))) {

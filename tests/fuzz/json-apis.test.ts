@@ -13,7 +13,7 @@ import {
   paramNames,
   ROOT,
 } from "../access/discover";
-import { type Caller, ROUTE_RULES } from "../access/rules";
+import { allowedRoles, type Caller, ROUTE_RULES } from "../access/rules";
 import {
   callAs,
   paramsFor,
@@ -115,7 +115,7 @@ function callerFor(e: DiscoveredEndpoint): Caller | null {
   if (rule.public) return "anonymous";
   return (
     (["owner", "machinist", "counter", "customer"] as const).find((r) =>
-      rule.allowed.includes(r),
+      allowedRoles(rule).includes(r),
     ) ?? null
   );
 }
