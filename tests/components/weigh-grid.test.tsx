@@ -533,6 +533,8 @@ describe("leaving with weights not saved", () => {
     };
     const confirm = vi.fn(() => false);
     vi.stubGlobal("confirm", confirm);
+    // A fresh entry: earlier tests in this window may have left the extra one.
+    window.history.pushState(null, "", "/jobs/7/weigh");
     const user = renderGrid();
     const entries = window.history.length;
     await user.click(cell(1, "Piston"));
