@@ -503,13 +503,19 @@ describe("leaving with weights not saved", () => {
     ]);
   });
 
-  it("asks before following a link in the app while saves are queued", async () => {
+  /** The network drops every save; the machinist answers "stay" (false) to the question. */
+  const cutOffAndStay = () => {
     answer = (call) => {
       if (call.method === "PUT") throw new TypeError("Failed to fetch");
       return { status: 200, body: {} };
     };
     const confirm = vi.fn(() => false);
     vi.stubGlobal("confirm", confirm);
+    return confirm;
+  };
+
+  it("asks before following a link in the app while saves are queued", async () => {
+    const confirm = cutOffAndStay();
     const user = renderGrid();
     await user.click(cell(1, "Piston"));
     await user.keyboard("498.6{Enter}");
@@ -527,12 +533,7 @@ describe("leaving with weights not saved", () => {
   });
 
   it("asks on the browser's Back while saves are queued, and stays when told to", async () => {
-    answer = (call) => {
-      if (call.method === "PUT") throw new TypeError("Failed to fetch");
-      return { status: 200, body: {} };
-    };
-    const confirm = vi.fn(() => false);
-    vi.stubGlobal("confirm", confirm);
+    const confirm = cutOffAndStay();
     // A fresh entry: earlier tests in this window may have left the extra one.
     window.history.pushState(null, "", "/jobs/7/weigh");
     const user = renderGrid();
