@@ -1,0 +1,175 @@
+// @vitest-environment jsdom
+import { cleanup, render, screen, waitFor, within } from "@testing-library/react";
+import userEvent from "@testing-library/user-event";
+import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { BuildRecordScreen } from "@/components/build/build-record-screen";
+import { evaluateBuildRecord } from "@/lib/build-record/evaluate";
+import type { BuildRecordView } from "@/lib/build-record/record";
+import {
+  BUILD_SECTIONS,
+  type BuildRecordData,
+  type BuildSection,
+  emptySection,
+} from "@/lib/build-record/schemas";
+import { EMPTY_BUILD_SETTINGS } from "@/lib/build-record/settings-schema";
+
+// The build record screen typed by keyboard: Enter moves on at once, leaving a box saves its
+// section with the version it was based on, figures are worked out as typed.
+
+type Call = { method: string; url: string; body: { version: number; data: unknown } | null };
+let calls: Call[];
+let answer: (call: Call) => { status: number; body: unknown };
+
+function viewOf(data: BuildRecordData, version = 0): BuildRecordView {
+  const versions = Object.fromEntries(
+    BUILD_SECTIONS.map((s) => [s, { version, updatedBy: null, updatedAt: null }]),
+  ) as BuildRecordView["versions"];
+  return {
+    jobId: 7,
+    data,
+    versions,
+    settings: EMPTY_BUILD_SETTINGS,
+    results: evaluateBuildRecord(data, EMPTY_BUILD_SETTINGS),
+  };
+}
+
+const emptyRecord = (): BuildRecordData =>
+  Object.fromEntries(BUILD_SECTIONS.map((s) => [s, emptySection(s, "in")])) as BuildRecordData;
+
+/** The server's answer to a save: the record with that section one version on. */
+function saved(section: BuildSection, data: unknown): { status: number; body: unknown } {
+  const record = viewOf({ ...emptyRecord(), [section]: data } as BuildRecordData);
+  record.versions[section] = { version: 1, updatedBy: "Machinist", updatedAt: "now" };
+  return { status: 200, body: { record } };
+}
+
+beforeEach(() => {
+  calls = [];
+  answer = (call) => saved(call.url.split("/").at(-1) as BuildSection, call.body?.data);
+  vi.stubGlobal("fetch", async (url: string, init: RequestInit = {}) => {
+    const call = {
+      method: init.method ?? "GET",
+      url,
+      body: init.body === undefined ? null : JSON.parse(String(init.body)),
+    };
+    calls.push(call);
+    const { status, body } = answer(call);
+    return new Response(JSON.stringify(body), {
+      status,
+      headers: { "content-type": "application/json" },
+    });
+  });
+});
+afterEach(() => {
+  cleanup();
+  vi.unstubAllGlobals();
+});
+
+function renderScreen(data = emptyRecord(), readOnly = false) {
+  render(
+    <BuildRecordScreen initial={viewOf(data)} cylinders={4} readOnly={readOnly} jobBore={null} />,
+  );
+  return userEvent.setup();
+}
+
+describe("the build record screen", () => {
+  it("shows every section, each with its figures, for a four-cylinder engine", () => {
+    renderScreen();
+    expect(screen.getAllByRole("heading", { level: 2 }).map((h) => h.textContent)).toEqual([
+      "The engine's own figures",
+      "Ring gaps",
+      "True TDC (piston stop)",
+      "Cam checks (intake centreline, equal lift)",
+      "Valve springs",
+      "Bearing clearances",
+      "Deck clearance and compression ratio",
+    ]);
+    const cells = (section: BuildSection) =>
+      document.querySelectorAll(`[data-section="${section}"] input[data-cell]`).length;
+    // Specs: bore, stroke, 3 ring factors, 5 cam card angles, 6 spring figures, 4 clearance
+    // limits, 4 compression figures = 24. Rings: 4 cylinders × 3 rings. TDC: 2 stops. Cam: the
+    // lift (no checks yet). Springs: 4 × 2 valves × 3. Clearances: (5 mains + 4 rods) × 8
+    // readings. Deck: 4 × 2.
+    expect(BUILD_SECTIONS.map(cells)).toEqual([24, 12, 2, 1, 24, 72, 8]);
+  });
+
+  it("moves on with Enter at once and saves the section on leaving it, with its version", async () => {
+    const user = renderScreen();
+    await user.click(screen.getByLabelText("Finished bore", { exact: true }));
+    await user.keyboard("4.030{Enter}");
+    expect(document.activeElement).toBe(screen.getByLabelText("Stroke", { exact: true }));
+    await user.keyboard("3.480{Enter}");
+    await waitFor(() => expect(calls.length).toBeGreaterThanOrEqual(1));
+    expect(calls[0]).toMatchObject({
+      method: "PUT",
+      url: "/api/jobs/7/build/specs",
+      body: { version: 0, data: { bore: "4.030", lengthUnit: "in" } },
+    });
+    await waitFor(() => expect(screen.getByTestId("save-specs").textContent).toContain("Saved"));
+    // Shift+Enter goes back.
+    await user.keyboard("{Shift>}{Enter}{/Shift}");
+    expect(document.activeElement).toBe(screen.getByLabelText("Stroke", { exact: true }));
+  });
+
+  it("works out what is left to file on a ring as typed (factor × bore, common practice)", async () => {
+    const data = emptyRecord();
+    data.specs = {
+      ...data.specs,
+      bore: "4.030",
+      ringFactors: { top: "0.0045", second: null, oil: null },
+    };
+    const user = renderScreen(data);
+    // 0.0045 × 4.030 = 0.018135 in to file to; 0.018135 − 0.015 = 0.003135, shown to 0.0001 in.
+    const row = screen.getByTestId("ring-1-top");
+    expect(within(row).getByText("0.0181")).toBeTruthy();
+    await user.click(screen.getByLabelText("Cylinder 1 Top ring gap"));
+    await user.keyboard("0.015{Enter}");
+    expect(document.activeElement).toBe(screen.getByLabelText("Cylinder 1 Second ring gap"));
+    expect(screen.getByTestId("ring-status-1-top").textContent).toContain("File 0.0031");
+    expect(
+      (screen.getByRole("checkbox", { name: "Cylinder 1 Top ring done" }) as HTMLInputElement)
+        .disabled,
+    ).toBe(true);
+    await waitFor(() => expect(calls.some((c) => c.url.endsWith("/rings"))).toBe(true));
+    expect(calls.find((c) => c.url.endsWith("/rings"))!.body).toEqual({
+      version: 0,
+      data: { rows: [{ cylinder: 1, ring: "top", readings: ["0.015"], done: false }] },
+    });
+  });
+
+  it("works out true TDC from the two stops: (−18 + 22) / 2 = 2° ATDC, each stop 20°", async () => {
+    const user = renderScreen();
+    await user.click(screen.getByLabelText("First stop reading", { exact: true }));
+    await user.keyboard("-18{Enter}22{Enter}");
+    expect(screen.getByTestId("tdc-result").textContent).toContain(
+      "At true TDC the wheel reads 2° ATDC: move the pointer so it reads 0 there; each stop then reads 20°.",
+    );
+  });
+
+  it("keeps a new spring row only while a figure is in it, and adds a cam check row", async () => {
+    const user = renderScreen();
+    await user.click(screen.getByLabelText("Cylinder 2 exhaust shim"));
+    await user.keyboard("0.030{Enter}");
+    await waitFor(() => expect(calls.some((c) => c.url.endsWith("/springs"))).toBe(true));
+    expect(calls.find((c) => c.url.endsWith("/springs"))!.body!.data).toEqual({
+      rows: [
+        { cylinder: 2, valve: "exhaust", installedHeight: null, shim: "0.030", seatLoad: null },
+      ],
+    });
+    await user.click(screen.getByRole("button", { name: "Add a check" }));
+    expect(screen.getByTestId("cam-check-1")).toBeTruthy();
+  });
+
+  it("read only: nothing can be typed and nothing is saved", async () => {
+    const user = renderScreen(emptyRecord(), true);
+    expect(
+      screen.getByText(/Read only: the machinist and the owner keep this record/),
+    ).toBeTruthy();
+    const cells = document.querySelectorAll<HTMLInputElement>("input[data-cell]");
+    expect([...cells].every((c) => c.readOnly)).toBe(true);
+    expect(screen.queryByRole("button", { name: "Add a check" })).toBeNull();
+    await user.click(screen.getByLabelText("Finished bore", { exact: true }));
+    await user.keyboard("4{Tab}");
+    expect(calls).toEqual([]);
+  });
+});
