@@ -300,6 +300,11 @@ export const API_PATHS: ZodOpenApiPathsObject = {
     post: op("Record a payment by hand", manualPaymentSchema),
   },
   "/api/invoices/{id}/pdf": { get: file("The invoice as PDF", "application/pdf") },
+  "/api/jobs/{id}/billing": {
+    get: op(
+      "The job's quotes and invoices as you may see them, each with what you may do to it, and the prices for new lines",
+    ),
+  },
   "/api/invoices/{id}/checkout": {
     post: op("Start paying online: answers the hosted payment page's address"),
   },
@@ -312,7 +317,10 @@ export const API_PATHS: ZodOpenApiPathsObject = {
     ),
   },
   "/api/payments/unapplied/{id}/apply": {
-    post: op("Apply a payment kept to reconcile to its invoice, where it fits", applyUnappliedSchema),
+    post: op(
+      "Apply a payment kept to reconcile to its invoice, where it fits",
+      applyUnappliedSchema,
+    ),
   },
   "/api/payments/unapplied/{id}/refund": {
     post: op("Mark a payment kept to reconcile as refunded, with a note", refundUnappliedSchema),
@@ -398,6 +406,49 @@ export const API_PATHS: ZodOpenApiPathsObject = {
   },
 };
 
+const STATE_CHANGING = ["post", "put", "patch", "delete"] as const;
+
+/**
+ * What the request guard in front of every state-changing route (lib/http/route.ts) answers
+ * before the handler runs, in the one error shape: another site (403 `cross_site`), a body over
+ * the route's limit (413 `too_large`), a body of a media type the route does not take (415
+ * `unsupported_media_type`).
+ */
+const edgeRefusals = {
+  "403": {
+    description:
+      "This role may not do this (`forbidden`), or the request came from another site (`cross_site`)",
+    content: { "application/json": { schema: errorBody } },
+  },
+  "413": {
+    description: "The body is larger than this route takes (`too_large`)",
+    content: { "application/json": { schema: errorBody } },
+  },
+  "415": {
+    description: "The body is not of the media type this route takes (`unsupported_media_type`)",
+    content: { "application/json": { schema: errorBody } },
+  },
+};
+
+/** Every state-changing operation lists the request guard's refusals beside its own answers. */
+function withEdgeRefusals(paths: ZodOpenApiPathsObject): ZodOpenApiPathsObject {
+  return Object.fromEntries(
+    Object.entries(paths).map(([url, item]) => {
+      const copy = { ...item };
+      for (const method of STATE_CHANGING) {
+        const operation = copy[method];
+        if (operation) {
+          copy[method] = {
+            ...operation,
+            responses: { ...operation.responses, ...edgeRefusals },
+          };
+        }
+      }
+      return [url, copy];
+    }),
+  );
+}
+
 export function buildOpenApiDocument(extraPaths: ZodOpenApiPathsObject = {}) {
   return createDocument({
     openapi: "3.1.0",
@@ -413,6 +464,6 @@ export function buildOpenApiDocument(extraPaths: ZodOpenApiPathsObject = {}) {
       },
     },
     security: [{ session: [] }],
-    paths: { ...API_PATHS, ...extraPaths },
+    paths: withEdgeRefusals({ ...API_PATHS, ...extraPaths }),
   });
 }

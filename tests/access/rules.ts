@@ -86,6 +86,7 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "GET /api/jobs/[id]/cards/status": can("read-bench"),
 
   // Quotes and invoices: the desk writes them; the customer reads, accepts and pays their own.
+  "GET /api/jobs/[id]/billing": can("read-billing"),
   "GET /api/quotes": can("list-quotes"),
   "POST /api/quotes": can("write-quotes"),
   "GET /api/quotes/[id]": can("read-quote"),

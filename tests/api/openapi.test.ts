@@ -43,3 +43,38 @@ describe("the API description covers the code", () => {
     expect(missing).toEqual([]);
   });
 });
+
+describe("the request guard's refusals", () => {
+  it("are listed on every state-changing route: 403, 413 and 415 in the one error shape", async () => {
+    const doc = await (await GET()).json();
+    const errorRef =
+      doc.paths["/api/users"].post.responses["401"].content["application/json"].schema;
+    const missing: string[] = [];
+    let changing = 0;
+    for (const [url, item] of Object.entries(doc.paths as Record<string, Record<string, any>>)) {
+      for (const method of ["post", "put", "patch", "delete"]) {
+        const responses = item[method]?.responses;
+        if (!responses) continue;
+        changing++;
+        for (const status of ["403", "413", "415"]) {
+          const schema = responses[status]?.content?.["application/json"]?.schema;
+          if (JSON.stringify(schema) !== JSON.stringify(errorRef))
+            missing.push(`${method.toUpperCase()} ${url} ${status}`);
+        }
+      }
+    }
+    expect(changing).toBeGreaterThan(50);
+    expect(missing).toEqual([]);
+    // The guard's codes are named where a reader looks for them.
+    const upload = doc.paths["/api/jobs/{id}/uploads"].post.responses;
+    expect(upload["403"].description).toContain("cross_site");
+    expect(upload["413"].description).toContain("too_large");
+    expect(upload["415"].description).toContain("unsupported_media_type");
+  });
+
+  it("are not claimed for reads, which the guard lets through whatever their origin", async () => {
+    const doc = await (await GET()).json();
+    expect(doc.paths["/api/jobs"].get.responses["413"]).toBeUndefined();
+    expect(doc.paths["/api/jobs"].get.responses["415"]).toBeUndefined();
+  });
+});
