@@ -3,6 +3,7 @@ import { beforeEach, describe, expect, it } from "vitest";
 import CustomerPage from "@/app/(shop)/customers/[id]/page";
 import { mergeCustomerAction, updateCustomerAction } from "@/app/(shop)/customers/actions";
 import CustomersPage from "@/app/(shop)/customers/page";
+import { Providers } from "@/components/providers";
 import type { DB } from "@/db/client";
 import { updateCounterSettings } from "@/lib/settings/counter-settings";
 import { type Customer, findCustomerById } from "@/db/customers";
@@ -30,7 +31,7 @@ async function render(id: number, search: Record<string, string> = {}) {
     params: Promise.resolve({ id: String(id) }),
     searchParams: Promise.resolve(search),
   });
-  return renderToStaticMarkup(element);
+  return renderToStaticMarkup(<Providers>{element}</Providers>);
 }
 
 describe("the customer page", () => {
@@ -79,7 +80,8 @@ describe("the customer page", () => {
 describe("the customers list", () => {
   it("links each customer to their page, both as table rows and as phone-width cards", async () => {
     const element = await CustomersPage({ searchParams: Promise.resolve({}) });
-    const html = renderToStaticMarkup(element);
+    // Inside the app's providers, as the shop layout renders it (the invite button is a mutation).
+    const html = renderToStaticMarkup(<Providers>{element}</Providers>);
     expect(html).toContain('data-testid="customer-cards"');
     expect(html.split(`href="/customers/${kept.id}"`).length - 1).toBe(2);
   });
