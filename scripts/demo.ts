@@ -8,6 +8,9 @@ import { startFakeSmtp } from "./fake-smtp";
 
 const root = path.resolve(import.meta.dirname, "..");
 const port = process.env.PORT ?? "3000";
+// The local stand-ins' ports; move them (and PORT) to run a second demo beside another one.
+const smtpPort = Number(process.env.FAKE_SMTP_PORT ?? 2525);
+const paymentsPort = Number(process.env.FAKE_PAYMENTS_PORT ?? 4242);
 const dataDir = path.join(root, "data");
 mkdirSync(dataDir, { recursive: true });
 
@@ -34,9 +37,9 @@ const env: NodeJS.ProcessEnv = {
     process.env.NEXT_SERVER_ACTIONS_ENCRYPTION_KEY ?? readFileSync(actionsKeyFile, "utf8").trim(),
   NEXTAUTH_URL: process.env.NEXTAUTH_URL ?? `http://localhost:${port}`,
   // The demo's stand-ins for hosted services, on this machine only.
-  SMTP_URL: process.env.SMTP_URL ?? "smtp://127.0.0.1:2525",
+  SMTP_URL: process.env.SMTP_URL ?? `smtp://127.0.0.1:${smtpPort}`,
   MAIL_CAPTURE_DIR: process.env.MAIL_CAPTURE_DIR ?? path.join(dataDir, "mail"),
-  STRIPE_API_BASE: process.env.STRIPE_API_BASE ?? "http://127.0.0.1:4242",
+  STRIPE_API_BASE: process.env.STRIPE_API_BASE ?? `http://127.0.0.1:${paymentsPort}`,
   // Test keys of the local payment fake; `next start` runs in production mode, which requires them set.
   STRIPE_SECRET_KEY: process.env.STRIPE_SECRET_KEY ?? "sk_test_local",
   STRIPE_WEBHOOK_SECRET:
@@ -54,20 +57,26 @@ function run(label: string, args: string[]) {
 
 const tsx = path.join(root, "node_modules/tsx/dist/cli.mjs");
 const next = path.join(root, "node_modules/next/dist/bin/next");
-run("migrating the database", [tsx, "scripts/migrate.ts"]);
+// Which database the demo runs on, without the password a DATABASE_URL may carry.
+function databaseName(): string {
+  if (!env.DATABASE_URL) return `SQLite ${env.DATABASE_PATH}`;
+  const url = new URL(env.DATABASE_URL);
+  return `PostgreSQL ${url.host}${url.pathname}`;
+}
+run(`migrating the database (${databaseName()})`, [tsx, "scripts/migrate.ts"]);
 run("seeding the demo shop (only if empty)", [tsx, "scripts/seed.ts"]);
 if (process.env.SKIP_BUILD !== "1") run("building the app", [next, "build"]);
 
 console.log(
-  "\n▸ starting the local mail capture (SMTP 127.0.0.1:2525) and payment service (127.0.0.1:4242)",
+  `\n▸ starting the local mail capture (SMTP 127.0.0.1:${smtpPort}) and payment service (127.0.0.1:${paymentsPort})`,
 );
 const smtp = await startFakeSmtp({
-  port: 2525,
+  port: smtpPort,
   host: "127.0.0.1",
   captureDir: env.MAIL_CAPTURE_DIR!,
 });
 const payments = await startFakePayments({
-  port: 4242,
+  port: paymentsPort,
   webhookUrl: `http://127.0.0.1:${port}/api/payments/webhook`,
   webhookSecret: env.STRIPE_WEBHOOK_SECRET!,
 });
