@@ -98,6 +98,19 @@ export async function bookJobOverHttp(
   return { id: job.id, number: job.number, path: `/jobs/${job.id}` };
 }
 
+/**
+ * Adds a new customer and books a job in for them, both as the counter over HTTP (a spec whose
+ * subject is what comes after the booking), and answers the job's id, number and page.
+ */
+export async function bookJobForNewCustomer(
+  baseURL: string,
+  customerName: string,
+  job: { engine: string; spec: Record<string, unknown> },
+): Promise<{ id: number; number: string; path: string }> {
+  const customerId = await createCustomerOverHttp(baseURL, { name: customerName });
+  return bookJobOverHttp(baseURL, { customerId, ...job });
+}
+
 /** The capture folder of the app at `baseURL` (tests/e2e/support/app-server.ts's layout). */
 function captureDir(baseURL: string): string {
   const port = Number(new URL(baseURL).port);

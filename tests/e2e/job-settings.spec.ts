@@ -1,33 +1,25 @@
 import { expect, test } from "@playwright/test";
-import { signInAs, signOut } from "./helpers";
+import { bookJobForNewCustomer, signInAs } from "./helpers";
 
 // The job settings form: a job switched to ounces gets its gram settings converted and says so,
 // lengths stay as typed in inches, blanks are accepted where the label allows them, a refusal
 // names its box, and the history reads as sentences.
 
-test("job settings in ounces and inches, blanks, refusals and the history", async ({ page }) => {
+test("job settings in ounces and inches, blanks, refusals and the history", async ({
+  page,
+  baseURL,
+}) => {
   test.setTimeout(120_000);
 
   // The counter books an in-line four for a new customer (over the API: the booking form has
   // its own flow in bench-flow.spec.ts).
-  await signInAs(page, "counter");
-  const customer = await page.request.post("/api/customers", {
-    data: { name: `Ilse Marten ${Date.now().toString(36)}` },
+  const job = await bookJobForNewCustomer(baseURL!, `Ilse Marten ${Date.now().toString(36)}`, {
+    engine: "In-line four, invented for the settings test",
+    spec: { layout: "inline-4", cylinders: 4 },
   });
-  expect(customer.status()).toBe(201);
-  const booked = await page.request.post("/api/jobs", {
-    data: {
-      customerId: (await customer.json()).customer.id,
-      engine: "In-line four, invented for the settings test",
-      spec: { layout: "inline-4", cylinders: 4 },
-    },
-  });
-  expect(booked.status()).toBe(201);
-  const jobId: number = (await booked.json()).job.id;
-  await signOut(page);
 
   await signInAs(page, "machinist");
-  await page.goto(`/jobs/${jobId}`);
+  await page.goto(job.path);
   // An in-line four is balanced without bobweights: there is no balance factor to type.
   await expect(page.getByTestId("no-bobweight")).toBeVisible();
 

@@ -1,5 +1,5 @@
 import { expect, test } from "@playwright/test";
-import { signInAs, signOut } from "./helpers";
+import { bookJobForNewCustomer, signInAs } from "./helpers";
 
 // Matching by cylinder, the pairing suggestion with the plan's own saving, applied after a
 // confirmation, kept in the history and undone. The in-line four (grams) and its figures are
@@ -14,40 +14,30 @@ const FOUR: Record<string, string[]> = {
 
 test("pistons paired with rods by the plan's own figures, confirmed, recorded and undone", async ({
   page,
+  baseURL,
 }) => {
   test.setTimeout(120_000);
 
-  await signInAs(page, "counter");
-  const customer = await page.request.post("/api/customers", {
-    data: { name: `Oda Brandt ${Date.now().toString(36)}` },
+  const job = await bookJobForNewCustomer(baseURL!, `Oda Brandt ${Date.now().toString(36)}`, {
+    engine: "In-line four, invented for the pairing test",
+    spec: { layout: "inline-4", cylinders: 4 },
   });
-  expect(customer.status()).toBe(201);
-  const booked = await page.request.post("/api/jobs", {
-    data: {
-      customerId: (await customer.json()).customer.id,
-      engine: "In-line four, invented for the pairing test",
-      spec: { layout: "inline-4", cylinders: 4 },
-    },
-  });
-  expect(booked.status()).toBe(201);
-  const jobId: number = (await booked.json()).job.id;
-  await signOut(page);
 
   await signInAs(page, "machinist");
-  await page.goto(`/jobs/${jobId}`);
+  await page.goto(job.path);
   await page.getByLabel("Match the set").selectOption("by-cylinder");
   await page.getByRole("button", { name: "Save settings" }).click();
   await expect(page.getByTestId("settings-message")).toContainText("Saved.");
 
   for (const [kind, values] of Object.entries(FOUR))
     for (const [i, reading] of values.entries()) {
-      const res = await page.request.put(`/api/jobs/${jobId}/weights`, {
+      const res = await page.request.put(`/api/jobs/${job.id}/weights`, {
         data: { cylinder: i + 1, kind, phase: "initial", readings: [reading], version: 0 },
       });
       expect(res.status()).toBe(200);
     }
 
-  await page.goto(`/jobs/${jobId}`);
+  await page.goto(job.path);
   await page.getByRole("link", { name: "Metal to remove" }).click();
   await expect(page.getByTestId("total-removed")).toContainText("5.50 g");
   const pairing = page.getByTestId("pairing");
