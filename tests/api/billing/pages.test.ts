@@ -1,9 +1,11 @@
+import { createElement } from "react";
 import { renderToStaticMarkup } from "react-dom/server";
 import { beforeEach, describe, expect, it, vi } from "vitest";
 import InvoicesPage from "@/app/(shop)/invoices/page";
 import JobBillingPage from "@/app/(shop)/jobs/[id]/billing/page";
 import PricesPage from "@/app/(shop)/prices/page";
 import SettingsPage from "@/app/(shop)/settings/page";
+import { Providers } from "@/components/providers";
 import type { DB } from "@/db/client";
 import { createInvoice, issueInvoice } from "@/lib/billing/invoices";
 import { createQuote, moveQuote } from "@/lib/billing/quotes";
@@ -26,7 +28,14 @@ beforeEach(async () => {
 });
 
 const billingPage = async (jobId: number) =>
-  renderToStaticMarkup(await JobBillingPage({ params: Promise.resolve({ id: String(jobId) }) }));
+  renderToStaticMarkup(
+    // The panel reads through TanStack Query, as under the app's layout.
+    createElement(
+      Providers,
+      null,
+      await JobBillingPage({ params: Promise.resolve({ id: String(jobId) }) }),
+    ),
+  );
 
 describe("the job's billing page", () => {
   it("lets the counter start a quote and make an invoice", async () => {

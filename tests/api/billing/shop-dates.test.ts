@@ -1,9 +1,11 @@
 import { PDFParse } from "pdf-parse";
+import { createElement } from "react";
 import { renderToStaticMarkup } from "react-dom/server";
 import { beforeEach, describe, expect, it, vi } from "vitest";
 import InvoicesPage from "@/app/(shop)/invoices/page";
 import JobBillingPage from "@/app/(shop)/jobs/[id]/billing/page";
 import { GET as pdfRoute } from "@/app/api/invoices/[id]/pdf/route";
+import { Providers } from "@/components/providers";
 import type { DB } from "@/db/client";
 import { DEFAULT_COUNTER_SETTINGS } from "@/db/counter-settings";
 import { updateCounterSettings } from "@/lib/settings/counter-settings";
@@ -58,9 +60,8 @@ beforeEach(async () => {
 describe("billing dates are the shop's calendar dates", () => {
   it("on the job's billing page (issued, paid, payment received)", async () => {
     signInAs(w.users.counter);
-    const html = renderToStaticMarkup(
-      await JobBillingPage({ params: Promise.resolve({ id: String(w.job.id) }) }),
-    );
+    const page = await JobBillingPage({ params: Promise.resolve({ id: String(w.job.id) }) });
+    const html = renderToStaticMarkup(createElement(Providers, null, page));
     expect(html).toContain("2026-12-02");
     expect(html).not.toContain("2026-12-03");
   });

@@ -1,6 +1,6 @@
 import { getDb } from "@/db/client";
 import { requireApiPermission } from "@/lib/auth/guard";
-import { findInvoiceForUser } from "@/lib/billing/access";
+import { loadInvoiceView } from "@/lib/billing/job-billing";
 import { deleteDraftInvoice, replaceInvoiceLines } from "@/lib/billing/invoices";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { documentLinesSchema } from "@/lib/validation/billing";
@@ -9,7 +9,8 @@ type Params = { id: string };
 
 export const GET = route<Params>(async (_req, { params }) => {
   const user = await requireApiPermission("read-invoice");
-  return json({ invoice: await findInvoiceForUser(getDb(), parseId((await params).id), user) });
+  // With its payments and `allowedActions`: what this person may do to it now.
+  return json({ invoice: await loadInvoiceView(getDb(), parseId((await params).id), user) });
 });
 
 /** Replaces a draft invoice's lines: `{ version, lines }` as for quotes. */

@@ -1,6 +1,6 @@
 import { getDb } from "@/db/client";
 import { requireApiPermission } from "@/lib/auth/guard";
-import { findQuoteForUser } from "@/lib/billing/access";
+import { loadQuoteView } from "@/lib/billing/job-billing";
 import { replaceQuoteLines } from "@/lib/billing/quotes";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { documentLinesSchema } from "@/lib/validation/billing";
@@ -9,7 +9,8 @@ type Params = { id: string };
 
 export const GET = route<Params>(async (_req, { params }) => {
   const user = await requireApiPermission("read-quote");
-  return json({ quote: await findQuoteForUser(getDb(), parseId((await params).id), user) });
+  // With `allowedActions`: what this person may do to it now (lib/billing/actions.ts).
+  return json({ quote: await loadQuoteView(getDb(), parseId((await params).id), user) });
 });
 
 /** Replaces a draft quote's lines: `{ version, lines: [{ priceItemId | lineId, quantity, description? }] }`. */

@@ -3,7 +3,6 @@ import { notFound } from "next/navigation";
 import { JobBillingPanel } from "@/components/billing/job-billing-panel";
 import { getDb } from "@/db/client";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { isCustomer } from "@/lib/auth/policy";
 import { loadJobBilling } from "@/lib/billing/job-billing";
 import { HttpError } from "@/lib/http/errors";
 
@@ -18,7 +17,6 @@ export default async function JobBillingPage({ params }: { params: Promise<{ id:
     if (e instanceof HttpError && e.status === 404) notFound();
     throw e;
   });
-  const role = isCustomer(user) ? "customer" : "staff";
   return (
     <article className="space-y-6">
       <header className="flex flex-wrap items-baseline gap-4">
@@ -32,15 +30,7 @@ export default async function JobBillingPage({ params }: { params: Promise<{ id:
           Back to the job
         </Link>
       </header>
-      <JobBillingPanel
-        jobId={billing.job.id}
-        role={role}
-        quotes={billing.quotes}
-        invoices={billing.invoices}
-        prices={billing.prices}
-        currency={billing.currency}
-        timeZone={billing.timeZone}
-      />
+      <JobBillingPanel initial={billing} />
     </article>
   );
 }
