@@ -1,8 +1,70 @@
 "use client";
 
-import type { InputHTMLAttributes, ReactNode } from "react";
+import type { InputHTMLAttributes, KeyboardEvent, ReactNode } from "react";
+import { ChangedElsewhere } from "@/components/ui/changed-elsewhere";
 import type { BuildSection } from "@/lib/build-record/schemas";
-import type { SaveState } from "./use-build-record";
+import type { SaveState, SectionProps } from "./use-build-record";
+
+/** Blank is "not given"; a leading point gets its zero, as the server keeps it. */
+export const typed = (v: string): string | null => {
+  const t = v.trim();
+  return t === "" ? null : t.replace(/^(-?)\./, "$10.");
+};
+
+/** The colour of a worked-out status: in the window, still to work on, or wrong. */
+export const STATUS_CLASS: Record<string, string> = {
+  ok: "text-within",
+  tight: "text-machine",
+  wide: "text-replace",
+  interference: "text-replace",
+};
+
+/** Enter moves to the next figure (Shift+Enter back), at once; leaving a box saves it. */
+function moveOnEnter(e: KeyboardEvent<HTMLDivElement>) {
+  const target = e.target as HTMLElement;
+  if (e.key !== "Enter" || !target.matches("input[data-cell]")) return;
+  e.preventDefault();
+  const cells = Array.from(
+    e.currentTarget.querySelectorAll<HTMLInputElement>("input[data-cell]:not([readonly])"),
+  );
+  const at = cells.indexOf(target as HTMLInputElement);
+  const next = cells[at + (e.shiftKey ? -1 : 1)];
+  if (next) {
+    next.focus();
+    next.select();
+  } else (target as HTMLInputElement).blur();
+}
+
+/** The keyboard grid: every Cell inside is one stop of Enter / Shift+Enter, across sections. */
+export function KeyboardGrid({ className, children }: { className?: string; children: ReactNode }) {
+  return (
+    <div className={className} onKeyDown={moveOnEnter}>
+      {children}
+    </div>
+  );
+}
+
+/**
+ * What a section's boxes and panel need from the editor: its save state, a commit that saves it
+ * (never when read only), the refusal by field, and the panel's props.
+ */
+export function bindSection(props: SectionProps, section: BuildSection) {
+  const state = props.editor.state[section];
+  return {
+    state,
+    /** Saves the section (on leaving a box, a tick, a choice); never when read only. */
+    commit: () => {
+      if (!props.readOnly) void props.editor.save(section);
+    },
+    error: (path: string) => fieldError(state, path),
+    ro: props.readOnly ? { readOnly: true } : {},
+    panel: {
+      section,
+      state,
+      onResolve: (keep: "theirs" | "mine") => void props.editor.resolveStale(section, keep),
+    },
+  };
+}
 
 /**
  * A figure typed into the build record: digits, Enter moves on (the screen handles it), leaving
@@ -92,6 +154,17 @@ export function BuildPanel({
   );
 }
 
+/** Each section in the machinist's words, for "someone else changed … since this page loaded". */
+const SECTION_WHAT: Record<BuildSection, string> = {
+  specs: "the engine's own figures",
+  rings: "the ring gaps",
+  tdc: "the TDC readings",
+  cam: "the cam checks",
+  springs: "the valve springs",
+  clearances: "the bearing clearances",
+  deck: "the deck clearances",
+};
+
 function SaveLine({
   state,
   onResolve,
@@ -117,14 +190,17 @@ function SaveLine({
     );
   if (state.kind === "stale")
     return (
-      <span data-testid={testId} className="flex flex-wrap items-center gap-2 text-sm text-replace">
-        {state.message}
-        <button type="button" className="btn-secondary py-0.5" onClick={() => onResolve("theirs")}>
-          Load theirs
-        </button>
-        <button type="button" className="btn-secondary py-0.5" onClick={() => onResolve("mine")}>
-          Keep mine
-        </button>
+      <span data-testid={testId} className="text-sm">
+        <ChangedElsewhere
+          inline
+          what={SECTION_WHAT[section]}
+          error={state.error}
+          onReload={() => onResolve("theirs")}
+        >
+          <button type="button" className="underline" onClick={() => onResolve("mine")}>
+            Save mine over it
+          </button>
+        </ChangedElsewhere>
       </span>
     );
   return (

@@ -1,16 +1,20 @@
 "use client";
 
 import { useCallback, useRef, useState } from "react";
+import { isStaleWrite } from "@/components/ui/changed-elsewhere";
 import { ApiError, apiFetch } from "@/lib/api-client";
+import type { BuildRecordResults } from "@/lib/build-record/evaluate";
 import type { BuildRecordView, SectionState } from "@/lib/build-record/record";
 import type { BuildRecordData, BuildSection } from "@/lib/build-record/schemas";
+import type { BuildSettings } from "@/lib/build-record/settings-schema";
 
 export type SaveState =
   | { kind: "idle" }
   | { kind: "saving" }
   | { kind: "saved"; at: string }
   | { kind: "refused"; message: string; fields: Record<string, string> }
-  | { kind: "stale"; message: string }
+  /** Someone else saved the section since it was read (409 stale write); `error` is the refusal. */
+  | { kind: "stale"; error: unknown }
   | { kind: "offline"; message: string };
 
 /**
@@ -60,15 +64,8 @@ export function useBuildRecord(initial: BuildRecordView) {
         }));
       } catch (e) {
         dirty.current.add(section);
-        if (e instanceof ApiError && e.status === 409) {
-          setState((s) => ({
-            ...s,
-            [section]: {
-              kind: "stale",
-              message:
-                "Someone else saved this part of the record since you opened it. Your figures are still on screen; load theirs, or save yours over them.",
-            },
-          }));
+        if (isStaleWrite(e)) {
+          setState((s) => ({ ...s, [section]: { kind: "stale", error: e } }));
         } else if (e instanceof ApiError) {
           setState((s) => ({
             ...s,
@@ -117,4 +114,37 @@ export function useBuildRecord(initial: BuildRecordView) {
   );
 
   return { data, update, save, state, resolveStale };
+}
+
+/** The build record being typed into, as one section's component receives it. */
+export type BuildRecordEditor = ReturnType<typeof useBuildRecord>;
+
+/** What every section of the screen is given. */
+export interface SectionProps {
+  editor: BuildRecordEditor;
+  /** What the record as typed works out to (the same function the server checks with). */
+  results: BuildRecordResults;
+  settings: BuildSettings;
+  readOnly: boolean;
+  /** The engine's cylinder numbers, 1 to n. */
+  cylinders: number[];
+}
+
+/**
+ * A section's rows with one row changed: the row `matches` picks (or `blank` when there is none
+ * yet) passed through `change`, then only the rows `keep` says still hold something.
+ */
+export function upsertRow<R>(
+  rows: readonly R[],
+  matches: (row: R) => boolean,
+  blank: R,
+  change: (row: R) => R,
+  keep: (row: R) => boolean,
+): R[] {
+  const next = [...rows];
+  const i = next.findIndex(matches);
+  const row = change(i >= 0 ? next[i]! : blank);
+  if (i >= 0) next[i] = row;
+  else next.push(row);
+  return next.filter(keep);
 }

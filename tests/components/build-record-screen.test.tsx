@@ -34,7 +34,9 @@ function viewOf(data: BuildRecordData, version = 0): BuildRecordView {
 }
 
 const emptyRecord = (): BuildRecordData =>
-  Object.fromEntries(BUILD_SECTIONS.map((s) => [s, emptySection(s, "in")])) as BuildRecordData;
+  Object.fromEntries(
+    BUILD_SECTIONS.map((s) => [s, emptySection(s, "in")]),
+  ) as unknown as BuildRecordData;
 
 /** The server's answer to a save: the record with that section one version on. */
 function saved(section: BuildSection, data: unknown): { status: number; body: unknown } {
@@ -158,6 +160,65 @@ describe("the build record screen", () => {
     });
     await user.click(screen.getByRole("button", { name: "Add a check" }));
     expect(screen.getByTestId("cam-check-1")).toBeTruthy();
+  });
+
+  it("a save someone else got in before: says so, loads the latest, or saves mine over it", async () => {
+    // What the server answers for a StaleWriteError (lib/http): 409, code stale_write.
+    const theirs = { firstStop: "-20", secondStop: "20" };
+    let firstSave = true;
+    answer = (call) => {
+      if (call.method === "GET") {
+        const record = viewOf({ ...emptyRecord(), tdc: theirs });
+        record.versions.tdc = { version: 3, updatedBy: "Owner", updatedAt: "now" };
+        return { status: 200, body: { record } };
+      }
+      if (firstSave) {
+        firstSave = false;
+        const message = "build record section was changed by someone else (now at version 3)";
+        return {
+          status: 409,
+          body: { error: { code: "stale_write", message }, currentVersion: 3 },
+        };
+      }
+      return saved("tdc", call.body?.data);
+    };
+    const user = renderScreen();
+    await user.click(screen.getByLabelText("First stop reading", { exact: true }));
+    await user.keyboard("-18{Enter}");
+    const line = await screen.findByTestId("changed-elsewhere");
+    expect(line.textContent).toContain(
+      "Not saved: someone else changed the TDC readings since this page loaded.",
+    );
+    // Mine: saved again over theirs, on the version now stored.
+    await user.click(within(line).getByRole("button", { name: "Save mine over it" }));
+    await waitFor(() => expect(screen.getByTestId("save-tdc").textContent).toBe("Saved"));
+    const puts = calls.filter((c) => c.method === "PUT");
+    expect(puts.at(-1)!.body).toEqual({
+      version: 3,
+      data: { firstStop: "-18", secondStop: null },
+    });
+  });
+
+  it("the latest loaded after a stale save replaces what was typed in that section", async () => {
+    const theirs = { firstStop: "-20", secondStop: "20" };
+    answer = (call) => {
+      if (call.method === "GET") {
+        const record = viewOf({ ...emptyRecord(), tdc: theirs });
+        record.versions.tdc = { version: 3, updatedBy: "Owner", updatedAt: "now" };
+        return { status: 200, body: { record } };
+      }
+      return { status: 409, body: { error: { code: "stale_write", message: "changed" } } };
+    };
+    const user = renderScreen();
+    await user.click(screen.getByLabelText("First stop reading", { exact: true }));
+    await user.keyboard("-18{Enter}");
+    await user.click(await screen.findByRole("button", { name: "Load the latest" }));
+    await waitFor(() =>
+      expect(
+        (screen.getByLabelText("First stop reading", { exact: true }) as HTMLInputElement).value,
+      ).toBe("-20"),
+    );
+    expect(screen.queryByTestId("changed-elsewhere")).toBeNull();
   });
 
   it("read only: nothing can be typed and nothing is saved", async () => {

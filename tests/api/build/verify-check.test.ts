@@ -3,13 +3,11 @@ import { GET as getPdf } from "@/app/api/jobs/[id]/build/cards/[revision]/pdf/ro
 import { POST as issueCard } from "@/app/api/jobs/[id]/build/cards/route";
 import { PUT as putSection } from "@/app/api/jobs/[id]/build/[section]/route";
 import { POST as postCheck } from "@/app/api/verify/check/route";
-import type { DB } from "@/db/client";
 import type { Job } from "@/db/jobs";
 import type { Role } from "@/db/schema";
 import type { User } from "@/db/users";
 import { formatCode } from "@/lib/cards/code";
 import { findCodesInPdf, MAX_CODES_PER_CHECK } from "@/lib/cards/verify";
-import { emptySection } from "@/lib/build-record/schemas";
 import { setUpBuildJob } from "./fixtures";
 import { jsonRequest, params } from "../../helpers/http";
 import { signInAs } from "../../helpers/session";
@@ -18,12 +16,11 @@ import { signInAs } from "../../helpers/session";
 // very file issued is genuine (by its SHA-256), a file naming its code but differing is altered,
 // and a revision since replaced says so. The files here are the PDFs the app itself issued.
 
-let db: DB;
 let users: Record<Role, User>;
 let job: Job;
 
 beforeEach(async () => {
-  ({ db, users, job } = await setUpBuildJob());
+  ({ users, job } = await setUpBuildJob());
   signInAs(users.machinist);
   const tdc = { firstStop: "-18", secondStop: "22" };
   const res = await putSection(
