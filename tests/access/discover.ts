@@ -124,7 +124,7 @@ export async function discoverRoutes(): Promise<DiscoveredRoute[]> {
  * The source of one method's handler: from its `export const GET =` / `export function GET` /
  * `export { handler as GET }` up to the next export.
  */
-function methodBody(source: string, method: HttpMethod): string {
+export function methodBody(source: string, method: HttpMethod): string {
   const start = new RegExp(
     `export\\s+(?:const\\s+${method}\\s*=|(?:async\\s+)?function\\s+${method}\\b)`,
   ).exec(source);
