@@ -1,4 +1,3 @@
-import type { PaymentMethod } from "@/db/billing-schema";
 import type { DB } from "@/db/client";
 import type { Payment } from "@/db/payments";
 import { tellPaymentReceived } from "@/lib/mail/events";
@@ -13,11 +12,7 @@ import { recordManualPayment } from "./payments";
 export async function takeCounterPayment(
   db: DB,
   invoiceId: number,
-  input: {
-    method: Exclude<PaymentMethod, "online">;
-    amount: string;
-    reference?: string | null;
-  },
+  input: Parameters<typeof recordManualPayment>[2],
   actorId: number | null,
   options: { now?: Date; mail?: SendOptions } = {},
 ): Promise<{ payment: Payment; paid: boolean }> {
