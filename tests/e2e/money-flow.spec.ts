@@ -1,20 +1,27 @@
 import { expect, type Locator, type Page, test } from "@playwright/test";
 import { bookJobOverHttp, createCustomerAccount, signIn, signInAs, signOut } from "./helpers";
 
-// Demo price list and tax (lib/billing/demo.ts): BAL-V8 395.00, MCH-PIS 6.50 a piston, ADD-DMP
+// Demo price list and tax (lib/billing/demo.ts): BAL-V8 395.00, MCH-PIS 6.50 a piston (charged
+// per cylinder: its line starts at the job's 8), ADD-DMP
 // 40.00; tax 8.25 % on the subtotal, rounded half-up to cents once.
 //   quote:   395.00 + 8 × 6.50 = 447.00; tax 36.8775 → 36.88; total 483.88
 //   damper:  40.00; tax 3.30; total 43.30
 const QUOTE_TOTAL = "$483.88";
 const DAMPER_TOTAL = "$43.30";
 
-/** Picks a price-list entry in a draft's line editor and sets its quantity. */
-async function addLine(editor: Locator, code: string, quantity: string, line: number) {
+/** Picks a price-list entry in a draft's line editor, checks where it starts and sets its quantity. */
+async function addLine(
+  editor: Locator,
+  code: string,
+  quantity: string,
+  line: number,
+  startsAt = "1",
+) {
   const picker = editor.getByLabel("Add a line from the price list");
   const option = picker.locator("option", { hasText: `${code} ·` });
   await picker.selectOption((await option.getAttribute("value"))!);
   const qty = editor.getByLabel(`Line ${line} quantity`);
-  await expect(qty).toHaveValue("1");
+  await expect(qty).toHaveValue(startsAt);
   await qty.fill(quantity);
 }
 
@@ -51,7 +58,7 @@ test("a quote is accepted and invoiced, paid online after one decline; cash take
   await expect(page.getByTestId("quote-message")).toHaveText("Quote started: add its lines.");
   await expect(page.getByTestId("quote-status")).toHaveText("Being written");
   await addLine(quote, "BAL-V8", "1", 1);
-  await addLine(quote, "MCH-PIS", "8", 2);
+  await addLine(quote, "MCH-PIS", "8", 2, "8");
   await expect(quote.getByTestId("document-total")).toHaveText(QUOTE_TOTAL);
   await quote.getByRole("button", { name: "Save lines" }).click();
   await expect(page.getByTestId("quote-message")).toHaveText("Lines saved.");
