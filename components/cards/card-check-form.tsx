@@ -66,8 +66,8 @@ function CheckOutcome({ check }: { check: CardCheck }) {
   if (check.result === "unknown") {
     return (
       <p className="font-semibold text-graphite-700">
-        Not one of our cards: this file matches no balance card or build record on record and names
-        none.
+        Not one of ours: this file matches no balance card or engine build record the shop issued,
+        and names none.
       </p>
     );
   }
