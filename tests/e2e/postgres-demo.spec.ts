@@ -44,7 +44,7 @@ test.beforeAll(async () => {
   test.setTimeout(90_000);
   cluster = await startThrowawayCluster();
   rmSync(DATA, { recursive: true, force: true });
-  const env: NodeJS.ProcessEnv = {
+  const env: Record<string, string | undefined> = {
     ...process.env,
     DATABASE_URL: cluster.url, // the new cluster's own empty database
     SKIP_BUILD: "1",
@@ -59,13 +59,14 @@ test.beforeAll(async () => {
   // `next start` chooses production itself; the test runner's "test" would confuse it.
   delete env.NODE_ENV;
   // Its own process group: the demo, its `next start` and nothing else, stopped by this PID.
-  demo = spawn(process.execPath, [TSX_CLI, "scripts/demo.ts"], {
+  const child = spawn(process.execPath, [TSX_CLI, "scripts/demo.ts"], {
     cwd: ROOT,
-    env,
+    env: env as NodeJS.ProcessEnv,
     stdio: "inherit",
     detached: true,
   });
-  await waitForOk(`${ORIGIN}/api/health`, demo, 60_000);
+  demo = child;
+  await waitForOk(`${ORIGIN}/api/health`, child, 60_000);
 });
 
 test.afterAll(async () => {
