@@ -5,8 +5,6 @@ import { describe, expect, it } from "vitest";
 const root = join(import.meta.dirname, "..", "..");
 /** The one client: everything the browser sends to the API goes through it. */
 const CLIENT = "lib/api-client.ts";
-/** Its own client, kept by the billing screens until they move onto the one client. */
-const NOT_YET = new Set<string>([]);
 /** A call of the global fetch (window.fetch( too), not apiFetch( refetch( or prefetch(. */
 const RAW_FETCH = /(?<![A-Za-z0-9_$])fetch\s*\(/;
 
