@@ -1,6 +1,8 @@
 "use client";
 
+import { useQueryClient } from "@tanstack/react-query";
 import { useState } from "react";
+import { UnappliedPaymentBanner } from "@/components/payments/unapplied-payment-banner";
 import { formatMoney } from "@/lib/billing/format";
 import type { JobBilling } from "@/lib/billing/job-billing";
 import { shopDate } from "@/lib/dates/shop-time";
@@ -11,7 +13,7 @@ import {
   refusalText,
   StatusLine,
 } from "./billing-document";
-import { useBillingWrite, useJobBilling } from "./use-job-billing";
+import { jobBillingKey, useBillingWrite, useJobBilling } from "./use-job-billing";
 
 /**
  * A job's quote and invoices: one document view for both (components/billing/billing-document),
@@ -38,6 +40,7 @@ export function JobBillingPanel({ initial }: { initial: JobBilling }) {
     day,
   };
   const start = useBillingWrite(jobId);
+  const queryClient = useQueryClient();
   const startWith = async (
     call: { url: string; body: unknown },
     done: string,
@@ -156,6 +159,14 @@ export function JobBillingPanel({ initial }: { initial: JobBilling }) {
                 </h3>
               }
             />
+            {!billing.customerView && inv.status !== "draft" ? (
+              <UnappliedPaymentBanner
+                invoiceId={inv.id}
+                onChanged={() =>
+                  void queryClient.invalidateQueries({ queryKey: jobBillingKey(jobId) })
+                }
+              />
+            ) : null}
           </article>
         ))}
       </section>

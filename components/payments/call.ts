@@ -1,7 +1,8 @@
 import { ApiError, apiFetch } from "@/lib/api-client";
 
 /** What one of our payment routes answered: the data, or the message to show. */
-export type CallOutcome<T> = { ok: true; data: T } | { ok: false; message: string };
+export type CallOutcome<T> =
+  { ok: true; data: T } | { ok: false; message: string; status: number | null };
 
 /**
  * Calls a payment route through the one API client (lib/api-client.ts) and turns the error shape
@@ -18,9 +19,10 @@ export async function callPayments<T>(
     if (!(e instanceof ApiError) || e.status === 0)
       return {
         ok: false,
+        status: null,
         message: "Could not reach the server. Check the connection and try again.",
       };
     const fields = Object.values(e.fields).join(" ");
-    return { ok: false, message: [e.message, fields].filter(Boolean).join(" ") };
+    return { ok: false, status: e.status, message: [e.message, fields].filter(Boolean).join(" ") };
   }
 }

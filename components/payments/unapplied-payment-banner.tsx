@@ -12,9 +12,17 @@ import { UnappliedPaymentActions } from "./unapplied-payment-actions";
 /**
  * On an invoice, for the counter and the owner: each online payment received for it and not
  * applied, in plain words, with "Apply as payment" and "Mark refunded". Reads its own data, so it
- * can sit in any invoice view; shows nothing when there is none.
+ * can sit in any invoice view; shows nothing when there is none, or to someone who may not settle
+ * payments. `onChanged` runs after either action worked (the invoice view reloads its figures);
+ * without it the page's server data is refreshed.
  */
-export function UnappliedPaymentBanner({ invoiceId }: { invoiceId: number }) {
+export function UnappliedPaymentBanner({
+  invoiceId,
+  onChanged,
+}: {
+  invoiceId: number;
+  onChanged?: () => void;
+}) {
   const router = useRouter();
   const [items, setItems] = useState<UnappliedPaymentListed[]>([]);
   const [message, setMessage] = useState<string | null>(null);
@@ -28,6 +36,8 @@ export function UnappliedPaymentBanner({ invoiceId }: { invoiceId: number }) {
     if (outcome.ok) {
       setItems(outcome.data.payments);
       setFailed(null);
+    } else if (outcome.status === 401 || outcome.status === 403) {
+      setItems([]);
     } else {
       setFailed(`Could not check for online payments not applied: ${outcome.message}`);
     }
@@ -82,7 +92,8 @@ export function UnappliedPaymentBanner({ invoiceId }: { invoiceId: number }) {
             onDone={(done) => {
               setMessage(done);
               void load();
-              router.refresh();
+              if (onChanged) onChanged();
+              else router.refresh();
             }}
           />
         </div>
