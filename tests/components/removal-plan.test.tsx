@@ -67,8 +67,14 @@ beforeEach(() => {
       body: init.body ? JSON.parse(String(init.body)) : null,
     };
     calls.push(call);
-    return new Response(JSON.stringify(answer(call)), {
-      status: 200,
+    const body = answer(call);
+    // An answer in the shape { status, error } stands for a refusal with that status.
+    const status =
+      body && typeof body === "object" && "status" in body && "error" in body
+        ? (body as { status: number }).status
+        : 200;
+    return new Response(JSON.stringify(body), {
+      status,
       headers: { "content-type": "application/json" },
     });
   });
@@ -167,5 +173,36 @@ describe("the removal plan screen", () => {
     await user.click(screen.getByRole("button", { name: "Undo this pairing" }));
     await waitFor(() => expect(calls).toHaveLength(2));
     expect(calls[1]).toMatchObject({ url: "/api/jobs/3/pairing/undo", body: { pairingId: 41 } });
+  });
+
+  it("says when the target was set on another screen meanwhile, and loads the one saved now", async () => {
+    const workshop = workshopFor({});
+    const theirs = {
+      ...workshop,
+      targets: [{ kind: "piston", target: "400.5", version: 2 }],
+    } as unknown as Workshop;
+    // The 409 lib/http/to-error-body.ts answers for a StaleWriteError; then the latest record.
+    answer = (call) =>
+      call.method === "PUT"
+        ? {
+            status: 409,
+            error: { code: "stale_write", message: "target was changed" },
+            currentVersion: 2,
+          }
+        : theirs;
+    const user = show(workshop);
+    const box = document.getElementById("target-piston") as HTMLInputElement;
+    await user.type(box, "400.2");
+    await user.click(screen.getAllByRole("button", { name: "Set target" })[0]!);
+    const notice = await screen.findByTestId("changed-elsewhere");
+    expect(notice.textContent).toContain("someone else changed the piston target");
+    await user.click(screen.getByRole("button", { name: "Load the latest" }));
+    await waitFor(() => expect(box.value).toBe("400.5"));
+    expect(screen.queryByTestId("changed-elsewhere")).toBeNull();
+    // The next save is based on the version loaded.
+    answer = () => ({ plan: theirs.plan, target: { kind: "piston", target: "400.5", version: 3 } });
+    await user.click(screen.getAllByRole("button", { name: "Set target" })[0]!);
+    await waitFor(() => expect(calls.filter((c) => c.method === "PUT")).toHaveLength(2));
+    expect(calls.filter((c) => c.method === "PUT")[1]!.body).toMatchObject({ version: 2 });
   });
 });
