@@ -160,7 +160,8 @@ export function LinesForm({
         void submit();
       }}
     >
-      <div className="overflow-x-auto">
+      {/* relative: the screen-reader labels (absolute) stay inside the scrolling box */}
+      <div className="relative overflow-x-auto">
         <table className="w-full text-left text-sm">
           <thead className="border-b border-graphite-200 text-graphite-600">
             <tr>

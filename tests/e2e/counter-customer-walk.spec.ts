@@ -1,6 +1,7 @@
 import { existsSync } from "node:fs";
 import { readdir, readFile } from "node:fs/promises";
 import path from "node:path";
+import AxeBuilder from "@axe-core/playwright";
 import { expect, type Locator, type Page, test } from "@playwright/test";
 import { simpleParser } from "mailparser";
 import { createCustomerAccount, findJobPath, signIn, signInAs, signOut } from "./helpers";
@@ -40,6 +41,17 @@ async function newestMail(baseURL: string, subject: RegExp) {
     if (subject.test(parsed.subject ?? "")) return parsed;
   }
   return undefined;
+}
+
+/** The page as seen, kept as a picture, with no serious or critical accessibility fault. */
+async function looksRight(page: Page, name: string) {
+  await page.screenshot({ path: `test-results/pages/${name}.png`, fullPage: true });
+  const { violations } = await new AxeBuilder({ page }).analyze();
+  expect(
+    violations
+      .filter((v) => v.impact === "serious" || v.impact === "critical")
+      .map((v) => `${v.id}: ${v.help} → ${v.nodes.map((n) => n.target).join(", ")}`),
+  ).toEqual([]);
 }
 
 /** Nothing wider than the window (a phone must not scroll sideways). */
@@ -95,12 +107,13 @@ for (const width of [390, 1280]) {
       await quote.getByLabel("Line 3 work").fill("Dress crank keyway by hand");
       await quote.getByLabel("Line 3 price each").fill("40.00");
       await expect(quote.getByTestId("document-total")).toHaveText(TOTAL);
+      await noSideScroll(page);
+      await looksRight(page, `billing-draft-quote-${width}`);
       await quote.getByRole("button", { name: "Save lines" }).click();
       await expect(page.getByTestId("quote-message")).toHaveText("Lines saved.");
       await quote.getByRole("button", { name: "Offer to the customer" }).click();
       await expect(page.getByTestId("quote-status")).toHaveText("Waiting for the customer");
       await expect(quote).toContainText("Dress crank keyway by hand");
-      await noSideScroll(page);
       await signOut(page);
 
       // The customer accepts it from their own billing page.
@@ -108,6 +121,8 @@ for (const width of [390, 1280]) {
       await page.goto(`${jobPath}/billing`);
       await expect(page.getByTestId("document-total")).toHaveText(TOTAL);
       await expect(page.getByRole("button", { name: "Withdraw" })).toHaveCount(0);
+      await noSideScroll(page);
+      await looksRight(page, `billing-customer-quote-${width}`);
       await page.getByRole("button", { name: "Accept this quote" }).click();
       await expect(page.getByTestId("quote-message")).toHaveText(
         "Thank you: the shop has your go-ahead.",
