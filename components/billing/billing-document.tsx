@@ -127,6 +127,8 @@ const BUTTONS: readonly Action[] = [
   "void",
   "delete",
 ];
+/** Moves that undo or throw away: never the main button, whatever else is offered. */
+const GOING_BACK: readonly Action[] = ["withdraw", "void", "delete"];
 /** Moves that wait for saved lines: they act on what is stored, not on what is typed. */
 const NEEDS_SAVED_LINES: readonly Action[] = ["offer", "accept", "issue"];
 
@@ -233,7 +235,7 @@ export function BillingDocument({
         <button
           key={a}
           type="button"
-          className={n === 0 ? "btn-primary" : "btn-secondary"}
+          className={n === 0 && !GOING_BACK.includes(a) ? "btn-primary" : "btn-secondary"}
           disabled={busy || (dirty && NEEDS_SAVED_LINES.includes(a))}
           onClick={() => void act(a)}
         >
