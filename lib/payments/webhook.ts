@@ -150,7 +150,7 @@ export async function handlePaymentWebhook(
     event = Stripe.webhooks.constructEvent(payload, signature, secret);
   } catch (error) {
     rejected += 1;
-    const reason = error instanceof Error ? error.message : String(error);
+    const reason = (error instanceof Error ? error.message : String(error)).replace(/\s+/g, " ");
     console.warn(
       `payment notification rejected (${rejected} since start), ${signature ? "bad signature" : "unsigned"}: ${reason.slice(0, 200)}`,
     );
