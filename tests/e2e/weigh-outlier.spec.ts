@@ -48,7 +48,10 @@ test("a missed decimal point is held on the weigh-in, and a changed job flags it
   // Pistons 1 and 2, then "4003" for 400.3: the median of 400.0, 401.2, 4003 is 401.2 and
   // 4003 is 10× that, far past 5 % (common practice). Enter stays and Keep takes the focus.
   await page.getByLabel("Cylinder 1 Piston, g").focus();
-  await page.keyboard.type("400.0\n401.2\n4003\n", { delay: 5 });
+  await page.keyboard.type("400.0\n401.2\n", { delay: 5 });
+  // The check compares with the weights already saved: wait for both before the slip.
+  await expect(page.getByTestId("cell-note-c2_piston")).toContainText("saved");
+  await page.keyboard.type("4003\n", { delay: 5 });
   const held = page.getByTestId("held-c3_piston");
   await expect(held).toContainText("Cylinder 3 piston: 4003 g is 10× the other pistons");
   await expect(held).toContainText("a missed decimal point?");
