@@ -50,6 +50,7 @@ test("a missed decimal point is held on the weigh-in, and a changed job flags it
   await page.getByLabel("Cylinder 1 Piston, g").focus();
   await page.keyboard.type("400.0\n401.2\n", { delay: 5 });
   // The check compares with the weights already saved: wait for both before the slip.
+  await expect(page.getByTestId("cell-note-c1_piston")).toContainText("saved");
   await expect(page.getByTestId("cell-note-c2_piston")).toContainText("saved");
   await page.keyboard.type("4003\n", { delay: 5 });
   const held = page.getByTestId("held-c3_piston");
