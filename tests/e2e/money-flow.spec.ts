@@ -32,7 +32,7 @@ async function openBillingAsCustomer(page: Page, jobNumber: string) {
     .getByRole("navigation", { name: "Job sections" })
     .getByRole("link", { name: "Billing" })
     .click();
-  await expect(page.getByRole("heading", { level: 1, name: /Quote & invoice/ })).toBeVisible();
+  await expect(page.getByRole("heading", { level: 2, name: /Quote & invoice/ })).toBeVisible();
 }
 
 test("a quote is accepted and invoiced, paid online after one decline; cash taken by hand", async ({

@@ -20,9 +20,10 @@ export default async function JobBillingPage({ params }: { params: Promise<{ id:
   return (
     <article className="space-y-6">
       <header className="flex flex-wrap items-baseline gap-4">
-        <h1 className="text-2xl font-semibold">
+        {/* The job's layout holds the page's one level-1 heading (the job number). */}
+        <h2 className="text-xl font-semibold">
           Quote & invoice · <span className="font-mono">{billing.job.number}</span>
-        </h1>
+        </h2>
         <p className="text-graphite-600">
           {billing.job.customerName} · {billing.job.engine}
         </p>
