@@ -1,6 +1,7 @@
 import type { Kysely } from "kysely";
 import type { CustomerInput } from "@/db/customers";
-import { createJob, DEFAULT_SPEC, type Job, type JobSpec, updateJob } from "@/db/jobs";
+import { DEFAULT_SPEC, type Job, type JobSpec } from "@/db/jobs";
+import { createJob, updateJob } from "./save";
 import type { Database, JobStatus } from "@/db/schema";
 import { findShopSettings } from "@/db/settings";
 import { listPartTargets, listPartWeights } from "@/db/weights";
