@@ -51,7 +51,12 @@ describe("the request guard's refusals", () => {
       doc.paths["/api/users"].post.responses["401"].content["application/json"].schema;
     const missing: string[] = [];
     let changing = 0;
-    for (const [url, item] of Object.entries(doc.paths as Record<string, Record<string, any>>)) {
+    type Operation = {
+      responses?: Record<string, { content?: Record<string, { schema?: unknown }> }>;
+    };
+    for (const [url, item] of Object.entries(
+      doc.paths as Record<string, Record<string, Operation>>,
+    )) {
       for (const method of ["post", "put", "patch", "delete"]) {
         const responses = item[method]?.responses;
         if (!responses) continue;
