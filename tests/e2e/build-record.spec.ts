@@ -148,4 +148,22 @@ test("the build record is issued as a PDF whose code verifies publicly", async (
   await expect(page.getByTestId("build-card-status")).toContainText("the current record");
   // Cylinder 1: deck 0.15 + gasket 0.80 = 0.95 mm of quench, as on the job.
   await expect(page.getByRole("cell", { name: "0.95" }).first()).toBeVisible();
+
+  // The PDF itself checked on the public page: the very file is genuine; one byte changed is not.
+  const bytes = Buffer.from(await pdf.body());
+  const altered = Buffer.from(bytes);
+  const middle = Math.floor(altered.length / 2);
+  altered[middle] = altered[middle]! ^ 0xff;
+  await page.goto("/verify");
+  const result = page.getByTestId("card-check-result");
+  for (const [buffer, says] of [
+    [bytes, `Genuine: this file is exactly the engine build record the shop issued (code ${code}`],
+    [altered, `Altered: this file names engine build record ${code}`],
+  ] as const) {
+    await page
+      .getByLabel("Balance card PDF")
+      .setInputFiles({ name: "build-record.pdf", mimeType: "application/pdf", buffer });
+    await page.getByRole("button", { name: "Check the file" }).click();
+    await expect(result).toContainText(says);
+  }
 });
