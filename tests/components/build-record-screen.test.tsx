@@ -12,13 +12,13 @@ import {
   emptySection,
 } from "@/lib/build-record/schemas";
 import { EMPTY_BUILD_SETTINGS } from "@/lib/build-record/settings-schema";
+import { stubApi } from "./support/stub-api";
 
 // The build record screen typed by keyboard: Enter moves on at once, leaving a box saves its
 // section with the version it was based on, figures are worked out as typed.
 
-type Call = { method: string; url: string; body: { version: number; data: unknown } | null };
-let calls: Call[];
-let answer: (call: Call) => { status: number; body: unknown };
+type Save = { version: number; data: unknown };
+let api: ReturnType<typeof stubApi<Save>>;
 
 function viewOf(data: BuildRecordData, version = 0): BuildRecordView {
   const versions = Object.fromEntries(
@@ -46,21 +46,7 @@ function saved(section: BuildSection, data: unknown): { status: number; body: un
 }
 
 beforeEach(() => {
-  calls = [];
-  answer = (call) => saved(call.url.split("/").at(-1) as BuildSection, call.body?.data);
-  vi.stubGlobal("fetch", async (url: string, init: RequestInit = {}) => {
-    const call = {
-      method: init.method ?? "GET",
-      url,
-      body: init.body === undefined ? null : JSON.parse(String(init.body)),
-    };
-    calls.push(call);
-    const { status, body } = answer(call);
-    return new Response(JSON.stringify(body), {
-      status,
-      headers: { "content-type": "application/json" },
-    });
-  });
+  api = stubApi<Save>((call) => saved(call.url.split("/").at(-1) as BuildSection, call.body?.data));
 });
 afterEach(() => {
   cleanup();
@@ -101,8 +87,8 @@ describe("the build record screen", () => {
     await user.keyboard("4.030{Enter}");
     expect(document.activeElement).toBe(screen.getByLabelText("Stroke", { exact: true }));
     await user.keyboard("3.480{Enter}");
-    await waitFor(() => expect(calls.length).toBeGreaterThanOrEqual(1));
-    expect(calls[0]).toMatchObject({
+    await waitFor(() => expect(api.calls.length).toBeGreaterThanOrEqual(1));
+    expect(api.calls[0]).toMatchObject({
       method: "PUT",
       url: "/api/jobs/7/build/specs",
       body: { version: 0, data: { bore: "4.030", lengthUnit: "in" } },
@@ -132,8 +118,8 @@ describe("the build record screen", () => {
       (screen.getByRole("checkbox", { name: "Cylinder 1 Top ring done" }) as HTMLInputElement)
         .disabled,
     ).toBe(true);
-    await waitFor(() => expect(calls.some((c) => c.url.endsWith("/rings"))).toBe(true));
-    expect(calls.find((c) => c.url.endsWith("/rings"))!.body).toEqual({
+    await waitFor(() => expect(api.calls.some((c) => c.url.endsWith("/rings"))).toBe(true));
+    expect(api.calls.find((c) => c.url.endsWith("/rings"))!.body).toEqual({
       version: 0,
       data: { rows: [{ cylinder: 1, ring: "top", readings: ["0.015"], done: false }] },
     });
@@ -152,8 +138,8 @@ describe("the build record screen", () => {
     const user = renderScreen();
     await user.click(screen.getByLabelText("Cylinder 2 exhaust shim"));
     await user.keyboard("0.030{Enter}");
-    await waitFor(() => expect(calls.some((c) => c.url.endsWith("/springs"))).toBe(true));
-    expect(calls.find((c) => c.url.endsWith("/springs"))!.body!.data).toEqual({
+    await waitFor(() => expect(api.calls.some((c) => c.url.endsWith("/springs"))).toBe(true));
+    expect(api.calls.find((c) => c.url.endsWith("/springs"))!.body!.data).toEqual({
       rows: [
         { cylinder: 2, valve: "exhaust", installedHeight: null, shim: "0.030", seatLoad: null },
       ],
@@ -166,7 +152,7 @@ describe("the build record screen", () => {
     // What the server answers for a StaleWriteError (lib/http): 409, code stale_write.
     const theirs = { firstStop: "-20", secondStop: "20" };
     let firstSave = true;
-    answer = (call) => {
+    api.answer = (call) => {
       if (call.method === "GET") {
         const record = viewOf({ ...emptyRecord(), tdc: theirs });
         record.versions.tdc = { version: 3, updatedBy: "Owner", updatedAt: "now" };
@@ -192,7 +178,7 @@ describe("the build record screen", () => {
     // Mine: saved again over theirs, on the version now stored.
     await user.click(within(line).getByRole("button", { name: "Save mine over it" }));
     await waitFor(() => expect(screen.getByTestId("save-tdc").textContent).toBe("Saved"));
-    const puts = calls.filter((c) => c.method === "PUT");
+    const puts = api.calls.filter((c) => c.method === "PUT");
     expect(puts.at(-1)!.body).toEqual({
       version: 3,
       data: { firstStop: "-18", secondStop: null },
@@ -201,7 +187,7 @@ describe("the build record screen", () => {
 
   it("the latest loaded after a stale save replaces what was typed in that section", async () => {
     const theirs = { firstStop: "-20", secondStop: "20" };
-    answer = (call) => {
+    api.answer = (call) => {
       if (call.method === "GET") {
         const record = viewOf({ ...emptyRecord(), tdc: theirs });
         record.versions.tdc = { version: 3, updatedBy: "Owner", updatedAt: "now" };
@@ -231,6 +217,6 @@ describe("the build record screen", () => {
     expect(screen.queryByRole("button", { name: "Add a check" })).toBeNull();
     await user.click(screen.getByLabelText("Finished bore", { exact: true }));
     await user.keyboard("4{Tab}");
-    expect(calls).toEqual([]);
+    expect(api.calls).toEqual([]);
   });
 });

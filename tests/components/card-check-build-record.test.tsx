@@ -5,6 +5,7 @@ import userEvent from "@testing-library/user-event";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { CardCheckForm } from "@/components/cards/card-check-form";
 import type { VerifiedBuildCard } from "@/lib/build-record/card";
+import { stubApi } from "./support/stub-api";
 
 // The public file check answering for an engine build record: what the shop issued, which
 // revision of which job, and whether a newer revision has replaced it.
@@ -29,14 +30,7 @@ const record: VerifiedBuildCard = {
 };
 
 async function checkFile(answer: unknown) {
-  vi.stubGlobal(
-    "fetch",
-    async () =>
-      new Response(JSON.stringify(answer), {
-        status: 200,
-        headers: { "content-type": "application/json" },
-      }),
-  );
+  stubApi(() => ({ status: 200, body: answer }));
   render(
     <QueryClientProvider client={new QueryClient()}>
       <CardCheckForm />
