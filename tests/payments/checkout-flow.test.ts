@@ -9,7 +9,7 @@ import { listPaymentsForInvoice, listUnappliedPayments } from "@/db/payments";
 import { createInvoice, issueInvoice } from "@/lib/billing/invoices";
 import { recordManualPayment } from "@/lib/billing/payments";
 import { resetEnvCache } from "@/lib/env";
-import { resetStripeClient } from "@/lib/payments/stripe";
+import { resetStripeClient, stripeClient } from "@/lib/payments/stripe";
 import { type FakePayments, startFakePayments } from "@/scripts/fake-payments";
 import { type BillingWorld, setUpBilling } from "../api/billing/fixtures";
 import { freshDb } from "../helpers/db";
@@ -282,8 +282,22 @@ describe("one payment page per invoice and amount", () => {
   it("opens one page when two checkouts start at once, and closes the other at the provider", async () => {
     const invoice = await issued();
     signInAs(w.users.customer);
+    // Both reach the provider before either stores its page (as two requests on two app servers
+    // can): each opens one there, and the second to store must find the first's.
+    const sessions = stripeClient().checkout.sessions;
+    const create = sessions.create.bind(sessions);
+    let arrived = 0;
+    let release = () => {};
+    const bothThere = new Promise<void>((resolve) => (release = resolve));
+    vi.spyOn(sessions, "create").mockImplementation(async (...args) => {
+      arrived += 1;
+      if (arrived === 2) release();
+      await bothThere;
+      return create(...args);
+    });
     const created = fake.deliveries.length;
     const [a, b] = await Promise.all([startCheckout(invoice.id), startCheckout(invoice.id)]);
+    expect(arrived).toBe(2);
     expect([a.status, b.status]).toEqual([201, 201]);
     expect(a.body.url).toBe(b.body.url);
     expect(await sessionRows(invoice.id)).toEqual([
