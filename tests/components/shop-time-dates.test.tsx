@@ -1,4 +1,5 @@
 // @vitest-environment jsdom
+import { QueryClient, QueryClientProvider } from "@tanstack/react-query";
 import { cleanup, render, screen, waitFor } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { renderToStaticMarkup } from "react-dom/server";
@@ -60,7 +61,9 @@ describe("dates on the shop's clock", () => {
     );
     const user = userEvent.setup();
     render(
-      <InviteCustomerButton customerId={4} email="wren@example.test" timeZone="America/Denver" />,
+      <QueryClientProvider client={new QueryClient()}>
+        <InviteCustomerButton customerId={4} email="wren@example.test" timeZone="America/Denver" />
+      </QueryClientProvider>,
     );
     await user.click(screen.getByRole("button", { name: "Invite to sign in" }));
     await user.click(screen.getByRole("button", { name: "Send invite" }));

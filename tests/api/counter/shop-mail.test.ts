@@ -18,7 +18,7 @@ import { freshDb } from "../../helpers/db";
 import { jsonRequest, noParams, params } from "../../helpers/http";
 import { signInAs } from "../../helpers/session";
 import { freePort, MailHarness } from "../../lib/mail/fake-mail";
-import { completedEvent, deliver } from "../../payments/support";
+import { completedEvent, deliver, storeSession } from "../../payments/support";
 
 let db: DB;
 let w: BillingWorld;
@@ -137,6 +137,7 @@ describe("the shop's e-mails come from the shop", () => {
   it("a payment made online is acknowledged once the provider's signed notice applies it, and only once", async () => {
     const invoice = await issuedInvoice();
     vi.spyOn(console, "info").mockImplementation(() => {});
+    await storeSession(db, invoice.id, "342.00"); // the payment page opened for the invoice
     const event = completedEvent(invoice.id, 34200);
     expect((await deliver(JSON.stringify(event))).body).toEqual({
       received: true,
