@@ -3,7 +3,7 @@
 // `next start` on http://127.0.0.1:3100 (or E2E_PORT; the fakes sit at fixed offsets from it). SIGTERM or SIGINT stops everything it started.
 import type { ChildProcess } from "node:child_process";
 import {
-  appEnvironment,
+  e2eEnvironment,
   buildApp,
   prepareFreshDatabase,
   startNext,
@@ -15,8 +15,6 @@ import {
 } from "../tests/e2e/support/app-server";
 
 const PORT = Number(process.env.E2E_PORT ?? 3100);
-const SMTP_PORT = PORT - 475;
-const PAYMENTS_PORT = PORT + 1242;
 
 /**
  * Local stand-ins for hosted services, started before the app and stopped after it. To add one,
@@ -33,20 +31,9 @@ interface LocalService {
   readyPort?: number;
 }
 
-const env = appEnvironment(PORT, PORT === 3100 ? "e2e" : `e2e-${PORT}`, {
-  SMTP_URL: `smtp://127.0.0.1:${SMTP_PORT}`,
-  FAKE_SMTP_PORT: String(SMTP_PORT),
-  STRIPE_API_BASE: `http://127.0.0.1:${PAYMENTS_PORT}`,
-  FAKE_PAYMENTS_PORT: String(PAYMENTS_PORT),
-  STRIPE_SECRET_KEY: "sk_test_local",
-  STRIPE_WEBHOOK_SECRET: "whsec_local",
-  FAKE_PAYMENTS_WEBHOOK_URL: `http://127.0.0.1:${PORT}/api/payments/webhook`,
-  // Every browser test signs in from 127.0.0.1, so the per-address sign-in limits would trip on
-  // the suite's own wrong-password cases; they are tested in process (tests/lib/auth/sign-in.test.ts,
-  // tests/security/rate-limits.test.ts). The per-e-mail limits keep their defaults here.
-  SIGN_IN_MAX_FAILURES_PER_ADDRESS: "100000",
-  RATE_LIMIT_SIGN_IN_PER_MINUTE: "100000",
-});
+const env = e2eEnvironment(PORT, PORT === 3100 ? "e2e" : `e2e-${PORT}`);
+const SMTP_PORT = Number(env.FAKE_SMTP_PORT);
+const PAYMENTS_PORT = Number(env.FAKE_PAYMENTS_PORT);
 const SERVICES: LocalService[] = [
   { name: "mail capture", args: [TSX_CLI, "scripts/fake-smtp.ts"], readyPort: SMTP_PORT },
   { name: "payments", args: [TSX_CLI, "scripts/fake-payments.ts"], readyPort: PAYMENTS_PORT },

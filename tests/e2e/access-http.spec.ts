@@ -1,7 +1,6 @@
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { expect, test } from "@playwright/test";
-import SQLite from "better-sqlite3";
 import { discoverRouteMethods, type RouteMethod } from "../access/discover";
 import {
   allowedRoles,
@@ -21,8 +20,6 @@ import { firstOf, type HttpShop, openHttpShop, type Who } from "./support/http-s
 // it. Reads go first, then writes, so a write let through (a withdrawn quote, a deleted upload)
 // cannot change what a later read answers. The records are the spec's own, made over HTTP.
 
-const PORT = Number(process.env.E2E_PORT ?? 3100);
-const DB_FILE = path.join(ROOT, "data", PORT === 3100 ? "e2e" : `e2e-${PORT}`, "counterpoise.db");
 
 const routes = discoverRouteMethods().filter((r) => ROUTE_RULES[r.key]);
 const reads = routes.filter((r) => r.method === "GET" || r.method === "HEAD");
@@ -35,18 +32,6 @@ const multipart = new Set(
 );
 
 let shop: HttpShop;
-
-/** Changes written to the database file by any connection since this one last looked. */
-function writesSeen(): () => boolean {
-  const db = new SQLite(DB_FILE, { readonly: true, fileMustExist: true });
-  const version = () => Number(db.pragma("data_version", { simple: true }));
-  const before = version();
-  return () => {
-    const changed = version() !== before;
-    db.close();
-    return changed;
-  };
-}
 
 /** Sends the route a request as `who`: an empty JSON object, or an empty form for an upload. */
 function send(route: RouteMethod, who: Who) {
@@ -65,7 +50,7 @@ const CODES = { 401: "unauthenticated", 403: "forbidden", 404: "not_found" } as 
 async function check(route: RouteMethod, who: Caller) {
   const rule = ROUTE_RULES[route.key]!;
   const expected = expectedFor(rule, who);
-  const wrote = writesSeen();
+  const wrote = shop.writesSeen();
   const res = await send(route, who);
   const where = `${route.key} as ${who}`;
   const text = await res.text();
@@ -88,7 +73,7 @@ async function check(route: RouteMethod, who: Caller) {
 
 /** For a record a customer owns: the second customer gets 404, as for a record that is not there. */
 async function checkOtherCustomer(route: RouteMethod) {
-  const wrote = writesSeen();
+  const wrote = shop.writesSeen();
   const res = await send(route, "otherCustomer");
   expect(res.status, `${route.key} as another customer`).toBe(404);
   expect(((await res.json()) as { error: { code: string } }).error.code).toBe("not_found");
@@ -112,9 +97,13 @@ const inOrder = (r: RouteMethod): Caller[] => {
 
 test.describe.configure({ mode: "serial" });
 
-test.beforeAll(async ({ baseURL }) => {
-  test.setTimeout(120_000);
-  shop = await openHttpShop(baseURL!);
+test.beforeAll(async () => {
+  test.setTimeout(180_000);
+  shop = await openHttpShop(30);
+});
+
+test.afterAll(async () => {
+  await shop?.close();
 });
 
 test("the suite finds the app's routes from the files and has a rule for each", () => {

@@ -1,7 +1,6 @@
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { expect, test } from "@playwright/test";
-import SQLite from "better-sqlite3";
 import { discoverRouteMethods, methodBody, type RouteMethod } from "../access/discover";
 import { allowedRoles, type Caller, ROUTE_RULES } from "../access/rules";
 import { ROOT } from "./support/app-server";
@@ -19,7 +18,6 @@ import { type HttpShop, openHttpShop } from "./support/http-shop";
 //   a path with a broken %-escape (%ZZ, or %C3%28, which is not UTF-8): 400.
 
 const PORT = Number(process.env.E2E_PORT ?? 3100);
-const DB_FILE = path.join(ROOT, "data", PORT === 3100 ? "e2e" : `e2e-${PORT}`, "counterpoise.db");
 /** A page on another port of the same host: same site, another origin. */
 const OTHER_PORT = `http://127.0.0.1:${PORT + 9}`;
 const LIMIT = 1024 * 1024;
@@ -62,17 +60,6 @@ function callerFor(r: RouteMethod): Caller {
 }
 
 let shop: HttpShop;
-
-function writesSeen(): () => boolean {
-  const db = new SQLite(DB_FILE, { readonly: true, fileMustExist: true });
-  const version = () => Number(db.pragma("data_version", { simple: true }));
-  const before = version();
-  return () => {
-    const changed = version() !== before;
-    db.close();
-    return changed;
-  };
-}
 
 interface EdgeCase {
   name: string;
@@ -158,7 +145,7 @@ function brokenPath(r: RouteMethod, escape: string): string | null {
 
 async function expectRefused(r: RouteMethod, who: Caller, c: EdgeCase) {
   const where = `${r.key} as ${who}, ${c.name}`;
-  const wrote = writesSeen();
+  const wrote = shop.writesSeen();
   const res = await shop.call(who, r.method, c.path ?? shop.pathFor(r), {
     headers: c.headers,
     body: r.method === "GET" || r.method === "HEAD" ? undefined : c.body,
@@ -178,9 +165,13 @@ async function expectRefused(r: RouteMethod, who: Caller, c: EdgeCase) {
 
 test.describe.configure({ mode: "serial" });
 
-test.beforeAll(async ({ baseURL }) => {
-  test.setTimeout(120_000);
-  shop = await openHttpShop(baseURL!);
+test.beforeAll(async () => {
+  test.setTimeout(180_000);
+  shop = await openHttpShop(31);
+});
+
+test.afterAll(async () => {
+  await shop?.close();
 });
 
 test("the suite knows which writes take a file and which take JSON", () => {

@@ -41,6 +41,29 @@ export function appEnvironment(
   return env as NodeJS.ProcessEnv;
 }
 
+/**
+ * The browser-test environment for an app on `port` that uses the local stand-ins of the main
+ * e2e server on `mainPort` (scripts/e2e-server.ts starts them): mail capture and payments.
+ */
+export function e2eEnvironment(port: number, folder: string, mainPort = port): NodeJS.ProcessEnv {
+  const smtpPort = mainPort - 475;
+  const paymentsPort = mainPort + 1242;
+  return appEnvironment(port, folder, {
+    SMTP_URL: `smtp://127.0.0.1:${smtpPort}`,
+    FAKE_SMTP_PORT: String(smtpPort),
+    STRIPE_API_BASE: `http://127.0.0.1:${paymentsPort}`,
+    FAKE_PAYMENTS_PORT: String(paymentsPort),
+    STRIPE_SECRET_KEY: "sk_test_local",
+    STRIPE_WEBHOOK_SECRET: "whsec_local",
+    FAKE_PAYMENTS_WEBHOOK_URL: `http://127.0.0.1:${mainPort}/api/payments/webhook`,
+    // Every browser test signs in from 127.0.0.1, so the per-address sign-in limits would trip on
+    // the suite's own wrong-password cases; they are tested in process (tests/lib/auth/sign-in.test.ts,
+    // tests/security/rate-limits.test.ts). The per-e-mail limits keep their defaults here.
+    SIGN_IN_MAX_FAILURES_PER_ADDRESS: "100000",
+    RATE_LIMIT_SIGN_IN_PER_MINUTE: "100000",
+  });
+}
+
 /** Deletes and recreates the data folder, then migrates and seeds the demo shop into it. */
 export function prepareFreshDatabase(env: NodeJS.ProcessEnv): void {
   const dataDir = path.dirname(env.DATABASE_PATH!);

@@ -1,7 +1,15 @@
+import SQLite from "better-sqlite3";
 import sharp from "sharp";
 import { paramsFor, type ShopIds, urlFor } from "../../access/params";
 import type { Caller } from "../../access/rules";
 import { DEMO_EMAIL, DEMO_PASSWORD, uniqueEmail } from "../helpers";
+import {
+  e2eEnvironment,
+  prepareFreshDatabase,
+  startNext,
+  stopProcess,
+  waitForOk,
+} from "./app-server";
 import { signInOverHttp } from "./http-session";
 
 // The records the HTTP suites (access-http.spec.ts, fuzz-http.spec.ts) call routes on, made over
@@ -24,6 +32,10 @@ export interface HttpShop {
   ): Promise<Response>;
   /** The path and query of a route pattern filled with the shop's records. */
   pathFor(route: { key: string; pattern: string }): string;
+  /** Starts watching the shop's database; the answer tells whether anything wrote since. */
+  writesSeen(): () => boolean;
+  /** Stops the shop's server. */
+  close(): Promise<void>;
 }
 
 let origin = "";
@@ -199,10 +211,22 @@ async function setUpShop(): Promise<ShopIds> {
   };
 }
 
-/** Signs everyone in and makes the records; once per spec file. */
-export async function openHttpShop(baseURL: string): Promise<HttpShop> {
-  origin = baseURL;
+/**
+ * A demo shop of the spec's own: a fresh database in data/http-<port>/ served by `next start` on
+ * E2E_PORT + `offset` (the existing build, the main e2e server's mail and payment stand-ins), so
+ * the records these suites make and the writes they let through reach no other spec's shop.
+ * Everyone signs in and the records are made once per spec file; `close` stops the server by PID.
+ */
+export async function openHttpShop(offset: number): Promise<HttpShop> {
+  const mainPort = Number(process.env.E2E_PORT ?? 3100);
+  const port = mainPort + offset;
+  const env = e2eEnvironment(port, `http-${port}`, mainPort);
+  prepareFreshDatabase(env);
+  const server = startNext(port, env, "ignore");
+  origin = `http://127.0.0.1:${port}`;
+  await waitForOk(`${origin}/api/health`, server);
   const ids = await setUpShop();
+  const dbFile = env.DATABASE_PATH!;
   return {
     origin,
     ids,
@@ -217,5 +241,16 @@ export async function openHttpShop(baseURL: string): Promise<HttpShop> {
         "http://localhost",
         "",
       ),
+    writesSeen: () => {
+      const db = new SQLite(dbFile, { readonly: true, fileMustExist: true });
+      const version = () => Number(db.pragma("data_version", { simple: true }));
+      const before = version();
+      return () => {
+        const changed = version() !== before;
+        db.close();
+        return changed;
+      };
+    },
+    close: () => stopProcess(server),
   };
 }
