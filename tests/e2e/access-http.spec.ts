@@ -20,7 +20,6 @@ import { firstOf, type HttpShop, openHttpShop, type Who } from "./support/http-s
 // it. Reads go first, then writes, so a write let through (a withdrawn quote, a deleted upload)
 // cannot change what a later read answers. The records are the spec's own, made over HTTP.
 
-
 const routes = discoverRouteMethods().filter((r) => ROUTE_RULES[r.key]);
 const reads = routes.filter((r) => r.method === "GET" || r.method === "HEAD");
 const writes = routes.filter((r) => !reads.includes(r));
