@@ -31,6 +31,8 @@ async function addFromList(editor: Locator, code: string, line: number, startsAt
   await expect(editor.getByLabel(`Line ${line} quantity`)).toHaveValue(startsAt);
 }
 
+const escapeRegExp = (text: string) => text.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
+
 /** The newest captured message whose subject matches, as the customer's mailbox would hold it. */
 async function newestMail(baseURL: string, subject: RegExp) {
   const port = Number(new URL(baseURL).port);
@@ -164,8 +166,10 @@ for (const width of [390, 1280]) {
 
       // A balance card is e-mailed; the link it carries opens the check page at the app's address.
       const v8 = await findJobPath(baseURL!, DEMO_V8);
+      const v8Id = Number(v8.split("/").pop());
       await signInAs(page, "machinist");
       await page.goto(v8);
+      const v8Number = (await page.getByRole("heading", { level: 1 }).textContent())!.trim();
       const panel = page.getByRole("region", { name: "Balance card", exact: true });
       const override = panel.getByLabel("Issue with these parts");
       if (await override.isVisible()) {
@@ -189,7 +193,15 @@ for (const width of [390, 1280]) {
       let card: Awaited<ReturnType<typeof newestMail>>;
       await expect
         .poll(async () => {
-          card = await newestMail(baseURL!, new RegExp(`\\(revision ${revision}\\)`));
+          // The message "E-mail to customer" sends, naming this job and this revision: another
+          // job's card, an earlier revision, or the re-issue notice sent on its own at issue
+          // ("Re-issued balance card for job …") never stands in for it.
+          card = await newestMail(
+            baseURL!,
+            new RegExp(
+              `^Balance card for job ${escapeRegExp(v8Number)} \\(revision ${revision}\\)$`,
+            ),
+          );
           return card?.text ?? "";
         })
         .toContain("/verify/");
@@ -207,13 +219,23 @@ for (const width of [390, 1280]) {
       // The owner's outbox: each message of the walk, sent, from the shop.
       await signInAs(page, "owner");
       const outbox = (await (await page.request.get("/api/mail/outbox")).json()) as {
-        log: { kind: string; status: string; to: string; from: string | null; jobId: number }[];
+        log: {
+          kind: string;
+          status: string;
+          to: string;
+          from: string | null;
+          jobId: number;
+          subject: string;
+        }[];
       };
       const walk = outbox.log.filter((m) => m.jobId === jobId);
       expect(walk.map((m) => m.kind).sort()).toEqual(
         ["invoice-issued", "payment-received", "quote-offered"].sort(),
       );
-      const cardMail = outbox.log.find((m) => m.kind === "balance-card");
+      const cardMail = outbox.log.find(
+        (m) => m.kind === "balance-card" && m.jobId === v8Id && m.subject === card!.subject,
+      );
+      expect(cardMail, "the card just e-mailed is in the outbox, on its own job").toBeTruthy();
       for (const m of [...walk, cardMail!]) {
         expect(m.status).toBe("sent");
         expect(m.from).toContain(SHOP);

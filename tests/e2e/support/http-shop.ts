@@ -38,10 +38,14 @@ export interface HttpShop {
   close(): Promise<void>;
 }
 
-let origin = "";
-const cookies: Partial<Record<Who, string>> = {};
+/** One shop's address and its callers' cookies: each shop has its own, never shared. */
+interface Session {
+  origin: string;
+  cookies: Partial<Record<Who, string>>;
+}
 
 async function call(
+  { origin, cookies }: Session,
   who: Who,
   method: string,
   url: string,
@@ -56,6 +60,7 @@ async function call(
 
 /** A setup step that must succeed: answers the JSON body, or fails saying what was answered. */
 async function must(
+  session: Session,
   who: Who,
   method: string,
   url: string,
@@ -63,6 +68,7 @@ async function must(
 ): Promise<Record<string, unknown>> {
   const form = body instanceof FormData;
   const res = await call(
+    session,
     who,
     method,
     url,
@@ -87,37 +93,42 @@ async function tinyPng(): Promise<Blob> {
 }
 
 /** Issues a draft with one line from the price list and answers its id. */
-async function invoiceFor(jobId: number, price: number, issue: boolean): Promise<number> {
-  const { invoice } = (await must("counter", "POST", "/api/invoices", {
+async function invoiceFor(
+  s: Session,
+  jobId: number,
+  price: number,
+  issue: boolean,
+): Promise<number> {
+  const { invoice } = (await must(s, "counter", "POST", "/api/invoices", {
     jobId,
     lines: [{ priceItemId: price, quantity: "1" }],
   })) as { invoice: { id: number } };
-  if (issue) await must("counter", "POST", `/api/invoices/${invoice.id}/issue`, {});
+  if (issue) await must(s, "counter", "POST", `/api/invoices/${invoice.id}/issue`, {});
   return invoice.id;
 }
 
-async function quoteFor(jobId: number, price: number, offer: boolean): Promise<number> {
-  const { quote } = (await must("counter", "POST", "/api/quotes", {
+async function quoteFor(s: Session, jobId: number, price: number, offer: boolean): Promise<number> {
+  const { quote } = (await must(s, "counter", "POST", "/api/quotes", {
     jobId,
     lines: [{ priceItemId: price, quantity: "1" }],
   })) as { quote: { id: number } };
-  if (offer) await must("counter", "POST", `/api/quotes/${quote.id}/offer`, {});
+  if (offer) await must(s, "counter", "POST", `/api/quotes/${quote.id}/offer`, {});
   return quote.id;
 }
 
 /** Makes the spec's records over HTTP, as the demo shop's staff would. */
-async function setUpShop(): Promise<ShopIds> {
+async function setUpShop(s: Session): Promise<ShopIds> {
   for (const role of ["owner", "machinist", "counter", "customer"] as const)
-    cookies[role] = (await signInOverHttp(origin, DEMO_EMAIL[role], DEMO_PASSWORD)).cookie;
+    s.cookies[role] = (await signInOverHttp(s.origin, DEMO_EMAIL[role], DEMO_PASSWORD)).cookie;
 
-  const { users } = (await must("owner", "GET", "/api/users")) as {
+  const { users } = (await must(s, "owner", "GET", "/api/users")) as {
     users: { id: number; email: string; customerId: number | null }[];
   };
   const customerId = users.find((u) => u.email === DEMO_EMAIL.customer)!.customerId!;
   const machinistId = users.find((u) => u.email === DEMO_EMAIL.machinist)!.id;
-  const price = Number(firstOf(await must("counter", "GET", "/api/prices"))[0]!.id);
+  const price = Number(firstOf(await must(s, "counter", "GET", "/api/prices"))[0]!.id);
 
-  const { jobs } = (await must("customer", "GET", "/api/jobs")) as {
+  const { jobs } = (await must(s, "customer", "GET", "/api/jobs")) as {
     jobs: { id: number; status: string }[];
   };
   const job = (jobs.find((j) => j.status === "weighing") ?? jobs[0])!.id;
@@ -125,21 +136,21 @@ async function setUpShop(): Promise<ShopIds> {
 
   const form = new FormData();
   form.set("file", await tinyPng(), "logo.png");
-  await must("owner", "PUT", "/api/settings/logo", form);
+  await must(s, "owner", "PUT", "/api/settings/logo", form);
 
-  const { card } = (await must("machinist", "POST", `/api/jobs/${job}/cards`, {
+  const { card } = (await must(s, "machinist", "POST", `/api/jobs/${job}/cards`, {
     override: true,
     overrideReason: "Access suite: issued with its flagged parts",
   })) as { card: { revision: number; verificationCode: string } };
-  const build = (await must("machinist", "GET", `/api/jobs/${job}/build`)) as {
+  const build = (await must(s, "machinist", "GET", `/api/jobs/${job}/build`)) as {
     record: { sections?: Record<string, { version?: number }> } | null;
   };
   const tdcVersion = build.record?.sections?.tdc?.version ?? 0;
-  await must("machinist", "PUT", `/api/jobs/${job}/build/tdc`, {
+  await must(s, "machinist", "PUT", `/api/jobs/${job}/build/tdc`, {
     version: tdcVersion,
     data: { firstStop: "-18", secondStop: "22" },
   }).catch(() => undefined); // already written by an earlier run on this server: kept as it is
-  const built = (await must("machinist", "POST", `/api/jobs/${job}/build/cards`, {})) as {
+  const built = (await must(s, "machinist", "POST", `/api/jobs/${job}/build/cards`, {})) as {
     card: { revision: number };
   };
 
@@ -147,7 +158,13 @@ async function setUpShop(): Promise<ShopIds> {
   upload.set("file", await tinyPng(), "crank-on-arrival.png");
   upload.set("category", "arrival-photo");
   upload.set("caption", "Crank as it came in");
-  const { upload: saved } = (await must("counter", "POST", `/api/jobs/${job}/uploads`, upload)) as {
+  const { upload: saved } = (await must(
+    s,
+    "counter",
+    "POST",
+    `/api/jobs/${job}/uploads`,
+    upload,
+  )) as {
     upload: { id: number };
   };
 
@@ -156,7 +173,7 @@ async function setUpShop(): Promise<ShopIds> {
   const book = async () =>
     Number(
       (
-        (await must("counter", "POST", "/api/jobs", {
+        (await must(s, "counter", "POST", "/api/jobs", {
           customerId,
           engine: "In-line four, booked by the access suite",
           spec: { layout: "inline-4", cylinders: 4 },
@@ -164,32 +181,32 @@ async function setUpShop(): Promise<ShopIds> {
       ).job.id,
     );
   const [offeredJob, draftJob] = [await book(), await book()];
-  const quote = await quoteFor(offeredJob, price, true);
-  const invoice = await invoiceFor(offeredJob, price, true);
-  const draftInvoice = await invoiceFor(draftJob, price, false);
-  const draftQuote = await quoteFor(draftJob, price, false);
-  const mail = Number(firstOf(await must("owner", "GET", "/api/mail/outbox"))[0]!.id);
+  const quote = await quoteFor(s, offeredJob, price, true);
+  const invoice = await invoiceFor(s, offeredJob, price, true);
+  const draftInvoice = await invoiceFor(s, draftJob, price, false);
+  const draftQuote = await quoteFor(s, draftJob, price, false);
+  const mail = Number(firstOf(await must(s, "owner", "GET", "/api/mail/outbox"))[0]!.id);
 
   // A second customer with an account, a job and an issued invoice of their own.
-  const { customer: other } = (await must("counter", "POST", "/api/customers", {
+  const { customer: other } = (await must(s, "counter", "POST", "/api/customers", {
     name: `Second Customer ${Date.now().toString(36)}`,
   })) as { customer: { id: number } };
   const email = uniqueEmail("access-http");
   const password = `second-${Math.random().toString(36).slice(2, 10)}-pass`;
-  await must("owner", "POST", "/api/users", {
+  await must(s, "owner", "POST", "/api/users", {
     email,
     name: "Second Customer",
     password,
     role: "customer",
     customerId: other.id,
   });
-  cookies.otherCustomer = (await signInOverHttp(origin, email, password)).cookie;
-  const { job: otherJob } = (await must("counter", "POST", "/api/jobs", {
+  s.cookies.otherCustomer = (await signInOverHttp(s.origin, email, password)).cookie;
+  const { job: otherJob } = (await must(s, "counter", "POST", "/api/jobs", {
     customerId: other.id,
     engine: "In-line four, invented for the access suite",
     spec: { layout: "inline-4", cylinders: 4 },
   })) as { job: { id: number } };
-  const otherInvoice = await invoiceFor(otherJob.id, price, true);
+  const otherInvoice = await invoiceFor(s, otherJob.id, price, true);
 
   return {
     job,
@@ -223,9 +240,10 @@ export async function openHttpShop(offset: number): Promise<HttpShop> {
   const env = e2eEnvironment(port, `http-${port}`, mainPort);
   prepareFreshDatabase(env);
   const server = startNext(port, env, "ignore");
-  origin = `http://127.0.0.1:${port}`;
+  const origin = `http://127.0.0.1:${port}`;
+  const cookies: Session["cookies"] = {};
   await waitForOk(`${origin}/api/health`, server);
-  const ids = await setUpShop();
+  const ids = await setUpShop({ origin, cookies });
   const dbFile = env.DATABASE_PATH!;
   return {
     origin,
