@@ -1,11 +1,10 @@
 import { redirect } from "next/navigation";
 import { getDb } from "@/db/client";
-import type { Role } from "@/db/schema";
 import { isSessionEnded } from "@/db/sessions";
 import { findUserForSession, type User } from "@/db/users";
 import { HttpError } from "@/lib/http/errors";
 import { SESSION_ENDED } from "./messages";
-import { type Permission, may, ROLES, rolesFor } from "./policy";
+import { type Permission, may } from "./policy";
 import { readSession } from "./session";
 
 export type Access =
@@ -18,17 +17,6 @@ export type Access =
  * (a disable, a role or password change adds one) and its session must not have been signed out.
  */
 export async function checkPermission(permission: Permission): Promise<Access> {
-  return checkAccess(rolesFor(permission), permission);
-}
-
-/**
- * The session checks behind `checkPermission`, for a list of roles.
- * @deprecated Ask for a permission (lib/auth/policy.ts) instead of naming roles.
- */
-export async function checkAccess(
-  allowed: readonly Role[],
-  permission?: Permission,
-): Promise<Access> {
   const claim = await readSession();
   if (!claim) return { ok: false, status: 401, message: "Sign in to continue." };
   const found = await findUserForSession(getDb(), claim.userId);
@@ -42,7 +30,7 @@ export async function checkAccess(
     (claim.sid !== null && (await isSessionEnded(getDb(), claim.sid)))
   )
     return { ok: false, status: 401, message: SESSION_ENDED, ended: true };
-  if (permission ? !may(user, permission) : !allowed.includes(user.role))
+  if (!may(user, permission))
     return { ok: false, status: 403, message: "Your role may not do this." };
   return { ok: true, user };
 }
@@ -61,14 +49,6 @@ export async function requirePagePermission(permission: Permission, returnTo = "
   return userOrRedirect(await checkPermission(permission), returnTo);
 }
 
-/**
- * For route handlers, by a list of roles.
- * @deprecated Use `requireApiPermission`.
- */
-export async function requireApiUser(allowed: readonly Role[]): Promise<User> {
-  return userOrThrow(await checkAccess(allowed));
-}
-
 function userOrThrow(access: Access): User {
   if (!access.ok)
     throw new HttpError(
@@ -79,22 +59,9 @@ function userOrThrow(access: Access): User {
   return access.user;
 }
 
-/**
- * For pages, by a list of roles.
- * @deprecated Use `requirePagePermission`.
- */
-export async function requirePageUser(allowed: readonly Role[], returnTo = "/"): Promise<User> {
-  return userOrRedirect(await checkAccess(allowed), returnTo);
-}
-
 function userOrRedirect(access: Access, returnTo: string): User {
   if (access.ok) return access.user;
   if (access.status === 401)
     redirect(`/sign-in?next=${encodeURIComponent(returnTo)}${access.ended ? "&expired=1" : ""}`);
   redirect("/no-access");
 }
-
-/** @deprecated Ask for a permission: `requireApiPermission("use-app")`. */
-export const ALL_ROLES: readonly Role[] = ROLES;
-/** @deprecated Ask for a permission: `requireApiPermission("read-shop-setup")` and the like. */
-export const SHOP_ROLES: readonly Role[] = rolesFor("see-board");

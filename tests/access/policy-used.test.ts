@@ -35,8 +35,6 @@ const FORBIDDEN: { name: string; pattern: RegExp }[] = [
 /** Files that may name roles, and why. */
 const EXEMPT: Record<string, string> = {
   "lib/auth/policy.ts": "the policy itself",
-  "lib/auth/guard.ts":
-    "the session checks, and the role-list guards kept for callers not yet moved",
   "lib/demo/seed.ts": "the demo's accounts, one of each role (data, not a decision)",
 };
 
