@@ -26,6 +26,8 @@ import { removeStoredFiles, writeStoredFile } from "./storage";
  * Keeps a file for a job: its kind is read from the bytes (JPEG, PNG, WebP or PDF only), it is
  * stored under a random name of ours in UPLOADS_DIR, images get a thumbnail, and the row and its
  * audit entry are written together. The uploader's file name is kept for display only.
+ * The caller has already checked that `actor` may see the job (`findJobForUser`): the upload
+ * route does it before reading the body, so a refused upload is not read at all.
  */
 export async function saveJobUpload(
   db: DB,
@@ -34,7 +36,6 @@ export async function saveJobUpload(
   actor: User,
   limits: { maxBytes: number },
 ): Promise<UploadView> {
-  await findJobForUser(db, jobId, actor);
   const { file } = input;
   if (file.size === 0) {
     throw new HttpError(422, "invalid_input", "The file is empty.", { file: "The file is empty." });

@@ -3,7 +3,7 @@ import { createAuditEntry } from "@/db/audit";
 import type { DB } from "@/db/client";
 import { lockJob } from "@/db/dialect";
 import { NotFoundError, StaleWriteError } from "@/db/errors";
-import { jobExists, markJobUpdated } from "@/db/jobs";
+import { type Job, jobExists, markJobUpdated } from "@/db/jobs";
 import {
   findLastPairing,
   movePartWeights,
@@ -11,6 +11,7 @@ import {
   type PistonMove,
 } from "@/db/pairing";
 import type { Database, PartKind } from "@/db/schema";
+import { loadWorkshop, type Workshop } from "./load";
 
 /** A pairing request that is not a permutation of the job's cylinders (answered 422). */
 export class PairingInputError extends Error {
@@ -27,49 +28,52 @@ export const PISTON_ASSEMBLY: readonly PartKind[] = ["piston", "wristPin", "reta
  * its new piston comes from and must be a permutation of cylinders 1…`cylinders`.
  * `lastPairingId` (when given) is the last pairing the caller saw (0: none); if another was
  * applied or undone since, nothing moves. Recorded in the change history as "pair" with the
- * pistons that moved. Returns that record, or null when nothing moved.
+ * pistons that moved (nothing is recorded when nothing moved). Answers the job's bench record
+ * as it stands after the move (`lastPairing` is the record written).
  *
- * @example await applyPairing(db, { id: jobId, cylinders: 4 }, [{ rodCylinder: 1, pistonFromCylinder: 2 }, { rodCylinder: 2, pistonFromCylinder: 1 }, …], userId, 0)
+ * @example const workshop = await applyPairing(db, job, [{ rodCylinder: 1, pistonFromCylinder: 2 }, { rodCylinder: 2, pistonFromCylinder: 1 }, …], userId, 0)
  * @throws PairingInputError (422) when `moves` is not a permutation of the cylinders;
  *   StaleWriteError (409) when another pairing was applied or undone since `lastPairingId`;
  *   NotFoundError when there is no such job
  */
 export async function applyPairing(
   db: DB,
-  job: { id: number; cylinders: number },
+  job: Job,
   moves: PistonMove[],
   actorId: number | null,
   lastPairingId?: number,
   now = new Date(),
-): Promise<PairingRecord | null> {
-  checkPermutation(moves, job.cylinders);
-  return db.transaction().execute(async (trx) => {
+): Promise<Workshop> {
+  checkPermutation(moves, job.spec.cylinders ?? 0);
+  await db.transaction().execute(async (trx) => {
     await lockJob(trx, job.id);
     const last = await findLastPairing(trx, job.id);
     if (lastPairingId !== undefined && (last?.id ?? 0) !== lastPairingId)
       throw new StaleWriteError("pairing", last?.id ?? 0);
     const changed = moves.filter((m) => m.rodCylinder !== m.pistonFromCylinder);
-    if (changed.length === 0) return null;
-    return movePistons(trx, job.id, changed, "pair", actorId, now);
+    if (changed.length > 0) await movePistons(trx, job.id, changed, "pair", actorId, now);
   });
+  return loadWorkshop(db, job);
 }
 
 /**
  * Undoes the last pairing applied (one step back): every piston it moved goes back to the rod
- * it came from. Recorded in the change history as "pair-undo" with the moves made.
+ * it came from. Recorded in the change history as "pair-undo" with the moves made. Answers the
+ * job's bench record as it stands after the undo.
  *
- * @example await undoPairing(db, jobId, record.id, userId)
+ * @example const workshop = await undoPairing(db, job, record.id, userId)
  * @throws StaleWriteError (409) unless `pairingId` is the last pairing action on the job and it
  *   is an applied pairing (not already undone); NotFoundError when there is no such job
  */
 export async function undoPairing(
   db: DB,
-  jobId: number,
+  job: Job,
   pairingId: number,
   actorId: number | null,
   now = new Date(),
-): Promise<PairingRecord> {
-  return db.transaction().execute(async (trx) => {
+): Promise<Workshop> {
+  const jobId = job.id;
+  await db.transaction().execute(async (trx) => {
     await lockJob(trx, jobId);
     const last = await findLastPairing(trx, jobId);
     if (!last || last.id !== pairingId || last.action !== "pair")
@@ -78,8 +82,9 @@ export async function undoPairing(
       rodCylinder: m.pistonFromCylinder,
       pistonFromCylinder: m.rodCylinder,
     }));
-    return movePistons(trx, jobId, back, "pair-undo", actorId, now, { undoes: pairingId });
+    await movePistons(trx, jobId, back, "pair-undo", actorId, now, { undoes: pairingId });
   });
+  return loadWorkshop(db, job);
 }
 
 function checkPermutation(moves: PistonMove[], cylinders: number): void {
@@ -106,7 +111,7 @@ async function movePistons(
   actorId: number | null,
   now: Date,
   before?: unknown,
-): Promise<PairingRecord> {
+): Promise<void> {
   if (!(await jobExists(trx, jobId))) throw new NotFoundError("job");
   const at = now.toISOString();
   await movePartWeights(trx, jobId, moves, PISTON_ASSEMBLY, actorId, at);
@@ -119,5 +124,4 @@ async function movePistons(
     after: moves,
   });
   await markJobUpdated(trx, jobId, at);
-  return (await findLastPairing(trx, jobId))!;
 }

@@ -1,9 +1,12 @@
 import { createAuditEntry } from "@/db/audit";
 import type { DB } from "@/db/client";
 import { lockJob } from "@/db/dialect";
-import { StaleWriteError } from "@/db/errors";
+import { NotFoundError, StaleWriteError } from "@/db/errors";
+import { findJobById } from "@/db/jobs";
 import type { PartKind } from "@/db/schema";
 import { findPartTarget, insertPartTarget, type PartTarget, updatePartTarget } from "@/db/weights";
+import { loadWorkshop } from "./load";
+import type { WorkshopPlan } from "./plan";
 
 export interface PartTargetWrite {
   jobId: number;
@@ -16,17 +19,19 @@ export interface PartTargetWrite {
 
 /**
  * Sets or clears (null: back to the lightest part) the target for one kind of part, if nobody
- * changed it since the writer read it; audited with the target before and after.
+ * changed it since the writer read it; audited with the target before and after. Answers the
+ * target as saved (with its new version) and the job's plan worked out with it.
  *
- * @example await savePartTarget(db, { jobId, kind: "piston", target: "512.0", baseVersion: 0 }, userId)
- * @throws StaleWriteError (409) when the target changed since `baseVersion`
+ * @example const { target, plan } = await savePartTarget(db, { jobId, kind: "piston", target: "512.0", baseVersion: 0 }, userId)
+ * @throws StaleWriteError (409) when the target changed since `baseVersion`;
+ *   NotFoundError when there is no such job
  */
 export async function savePartTarget(
   db: DB,
   write: PartTargetWrite,
   actorId: number | null,
-): Promise<PartTarget> {
-  return db.transaction().execute(async (trx) => {
+): Promise<{ target: PartTarget; plan: WorkshopPlan }> {
+  const target = await db.transaction().execute(async (trx): Promise<PartTarget> => {
     await lockJob(trx, write.jobId);
     const before = await findPartTarget(trx, write.jobId, write.kind);
     const currentVersion = before?.version ?? 0;
@@ -43,4 +48,7 @@ export async function savePartTarget(
     });
     return { kind: write.kind, target: write.target, version: currentVersion + 1 };
   });
+  const job = await findJobById(db, write.jobId);
+  if (!job) throw new NotFoundError("job");
+  return { target, plan: (await loadWorkshop(db, job)).plan };
 }

@@ -4,7 +4,6 @@ import { requireApiPermission } from "@/lib/auth/guard";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
 import { pairingApplySchema } from "@/lib/validation/workshop";
-import { loadWorkshop } from "@/lib/workshop/load";
 
 /**
  * Applies a piston-to-rod pairing: the piston assemblies move to their new rods, recorded in
@@ -15,7 +14,5 @@ export const POST = route<{ id: string }>(async (req, { params }) => {
   const db = getDb();
   const job = await findJobForUser(db, parseId((await params).id), user);
   const { assignment, lastPairingId } = await parseJson(req, pairingApplySchema);
-  const cylinders = job.spec.cylinders ?? 0;
-  await applyPairing(db, { id: job.id, cylinders }, assignment, user.id, lastPairingId);
-  return json(await loadWorkshop(db, job));
+  return json(await applyPairing(db, job, assignment, user.id, lastPairingId));
 });

@@ -24,6 +24,7 @@ const UPLOAD = {
 export const POST = route<Params>(UPLOAD, async (req, { params }) => {
   const actor = await requireApiPermission("manage-uploads");
   const jobId = parseId((await params).id);
+  // Here, not in saveJobUpload: a job they may not see is refused before the body is read.
   await findJobForUser(getDb(), jobId, actor);
   const maxBytes = uploadLimitBytes();
   const form = await readUploadForm(req, maxBytes);

@@ -4,7 +4,6 @@ import { requireApiPermission } from "@/lib/auth/guard";
 import { json, parseId, parseJson, route } from "@/lib/http/route";
 import { findJobForUser } from "@/lib/jobs/access";
 import { pairingUndoSchema } from "@/lib/validation/workshop";
-import { loadWorkshop } from "@/lib/workshop/load";
 
 /**
  * Undoes the last pairing applied (one step back; 409 when `pairingId` is not the last pairing
@@ -15,6 +14,5 @@ export const POST = route<{ id: string }>(async (req, { params }) => {
   const db = getDb();
   const job = await findJobForUser(db, parseId((await params).id), user);
   const { pairingId } = await parseJson(req, pairingUndoSchema);
-  await undoPairing(db, job.id, pairingId, user.id);
-  return json(await loadWorkshop(db, job));
+  return json(await undoPairing(db, job, pairingId, user.id));
 });
