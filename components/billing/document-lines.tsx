@@ -1,5 +1,5 @@
 import type { DocumentLine } from "@/db/quotes";
-import { formatMoney, formatRate } from "@/lib/billing/format";
+import { formatMoney, formatQuantity, formatRate } from "@/lib/billing/format";
 
 /** A quote's or invoice's lines and totals, read only. */
 export function DocumentLines({
@@ -34,7 +34,7 @@ export function DocumentLines({
           <tr key={l.id} className="border-b border-graphite-100">
             <td className="py-1.5 pr-3 font-mono text-xs">{l.code}</td>
             <td className="py-1.5 pr-3">{l.description}</td>
-            <td className="py-1.5 pr-3 text-right font-mono">{l.quantity}</td>
+            <td className="py-1.5 pr-3 text-right font-mono">{formatQuantity(l.quantity)}</td>
             <td className="py-1.5 pr-3 text-right font-mono">{money(l.unitPrice)}</td>
             <td className="py-1.5 text-right font-mono">{money(l.lineTotal)}</td>
           </tr>

@@ -1,10 +1,4 @@
-import type {
-  InvoiceStatus,
-  PaymentMethod,
-  PriceKind,
-  PriceUnit,
-  QuoteStatus,
-} from "@/db/billing-schema";
+import type { InvoiceStatus, PriceKind, PriceUnit, QuoteStatus } from "@/db/billing-schema";
 
 export const PRICE_KIND_LABEL: Record<PriceKind, string> = {
   "balancing-by-layout": "Balancing, by engine layout",
@@ -44,9 +38,5 @@ export const STATUS_TONE: Record<QuoteStatus | InvoiceStatus, string> = {
   void: "bg-graphite-200 text-graphite-600",
 };
 
-export const PAYMENT_METHOD_LABEL: Record<PaymentMethod, string> = {
-  online: "Online",
-  cash: "Cash",
-  "bank-transfer": "Bank transfer",
-  "card-in-shop": "Card in the shop",
-};
+/** One set of payment-method words, shared with the invoice PDF. */
+export { PAYMENT_METHOD_LABEL } from "@/lib/billing/format";

@@ -17,12 +17,14 @@ export function isStaleWrite(e: unknown): e is ApiError {
   );
 }
 
-/** What the refusal says is saved now, where its body carries it. */
+/**
+ * What the refusal says is saved now, where its body carries it in words. The stored version
+ * number (`currentVersion`) is bookkeeping, never shown to a person.
+ */
 function currentFrom(error: unknown): string | null {
   if (!isStaleWrite(error)) return null;
-  const { current, currentVersion } = error.body;
+  const { current } = error.body;
   if (typeof current === "string" && current.trim() !== "") return current;
-  if (typeof currentVersion === "number") return `saved version ${currentVersion}`;
   return null;
 }
 

@@ -1,7 +1,12 @@
 import { Document, Page, renderToBuffer, StyleSheet, Text, View } from "@react-pdf/renderer";
 import type { Invoice, Issuer } from "@/db/invoices";
 import type { Payment } from "@/db/payments";
-import { formatMoney, formatRate } from "@/lib/billing/format";
+import {
+  formatMoney,
+  formatQuantity,
+  formatRate,
+  PAYMENT_METHOD_LABEL,
+} from "@/lib/billing/format";
 import { subtractMoney } from "@/lib/billing/money";
 import { shopDate } from "@/lib/dates/shop-time";
 import { PDF_FONTS, registerPdfFonts } from "./fonts";
@@ -81,13 +86,6 @@ const s = StyleSheet.create({
     justifyContent: "space-between",
   },
 });
-
-const METHOD_LABEL: Record<Payment["method"], string> = {
-  online: "Paid online",
-  cash: "Cash",
-  "bank-transfer": "Bank transfer",
-  "card-in-shop": "Card in the shop",
-};
 
 /** An instant as the date on the shop's calendar (an evening payment west of Greenwich keeps its day). */
 const dayIn = (timeZone: string) => (iso: string | null) =>
@@ -173,7 +171,7 @@ export function InvoiceDocument({
           <View key={line.id} style={s.row} wrap={false}>
             <Text style={s.cCode}>{line.code ?? ""}</Text>
             <Text style={s.cDesc}>{line.description}</Text>
-            <Text style={s.cQty}>{line.quantity}</Text>
+            <Text style={s.cQty}>{formatQuantity(line.quantity)}</Text>
             <Text style={s.cUnit}>{money(line.unitPrice)}</Text>
             <Text style={s.cAmt}>{money(line.lineTotal)}</Text>
           </View>
@@ -218,7 +216,7 @@ export function InvoiceDocument({
             {payments.map((p) => (
               <View key={p.id} style={s.factRow}>
                 <Text>
-                  {day(p.receivedAt)} · {METHOD_LABEL[p.method]}
+                  {day(p.receivedAt)} · {PAYMENT_METHOD_LABEL[p.method]}
                   {p.reference ? ` · ${p.reference}` : ""}
                 </Text>
                 <Text style={s.mono}>{money(p.amount)}</Text>

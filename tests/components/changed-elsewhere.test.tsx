@@ -64,11 +64,22 @@ describe("ChangedElsewhere", () => {
     expect(reload).toHaveBeenCalledOnce();
   });
 
-  it("shows what the refusal says is saved now", () => {
+  it("shows what the refusal says is saved now, in words", () => {
+    const withWords = new ApiError(409, {
+      error: { code: "stale_write", message: "weight was changed by someone else" },
+      currentVersion: 4,
+      current: "499.0 g",
+    });
+    render(<ChangedElsewhere what="the record" onReload={() => {}} error={withWords} />);
+    expect(screen.getByTestId("changed-elsewhere").textContent).toContain("Saved now: 499.0 g.");
+  });
+
+  it("never shows the stored version number, an internal count, to a person", () => {
     render(<ChangedElsewhere what="the record" onReload={() => {}} error={stale} />);
-    expect(screen.getByTestId("changed-elsewhere").textContent).toContain(
-      "Saved now: saved version 4.",
-    );
+    const text = screen.getByTestId("changed-elsewhere").textContent ?? "";
+    expect(text).not.toContain("version");
+    expect(text).not.toMatch(/\b4\b/);
+    expect(text).not.toContain("Saved now");
   });
 
   it("prefers what the screen knows is saved now, and says nothing when neither knows", () => {
