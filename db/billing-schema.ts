@@ -145,6 +145,10 @@ export interface PaymentSessionTable {
   url: ColumnType<string | null, string | null | undefined, string | null>;
   /** When the provider closes the page (ISO 8601). */
   expires_at: ColumnType<string | null, string | null | undefined, string | null>;
+  /** When closing the page at the provider last failed (ISO 8601); null when nothing is pending. */
+  close_failed_at: ColumnType<string | null, string | null | undefined, string | null>;
+  /** Why it failed, as the provider or the network said. */
+  close_error: ColumnType<string | null, string | null | undefined, string | null>;
 }
 
 export type UnappliedPaymentStatus = "open" | "applied" | "refunded";

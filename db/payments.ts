@@ -94,6 +94,8 @@ export interface PaymentSession {
   url: string | null;
   expiresAt: string | null;
   createdAt: string;
+  /** When closing it at the provider last failed; null when nothing is pending. */
+  closeFailedAt: string | null;
 }
 
 function toPaymentSession(row: PaymentSessionRow): PaymentSession {
@@ -106,6 +108,7 @@ function toPaymentSession(row: PaymentSessionRow): PaymentSession {
     url: row.url,
     expiresAt: row.expires_at,
     createdAt: row.created_at,
+    closeFailedAt: row.close_failed_at,
   };
 }
 
@@ -173,10 +176,48 @@ export async function markPaymentSessionComplete(db: Db, id: string): Promise<vo
 export async function markPaymentSessionExpired(db: Db, id: string): Promise<void> {
   await db
     .updateTable("payment_sessions")
-    .set({ status: "expired", url: null })
+    .set({ status: "expired", url: null, close_failed_at: null, close_error: null })
     .where("id", "=", id)
     .where("status", "=", "open")
     .execute();
+}
+
+/** Records that closing this page at the provider failed, so a later checkout tries again. */
+export async function markPaymentSessionCloseFailed(
+  db: Db,
+  id: string,
+  at: string,
+  error: string,
+): Promise<void> {
+  await db
+    .updateTable("payment_sessions")
+    .set({ close_failed_at: at, close_error: error.slice(0, 500) })
+    .where("id", "=", id)
+    .where("status", "=", "open")
+    .execute();
+}
+
+/** Nothing is left to close for this page (the provider has it paid or closed). */
+export async function clearPaymentSessionCloseFailure(db: Db, id: string): Promise<void> {
+  await db
+    .updateTable("payment_sessions")
+    .set({ close_failed_at: null, close_error: null })
+    .where("id", "=", id)
+    .execute();
+}
+
+/** Open pages whose closing at the provider failed, oldest failure first. */
+export async function listPaymentSessionsToClose(db: Db, limit = 20): Promise<PaymentSession[]> {
+  const rows = await db
+    .selectFrom("payment_sessions")
+    .selectAll()
+    .where("status", "=", "open")
+    .where("close_failed_at", "is not", null)
+    .orderBy("close_failed_at")
+    .orderBy("id")
+    .limit(limit)
+    .execute();
+  return rows.map(toPaymentSession);
 }
 
 /**

@@ -23,6 +23,7 @@ import * as m0201 from "./20261202_0201_create_ended_sessions";
 import * as m0202 from "./20261202_0202_create_rate_limits";
 import * as m0250 from "./20261202_0250_add_payment_reconciliation";
 import * as m0260 from "./20261202_0260_add_price_item_unit";
+import * as m0280 from "./20261202_0280_add_payment_session_close_failure";
 
 // A static map of the same files, for tests and for code running inside Next (which cannot read
 // the folder at run time). `scripts/migrate.ts` reads the folder itself. Add each new file here.
@@ -51,4 +52,5 @@ export const migrations: Record<string, Migration> = {
   "20261202_0202_create_rate_limits": m0202,
   "20261202_0250_add_payment_reconciliation": m0250,
   "20261202_0260_add_price_item_unit": m0260,
+  "20261202_0280_add_payment_session_close_failure": m0280,
 };

@@ -14,6 +14,7 @@ import { findJobById } from "@/db/jobs";
 import { takeNextNumber } from "./numbering";
 import { findQuoteById } from "@/db/quotes";
 import { findShopSettings } from "@/db/settings";
+import { closeInvoicePaymentPages } from "@/lib/payments/close-pages";
 import {
   changeDocument,
   createDocument,
@@ -163,14 +164,18 @@ export async function issueInvoiceToCustomer(
   return invoice;
 }
 
-/** Voids an issued invoice nothing has been paid on; it keeps its number. */
+/**
+ * Voids an issued invoice nothing has been paid on; it keeps its number. Its payment pages still
+ * open online are closed at the provider afterwards (a failure is recorded and retried, never
+ * undoing the void).
+ */
 export async function voidInvoice(
   db: DB,
   id: number,
   actorId: number | null,
   now = new Date(),
 ): Promise<Invoice> {
-  return db.transaction().execute((trx) =>
+  const voided = await db.transaction().execute((trx) =>
     changeDocument(trx, "invoice", id, {
       action: "void",
       actorId,
@@ -190,6 +195,8 @@ export async function voidInvoice(
       }),
     }),
   );
+  await closeInvoicePaymentPages(db, id); // never throws
+  return voided;
 }
 
 /** Throws away a draft (it never had a number). */

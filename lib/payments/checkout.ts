@@ -15,6 +15,7 @@ import { compareMoney, subtractMoney, toMinorUnits } from "@/lib/billing/money";
 import { lockInvoice } from "@/lib/billing/payments";
 import { appBaseUrl } from "@/lib/env";
 import { HttpError } from "@/lib/http/errors";
+import { closeAtProvider, retryPaymentPageClosures } from "./close-pages";
 import { stripeClient } from "./stripe";
 
 /** The provider's ceiling for one Checkout payment, in minor units (999,999.99). */
@@ -85,25 +86,15 @@ function unreachable(error: unknown): HttpError {
  * reconcile, and a second page must not be opened beside it.
  */
 async function expireAtProvider(db: DB, sessionId: string): Promise<void> {
-  const stripe = stripeClient();
-  try {
-    await stripe.checkout.sessions.expire(sessionId);
-  } catch (error) {
-    let status: Stripe.Checkout.Session["status"] | undefined;
-    try {
-      status = (await stripe.checkout.sessions.retrieve(sessionId)).status;
-    } catch {
-      throw unreachable(error);
-    }
-    if (status === "complete") {
-      throw new HttpError(
-        409,
-        "payment_in_progress",
-        "A payment on this invoice was just made online and is being recorded. Look again in a minute.",
-      );
-    }
-    if (status !== "expired") throw unreachable(error);
+  const result = await closeAtProvider(sessionId);
+  if (result.kind === "complete") {
+    throw new HttpError(
+      409,
+      "payment_in_progress",
+      "A payment on this invoice was just made online and is being recorded. Look again in a minute.",
+    );
   }
+  if (result.kind === "failed") throw unreachable(result.error);
   await markPaymentSessionExpired(db, sessionId);
 }
 
@@ -113,7 +104,7 @@ async function expireAtProvider(db: DB, sessionId: string): Promise<void> {
  * so they cannot be charged twice. When what is owed changed since a page was opened (money taken
  * at the counter), that page is closed at the provider first and a new one opened. Two checkouts at
  * once end with one open page: the second finds the first's under the invoice's lock and closes its
- * own. A customer may do it for their own invoices only (anyone else's is a 404); the invoice is
+ * own. Any page whose closing failed earlier (see closeInvoicePaymentPages) is tried again first. A customer may do it for their own invoices only (anyone else's is a 404); the invoice is
  * marked paid later, by the provider's signed notification, never by the redirect back.
  *
  * @throws HttpError 409 `not_payable` (not issued, nothing owed), 409 `payment_in_progress`,
@@ -129,6 +120,8 @@ export async function startCheckout(
 ): Promise<CheckoutStart> {
   const visible = await findInvoiceForUser(db, invoiceId, user);
   owedOn(visible);
+  // Pages that money at the counter or a void should have closed, when the provider was out of reach.
+  await retryPaymentPageClosures(db);
 
   // What is open now, read under the invoice's lock.
   const plan = await db.transaction().execute(async (trx) => {
