@@ -2,6 +2,7 @@ import { createHash } from "node:crypto";
 import { createAuditEntry } from "@/db/audit";
 import type { DB } from "@/db/client";
 import {
+  type CardRowInput,
   findNextCardRevision,
   findShopLogo,
   insertCard,
@@ -121,19 +122,15 @@ export async function issueCard(
   return toCardSummary(stored, job.number);
 }
 
-export interface NewCard {
-  jobId: number;
-  revision: number;
-  pageSize: CardPageSize;
-  pdf: Buffer;
-  sha256: string;
-  dataJson: string;
-  verificationCode: string;
-  issuedAt: string;
+/**
+ * A card to store: the row as the repository writes it, without who issued it (the actor given
+ * to `createCard`), the job's fingerprint optional, and the override reason for the audit entry.
+ */
+export type NewCard = Omit<CardRowInput, "issuedBy" | "jobFingerprint"> & {
   jobFingerprint?: string | null;
   /** Why it was issued with parts outside the band, light or held (kept in the audit entry). */
   overrideReason?: string | null;
-}
+};
 
 /**
  * Stores an issued card and, in the same transaction, marks the revisions it replaces as
@@ -158,15 +155,9 @@ export async function createCard(
         "Another card was issued for this job a moment ago; look at the list and issue again if needed.",
       );
     }
+    const { overrideReason: _reason, ...row } = card;
     const stored = await insertCard(trx, {
-      jobId: card.jobId,
-      revision: card.revision,
-      pageSize: card.pageSize,
-      pdf: card.pdf,
-      sha256: card.sha256,
-      dataJson: card.dataJson,
-      verificationCode: card.verificationCode,
-      issuedAt: card.issuedAt,
+      ...row,
       issuedBy: actorId,
       jobFingerprint: card.jobFingerprint ?? null,
     });
