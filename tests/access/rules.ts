@@ -1,8 +1,10 @@
 import type { Role } from "@/db/schema";
 import { type Ownership, type Permission, ruleOf } from "@/lib/auth/policy";
+import { WHO_DOES_WHAT } from "./who-does-what";
 
-// Which permission each route method and server action asks for. The roles come from the policy
-// (lib/auth/policy.ts), never from here. Every route handler method and every server action the
+// Which permission each route method and server action asks for. The roles expected for each
+// permission come from the shop's hand-written table (who-does-what.ts), not from the policy, so a
+// wrong policy fails here as well as in who-does-what.test.ts. Every route handler method and every server action the
 // app has must be listed: access-matrix.test.ts finds them in the code and fails on one without a
 // rule, on a rule whose route or action is gone, and on a handler that asks for another permission.
 
@@ -55,6 +57,7 @@ export const ROUTE_RULES: Record<string, RouteRule> = {
   "GET /api/jobs/[id]": can("read-job"),
   "PATCH /api/jobs/[id]": can("edit-job"),
   "GET /api/jobs/[id]/workshop": can("read-bench"),
+  "GET /api/jobs/[id]/history": can("read-bench"),
   "PUT /api/jobs/[id]/weights": can("weigh"),
   "PUT /api/jobs/[id]/targets": can("weigh"),
   "POST /api/jobs/[id]/pairing": can("weigh"),
@@ -155,9 +158,9 @@ export const CALLERS: readonly Caller[] = [
   "customer",
 ];
 
-/** The roles a rule lets past the role check, read from the policy. */
+/** The roles a rule should let past the role check, from the shop's table (who-does-what.ts). */
 export function allowedRoles(rule: RouteRule): readonly Role[] {
-  return rule.public ? [] : ruleOf(rule.permission).roles;
+  return rule.public ? [] : WHO_DOES_WHAT[rule.permission];
 }
 
 /** How a customer is kept to their own records under this rule (from the policy). */
@@ -176,5 +179,5 @@ export function expectedFor(rule: RouteRule, caller: Caller): "allowed" | 401 | 
 /** The same for a server action's permission. */
 export function expectedForAction(permission: Permission, caller: Caller): null | 401 | 403 {
   if (caller === "anonymous") return 401;
-  return ruleOf(permission).roles.includes(caller) ? null : 403;
+  return WHO_DOES_WHAT[permission].includes(caller) ? null : 403;
 }

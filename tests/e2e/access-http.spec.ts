@@ -16,8 +16,8 @@ import { firstOf, type HttpShop, openHttpShop, type Who } from "./support/http-s
 // The access matrix (tests/access/access-matrix.test.ts) again, against the built app over real
 // HTTP: every route method found in app/ × every role signed in through next-auth's own sign-in,
 // anonymous, and a second customer for the records a customer owns. The expected answer comes from
-// the permission each route asks for (tests/access/rules.ts) and the roles lib/auth/policy.ts gives
-// it. Reads go first, then writes, so a write let through (a withdrawn quote, a deleted upload)
+// the permission each route asks for (tests/access/rules.ts) and the roles the shop's hand-written
+// table gives it (tests/access/who-does-what.ts), not the policy under test. Reads go first, then writes, so a write let through (a withdrawn quote, a deleted upload)
 // cannot change what a later read answers. The records are the spec's own, made over HTTP.
 
 const routes = discoverRouteMethods().filter((r) => ROUTE_RULES[r.key]);
