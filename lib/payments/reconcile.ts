@@ -4,11 +4,13 @@ import { createAuditEntry } from "@/db/audit";
 import { ConflictError, NotFoundError, StaleWriteError } from "@/db/errors";
 import type { Invoice } from "@/db/invoices";
 import {
+  findPaymentSession,
   listUnappliedPayments,
   lockUnappliedPayment,
   resolveUnappliedPayment,
   type UnappliedPayment,
   type UnappliedPaymentListed,
+  unappliedPaymentForSession,
 } from "@/db/payments";
 import { formatMoney } from "@/lib/billing/format";
 import { compareMoney, subtractMoney } from "@/lib/billing/money";
@@ -173,4 +175,21 @@ export async function listPaymentsToReconcile(
     status: status === "all" ? undefined : status,
     invoiceId: query.invoiceId,
   });
+}
+
+/**
+ * The payment the customer just made on `sessionId` when it was kept to reconcile instead of
+ * going on the invoice, for the page they return to; undefined when there is none or the session
+ * is not this invoice's (the caller has checked the person may see the invoice).
+ */
+export async function heldPaymentForReturn(
+  db: DB,
+  invoiceId: number,
+  sessionId: string,
+): Promise<UnappliedPayment | undefined> {
+  const held = await unappliedPaymentForSession(db, sessionId);
+  if (!held) return undefined;
+  if (held.invoiceId === invoiceId) return held;
+  const session = await findPaymentSession(db, sessionId);
+  return session?.invoiceId === invoiceId ? held : undefined;
 }
