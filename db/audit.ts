@@ -61,14 +61,24 @@ const JOB_PART_ENTITIES = [
   "build_card",
 ];
 
+/** How many changes the job page shows at once, and each "Show earlier changes" adds. */
+export const JOB_CHANGES_PAGE = 100;
+
+/** One page of the job's changes: `earlier` is the cursor for the next page, null at the first change. */
+export interface JobChangesPage {
+  changes: JobChange[];
+  earlier: number | null;
+}
+
 /**
  * Every change to the job and its weights, targets, records and build record, newest first, with
- * who made it.
+ * who made it; `before` (an entry's id) keeps only the changes made before it.
  */
 export async function listJobChanges(
   db: Executor,
   jobId: number,
   limit = 200,
+  before?: number,
 ): Promise<JobChange[]> {
   const rows = await db
     .selectFrom("audit_log")
@@ -92,6 +102,7 @@ export async function listJobChanges(
         ]),
       ]),
     )
+    .$if(before !== undefined, (q) => q.where("audit_log.id", "<", before!))
     .orderBy("audit_log.id", "desc")
     .limit(limit)
     .execute();
@@ -105,4 +116,20 @@ export async function listJobChanges(
     before: r.before_json ? (JSON.parse(r.before_json) as unknown) : null,
     after: r.after_json ? (JSON.parse(r.after_json) as unknown) : null,
   }));
+}
+
+/**
+ * A page of the job's changes, newest first, keyed by entry id (so a save made while the list is
+ * open never shifts a page): the first page without `before`, each earlier one from the last
+ * page's `earlier`.
+ */
+export async function listJobChangesPage(
+  db: Executor,
+  jobId: number,
+  before?: number,
+  limit = JOB_CHANGES_PAGE,
+): Promise<JobChangesPage> {
+  const rows = await listJobChanges(db, jobId, limit + 1, before);
+  const changes = rows.slice(0, limit);
+  return { changes, earlier: rows.length > limit ? changes[changes.length - 1]!.id : null };
 }

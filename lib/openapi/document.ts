@@ -12,7 +12,7 @@ import {
 } from "@/lib/validation/balance";
 import { customerSchema, listQuerySchema } from "@/lib/validation/customers";
 import { mergeCustomerSchema } from "@/lib/customers/merge-schema";
-import { jobChangesSchema, jobListQuerySchema } from "@/lib/validation/jobs";
+import { jobChangesSchema, jobHistoryQuerySchema, jobListQuerySchema } from "@/lib/validation/jobs";
 import { newUserSchema, userChangesSchema } from "@/lib/validation/users";
 import {
   documentLinesSchema,
@@ -201,6 +201,13 @@ export const API_PATHS: ZodOpenApiPathsObject = {
   },
   "/api/jobs/{id}/workshop": {
     get: op("Weights, targets, rotating-part records and the worked-out plan"),
+  },
+  "/api/jobs/{id}/history": {
+    get: op(
+      "The job's changes, newest first, 100 at a time (the next page from `earlier`)",
+      undefined,
+      jobHistoryQuerySchema,
+    ),
   },
   "/api/jobs/{id}/weights": {
     put: op(

@@ -14,6 +14,14 @@ export const jobListQuerySchema = listQuerySchema.extend({
   sort: z.enum(JOB_SORTS).default("newest"),
 });
 
+/** A page of the job's change list: `before` is the entry the previous page ended at. */
+export const jobHistoryQuerySchema = z.object({
+  before: z.preprocess(
+    blankAsAbsent,
+    z.coerce.number().int().positive("Give the change to list from (its number).").optional(),
+  ),
+});
+
 /** Every write carries the version it was based on; a stale one is answered 409. */
 export const jobChangesSchema = z
   .object({

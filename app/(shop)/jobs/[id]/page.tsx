@@ -5,7 +5,7 @@ import { JobChanges } from "@/components/jobs/job-changes";
 import { JobSettingsForm, JobStateControl } from "@/components/jobs/job-settings-form";
 import { JobUploads } from "@/components/uploads/job-uploads";
 import { JobCards } from "@/components/cards/job-cards";
-import { listJobChanges } from "@/db/audit";
+import { listJobChangesPage } from "@/db/audit";
 import { listBuildRequests } from "@/db/build-record";
 import { getDb } from "@/db/client";
 import { findCounterSettings } from "@/db/counter-settings";
@@ -37,7 +37,7 @@ export default async function JobOverviewPage({ params }: { params: Promise<{ id
     );
   }
   const shop = true;
-  const changes = shop ? await listJobChanges(getDb(), job.id) : [];
+  const { changes, earlier } = await listJobChangesPage(getDb(), job.id);
   const [requests, { timeZone }] = await Promise.all([
     listBuildRequests(getDb(), job.id),
     findCounterSettings(getDb()),
@@ -97,7 +97,13 @@ export default async function JobOverviewPage({ params }: { params: Promise<{ id
         the balancing machine&apos;s instructions and local codes and licensed practice; wear eye
         protection when machining.
       </p>
-      <JobChanges changes={changes} unit={job.spec.massUnit} timeZone={timeZone} />
+      <JobChanges
+        jobId={job.id}
+        changes={changes}
+        earlier={earlier}
+        unit={job.spec.massUnit}
+        timeZone={timeZone}
+      />
     </div>
   );
 }
