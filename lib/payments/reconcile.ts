@@ -4,6 +4,7 @@ import { createAuditEntry } from "@/db/audit";
 import { ConflictError, NotFoundError, StaleWriteError } from "@/db/errors";
 import type { Invoice } from "@/db/invoices";
 import {
+  countOpenUnappliedPayments,
   findPaymentSession,
   listUnappliedPayments,
   lockUnappliedPayment,
@@ -163,6 +164,11 @@ export async function markUnappliedPaymentRefunded(
     });
     return resolved;
   });
+}
+
+/** How many online payments are still to reconcile: the count beside the invoices list's link. */
+export function countPaymentsToReconcile(db: DB): Promise<number> {
+  return countOpenUnappliedPayments(db);
 }
 
 /** The list for the counter and the owner: open ones by default, newest first. */

@@ -7,11 +7,12 @@ import { getDb } from "@/db/client";
 import { findCounterSettings } from "@/db/counter-settings";
 import { listInvoices } from "@/db/invoices";
 import { requirePagePermission } from "@/lib/auth/guard";
-import { isCustomer } from "@/lib/auth/policy";
+import { isCustomer, may } from "@/lib/auth/policy";
 import { formatMoney } from "@/lib/billing/format";
 import { subtractMoney } from "@/lib/billing/money";
 import { shopDate } from "@/lib/dates/shop-time";
 import { customerScope } from "@/lib/jobs/access";
+import { countPaymentsToReconcile } from "@/lib/payments/reconcile";
 import { invoiceListQuerySchema } from "@/lib/validation/billing";
 
 export const metadata = { title: "Invoices" };
@@ -26,7 +27,9 @@ export default async function InvoicesPage({
   const parsed = invoiceListQuerySchema.safeParse(raw);
   const query = parsed.success ? parsed.data : invoiceListQuerySchema.parse({});
   const customerId = customerScope(user);
-  const [{ invoices, total }, { timeZone }] = await Promise.all([
+  // Online payments to reconcile: for the owner and the counter, who apply or refund them.
+  const reconciles = may(user, "record-payment");
+  const [{ invoices, total }, { timeZone }, toReconcile] = await Promise.all([
     listInvoices(getDb(), {
       customerId,
       excludeDrafts: customerId !== undefined,
@@ -35,6 +38,7 @@ export default async function InvoicesPage({
       offset: (query.page - 1) * query.pageSize,
     }),
     findCounterSettings(getDb()),
+    reconciles ? countPaymentsToReconcile(getDb()) : Promise.resolve(0),
   ]);
   const statuses = INVOICE_STATUSES.filter((s) => customerId === undefined || s !== "draft");
 
@@ -45,11 +49,24 @@ export default async function InvoicesPage({
           <h1 className="text-2xl font-semibold">
             {isCustomer(user) ? "Your invoices" : "Invoices"}
           </h1>
-          {isCustomer(user) ? null : (
-            <Link href="/invoices/reconcile" className="text-sm underline underline-offset-4">
+          {reconciles ? (
+            <Link
+              href="/invoices/reconcile"
+              className="text-sm underline underline-offset-4"
+              data-testid="reconcile-link"
+            >
               Online payments to reconcile
+              {toReconcile > 0 ? (
+                <span
+                  className="ml-2 rounded-full bg-brass-100 px-2 py-0.5 font-mono text-xs font-semibold text-graphite-900"
+                  data-testid="reconcile-count"
+                >
+                  {toReconcile}
+                  <span className="sr-only"> waiting</span>
+                </span>
+              ) : null}
             </Link>
-          )}
+          ) : null}
         </div>
         <form className="flex items-end gap-2">
           <label className="text-sm">
