@@ -33,6 +33,8 @@ export class OpenRequestsError extends HttpError {
 /**
  * Refuses moving a job to "ready" or "collected" while any of its requests for the build is
  * neither ticked done nor explained. Moves between other states, and staying where it is, pass.
+ * `db` is the transaction that writes the job, with the job locked (`lockJob`, as adding a
+ * request does), so no request can be added between this check and the write.
  *
  * @throws OpenRequestsError (409) naming each open request
  */

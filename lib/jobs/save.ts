@@ -104,26 +104,44 @@ export async function updateJob(
   actorId: number | null,
   now = new Date(),
 ): Promise<Job> {
-  return db.transaction().execute(async (trx) => {
-    const before = await findJobForUpdate(trx, id);
-    if (!before) throw new NotFoundError("job");
-    if (before.version !== baseVersion) throw new StaleWriteError("job", before.version);
-    await updateJobRow(trx, id, before.version, {
-      engine: changes.engine?.trim() ?? before.engine,
-      notes: changes.notes === undefined ? before.notes : changes.notes?.trim() || null,
-      status: changes.status ?? before.status,
-      spec: keepOneOilAllowance(changes.spec ?? {}),
-      updatedAt: now.toISOString(),
-    });
-    const after = (await findJobById(trx, id))!;
-    await createAuditEntry(trx, {
-      userId: actorId,
-      action: "update",
-      entity: "job",
-      entityId: id,
-      before,
-      after,
-    });
-    return after;
+  return db
+    .transaction()
+    .execute((trx) => updateJobInTransaction(trx, id, baseVersion, changes, actorId, now));
+}
+
+/**
+ * {@link updateJob} inside the caller's transaction, for a change that checks something else
+ * under the same lock first (lib/jobs/settings.ts: the open requests before "ready").
+ *
+ * @throws NotFoundError when there is no such job
+ * @throws StaleWriteError (409) when someone else changed it since `baseVersion`
+ */
+export async function updateJobInTransaction(
+  trx: DB,
+  id: number,
+  baseVersion: number,
+  changes: JobChanges,
+  actorId: number | null,
+  now = new Date(),
+): Promise<Job> {
+  const before = await findJobForUpdate(trx, id);
+  if (!before) throw new NotFoundError("job");
+  if (before.version !== baseVersion) throw new StaleWriteError("job", before.version);
+  await updateJobRow(trx, id, before.version, {
+    engine: changes.engine?.trim() ?? before.engine,
+    notes: changes.notes === undefined ? before.notes : changes.notes?.trim() || null,
+    status: changes.status ?? before.status,
+    spec: keepOneOilAllowance(changes.spec ?? {}),
+    updatedAt: now.toISOString(),
   });
+  const after = (await findJobById(trx, id))!;
+  await createAuditEntry(trx, {
+    userId: actorId,
+    action: "update",
+    entity: "job",
+    entityId: id,
+    before,
+    after,
+  });
+  return after;
 }

@@ -1,7 +1,8 @@
 import type { Kysely } from "kysely";
 import type { CustomerInput } from "@/db/customers";
 import { DEFAULT_SPEC, type Job, type JobSpec } from "@/db/jobs";
-import { createJob, updateJob } from "./save";
+import { createJob, updateJobInTransaction } from "./save";
+import { lockJob } from "@/db/dialect";
 import type { Database, JobStatus } from "@/db/schema";
 import { findShopSettings } from "@/db/settings";
 import { listPartTargets, listPartWeights } from "@/db/weights";
@@ -192,9 +193,14 @@ export async function updateJobSettings(
       : { weights: 0, targets: 0 };
     resolved = resolveSpecChanges(job.spec, input, recorded);
   }
-  // No "ready" (or "collected") while a customer's request is neither done nor explained.
-  await assertRequestsSettled(db, job, rest.status);
-  const saved = await updateJob(db, job.id, version, { ...rest, spec: resolved.spec }, actor.id);
+  const saved = await db.transaction().execute(async (trx) => {
+    // No "ready" (or "collected") while a customer's request is neither done nor explained:
+    // checked under the job's lock, which adding a request takes too, in the transaction that
+    // writes the job, so a request added meanwhile is either seen here or added after.
+    await lockJob(trx, job.id);
+    await assertRequestsSettled(trx, job, rest.status);
+    return updateJobInTransaction(trx, job.id, version, { ...rest, spec: resolved.spec }, actor.id);
+  });
   // The customer hears the job is ready when it first moves there (through the outbox).
   if (saved.status === "ready" && job.status !== "ready")
     await tellReadyToCollect(db, saved.id, actor.id);
