@@ -1,7 +1,9 @@
 "use client";
 
-import { startTransition, useActionState } from "react";
+import { useRouter } from "next/navigation";
+import { startTransition, useActionState, useTransition } from "react";
 import { createPriceAction, updatePriceAction } from "@/app/(shop)/prices/actions";
+import { ChangedElsewhere, isStaleResult } from "@/components/ui/changed-elsewhere";
 import { ActionMessage, Field } from "@/components/ui/field";
 import { PRICE_KINDS, PRICE_UNITS, type PriceKind, type PriceUnit } from "@/db/billing-schema";
 import type { PriceItem } from "@/db/prices";
@@ -53,8 +55,12 @@ function UnitSelect(props: {
 
 export function PriceRow({ price }: { price: PriceItem }) {
   const [result, action, pending] = useActionState(updatePriceAction, null);
+  const router = useRouter();
+  // The page keys each row by its version, so the latest price comes in as a fresh row.
+  const [loading, startLoad] = useTransition();
   const formId = `price-${price.id}`;
   const fields = result && !result.ok ? result.fields : undefined;
+  const stale = isStaleResult(result);
   return (
     <tr
       className="border-b border-graphite-100 align-top last:border-0"
@@ -139,7 +145,14 @@ export function PriceRow({ price }: { price: PriceItem }) {
           Save
         </button>
         <div aria-live="polite" className="mt-1 max-w-56 text-xs">
-          {result && !result.ok ? (
+          {stale ? (
+            <ChangedElsewhere
+              inline
+              what={`the price ${price.code}`}
+              loading={loading}
+              onReload={() => startLoad(() => router.refresh())}
+            />
+          ) : result && !result.ok ? (
             <p className="text-replace">
               {fields ? Object.values(fields).join(" ") : result.message}
             </p>

@@ -2,6 +2,7 @@
 
 import { useRouter } from "next/navigation";
 import { useState } from "react";
+import { ChangedElsewhere, isStaleWrite } from "@/components/ui/changed-elsewhere";
 import type { BuildRequest } from "@/db/build-record";
 import type { Role } from "@/db/schema";
 import { ApiError, apiFetch } from "@/lib/api-client";
@@ -35,6 +36,12 @@ export function BuildRequests({
   const [busy, setBusy] = useState(false);
   const [explaining, setExplaining] = useState<number | null>(null);
   const [note, setNote] = useState("");
+  /** A change refused because someone else changed that request first, with the list as saved now. */
+  const [stale, setStale] = useState<{
+    error: unknown;
+    request: BuildRequest;
+    latest: BuildRequest[] | null;
+  } | null>(null);
   const canAdd = may({ role }, "add-build-request");
   const canResolve = may({ role }, "edit-build-record");
   const open = requests.filter((r) => r.state === "open").length;
@@ -42,26 +49,48 @@ export function BuildRequests({
   const replace = (saved: BuildRequest) =>
     setRequests((all) => all.map((r) => (r.id === saved.id ? saved : r)));
 
-  async function run(work: () => Promise<void>) {
+  const fetchLatest = () =>
+    apiFetch<{ requests: BuildRequest[] }>(`/api/jobs/${jobId}/build/requests`)
+      .then((fresh) => fresh.requests)
+      .catch(() => null);
+
+  async function run(work: () => Promise<void>, request?: BuildRequest) {
     setBusy(true);
     setError(null);
+    setStale(null);
     try {
       await work();
       router.refresh();
     } catch (e) {
-      if (e instanceof ApiError) {
+      if (isStaleWrite(e) && request) {
+        // What is saved now is fetched so the refusal can say it; the list changes on request.
+        setStale({ error: e, request, latest: await fetchLatest() });
+      } else if (e instanceof ApiError) {
         setError(Object.values(e.fields)[0] ?? e.message);
-        if (e.status === 409) {
-          const fresh = await apiFetch<{ requests: BuildRequest[] }>(
-            `/api/jobs/${jobId}/build/requests`,
-          ).catch(() => null);
-          if (fresh) setRequests(fresh.requests);
-        }
       } else setError("Could not reach the server; nothing was saved.");
     } finally {
       setBusy(false);
     }
   }
+
+  async function loadLatest() {
+    const latest = stale?.latest ?? (await fetchLatest());
+    if (latest === null) {
+      setError("Could not reach the server; try again.");
+      return;
+    }
+    setRequests(latest);
+    setStale(null);
+    setExplaining(null);
+  }
+
+  /** The request as saved now, in the list's words ("Done", "Not done: no gear supplied"). */
+  const savedNow = (id: number): string | null => {
+    const now = stale?.latest?.find((r) => r.id === id);
+    if (!stale?.latest) return null;
+    if (!now) return "removed";
+    return now.note ? `${STATE_LABEL[now.state]} (${now.note})` : STATE_LABEL[now.state];
+  };
 
   const add = () =>
     run(async () => {
@@ -82,7 +111,7 @@ export function BuildRequests({
       replace(request);
       setExplaining(null);
       setNote("");
-    });
+    }, r);
 
   return (
     <section className="panel p-4" aria-labelledby="build-requests-heading">
@@ -204,6 +233,14 @@ export function BuildRequests({
             Add request
           </button>
         </form>
+      ) : null}
+      {stale ? (
+        <ChangedElsewhere
+          what={`the request “${stale.request.text}”`}
+          error={stale.error}
+          current={savedNow(stale.request.id)}
+          onReload={() => void loadLatest()}
+        />
       ) : null}
       <div aria-live="polite" className="min-h-5 text-sm text-replace" data-testid="requests-error">
         {error}

@@ -1,6 +1,7 @@
 "use client";
 
 import { useState } from "react";
+import { ChangedElsewhere, isStaleWrite } from "@/components/ui/changed-elsewhere";
 import { ApiError, apiFetch } from "@/lib/api-client";
 import { RING_POSITIONS, RING_USES } from "@/lib/build-record/schemas";
 import type { BuildSettings, RingFactorRow } from "@/lib/build-record/settings-schema";
@@ -33,6 +34,40 @@ export function BuildSettingsForm({
   const [fields, setFields] = useState<Record<string, string>>({});
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
   const [busy, setBusy] = useState(false);
+  const [stale, setStale] = useState<unknown>(null);
+  const [loading, setLoading] = useState(false);
+
+  /** Every box as the stored settings fill them. */
+  function fill(settings: BuildSettings, storedVersion: number) {
+    setRows(settings.ringFactors);
+    setUnit(settings.lengthUnit);
+    setMargin(settings.minCoilBindMargin ?? "");
+    setPerMin(settings.clearancePerInch.min ?? "");
+    setPerMax(settings.clearancePerInch.max ?? "");
+    setLift(settings.camCheckLift ?? "");
+    setVersion(storedVersion);
+  }
+
+  /** After a stale save: the settings as saved now replace what was typed. */
+  async function loadLatest() {
+    setLoading(true);
+    try {
+      const latest = await apiFetch<{ settings: BuildSettings; version: number }>(
+        "/api/settings/build",
+      );
+      fill(latest.settings, latest.version);
+      setStale(null);
+      setFields({});
+      setMessage({
+        ok: true,
+        text: "The latest settings are loaded: change them again if needed and save.",
+      });
+    } catch {
+      setMessage({ ok: false, text: "Could not reach the server; try again." });
+    } finally {
+      setLoading(false);
+    }
+  }
 
   const setRow = (i: number, change: Partial<Row>) =>
     setRows((all) => all.map((r, j) => (j === i ? { ...r, ...change } : r)));
@@ -41,6 +76,7 @@ export function BuildSettingsForm({
     setBusy(true);
     setFields({});
     setMessage(null);
+    setStale(null);
     try {
       const saved = await apiFetch<{ settings: BuildSettings; version: number }>(
         "/api/settings/build",
@@ -62,15 +98,10 @@ export function BuildSettingsForm({
       setRows(saved.settings.ringFactors);
       setMessage({ ok: true, text: "Saved." });
     } catch (e) {
-      if (e instanceof ApiError) {
+      if (isStaleWrite(e)) setStale(e);
+      else if (e instanceof ApiError) {
         setFields(e.fields);
-        setMessage({
-          ok: false,
-          text:
-            e.status === 409
-              ? "Someone saved these settings since you opened the page: reload to see theirs."
-              : e.message,
-        });
+        setMessage({ ok: false, text: e.message });
       } else setMessage({ ok: false, text: "Could not reach the server; nothing was saved." });
     } finally {
       setBusy(false);
@@ -251,6 +282,14 @@ export function BuildSettingsForm({
           {message?.text}
         </p>
       </div>
+      {stale ? (
+        <ChangedElsewhere
+          what="the build settings"
+          error={stale}
+          loading={loading}
+          onReload={() => void loadLatest()}
+        />
+      ) : null}
     </form>
   );
 }

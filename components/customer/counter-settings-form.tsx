@@ -4,6 +4,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
 import { type Resolver, useForm } from "react-hook-form";
 import type { z } from "zod";
+import { ChangedElsewhere, isStaleWrite } from "@/components/ui/changed-elsewhere";
 import type { CounterSettings } from "@/db/counter-settings";
 import { ApiError, apiFetch } from "@/lib/api-client";
 import { CUSTOMER_MAIL_KINDS, CUSTOMER_MAIL_LABEL } from "@/lib/mail/templates";
@@ -17,6 +18,18 @@ function zones(current: string): string[] {
   const known =
     typeof Intl.supportedValuesOf === "function" ? Intl.supportedValuesOf("timeZone") : [];
   return [...new Set([current, "UTC", ...known])];
+}
+
+/** The form's boxes as the stored settings fill them. */
+function valuesOf(settings: CounterSettings): Values {
+  return {
+    version: settings.version,
+    senderName: settings.senderName ?? "",
+    replyTo: settings.replyTo ?? "",
+    signature: settings.signature ?? "",
+    mailOff: settings.mailOff as Values["mailOff"],
+    timeZone: settings.timeZone,
+  };
 }
 
 /**
@@ -35,16 +48,12 @@ export function CounterSettingsForm({
   const [version, setVersion] = useState(initial.version);
   const [message, setMessage] = useState<string | null>(null);
   const [serverFields, setServerFields] = useState<Record<string, string>>({});
+  const [stale, setStale] = useState<unknown>(null);
+  const [loading, setLoading] = useState(false);
+  const [zoneList, setZoneList] = useState(() => zones(initial.timeZone));
   const form = useForm<Values, unknown, Parsed>({
     resolver: zodResolver(counterSettingsSchema) as unknown as Resolver<Values, unknown, Parsed>,
-    defaultValues: {
-      version: initial.version,
-      senderName: initial.senderName ?? "",
-      replyTo: initial.replyTo ?? "",
-      signature: initial.signature ?? "",
-      mailOff: initial.mailOff as Values["mailOff"],
-      timeZone: initial.timeZone,
-    },
+    defaultValues: valuesOf(initial),
   });
   const errors = form.formState.errors;
   const off = form.watch("mailOff");
@@ -61,18 +70,35 @@ export function CounterSettingsForm({
         form.setValue("version", settings.version);
         setMessage("Saved.");
       } catch (e) {
-        if (e instanceof ApiError) {
+        if (isStaleWrite(e)) {
+          setStale(e);
+          setMessage(null);
+        } else if (e instanceof ApiError) {
           setServerFields(e.fields);
-          setMessage(
-            e.status === 409
-              ? "Someone saved these settings since you opened them: reload the page and try again."
-              : `Not saved: ${e.message}`,
-          );
+          setMessage(`Not saved: ${e.message}`);
         } else setMessage("Not saved: the server could not be reached.");
       }
     },
     () => setMessage("Not saved: a box needs attention (marked below)."),
   );
+
+  /** After a stale save: the settings as saved now replace what was typed. */
+  async function loadLatest() {
+    setLoading(true);
+    try {
+      const { settings } = await apiFetch<{ settings: CounterSettings }>("/api/settings/counter");
+      setVersion(settings.version);
+      setZoneList(zones(settings.timeZone));
+      form.reset(valuesOf(settings));
+      setStale(null);
+      setServerFields({});
+      setMessage("The latest settings are loaded: change them again if needed and save.");
+    } catch {
+      setMessage("The server could not be reached; try again.");
+    } finally {
+      setLoading(false);
+    }
+  }
 
   const problem = (key: "senderName" | "replyTo" | "signature" | "timeZone") => {
     const text = errors[key]?.message ?? serverFields[key];
@@ -157,7 +183,7 @@ export function CounterSettingsForm({
         <label className="block max-w-sm">
           <span className="mb-1 block font-semibold">Time zone</span>
           <select className="field-input" {...form.register("timeZone")}>
-            {zones(initial.timeZone).map((z) => (
+            {zoneList.map((z) => (
               <option key={z} value={z}>
                 {z}
               </option>
@@ -179,6 +205,14 @@ export function CounterSettingsForm({
           {message}
         </p>
       </div>
+      {stale ? (
+        <ChangedElsewhere
+          what="the e-mail and time zone settings"
+          error={stale}
+          loading={loading}
+          onReload={() => void loadLatest()}
+        />
+      ) : null}
     </form>
   );
 }

@@ -18,6 +18,16 @@ export function isStaleWrite(e: unknown): e is ApiError {
 }
 
 /**
+ * The same test for a server action's answer (`ActionResult`): a failure with status 409 and the
+ * code `stale_write`. Other 409s are rules and keep their own message.
+ */
+export function isStaleResult(
+  result: { ok: boolean; status?: number; code?: string } | null | undefined,
+): boolean {
+  return !!result && !result.ok && result.status === 409 && result.code === "stale_write";
+}
+
+/**
  * What the refusal says is saved now, where its body carries it in words. The stored version
  * number (`currentVersion`) is bookkeeping, never shown to a person.
  */

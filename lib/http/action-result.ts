@@ -4,7 +4,14 @@ import { fieldsFromZod, toErrorBody } from "./to-error-body";
 /** What every server action returns to `useActionState`: expected failures are values. */
 export type ActionResult<T = undefined> =
   | { ok: true; data: T; message?: string }
-  | { ok: false; status: number; message: string; fields?: Record<string, string> };
+  | {
+      ok: false;
+      status: number;
+      message: string;
+      fields?: Record<string, string>;
+      /** The error code of the one error shape ("stale_write", "conflict"…), where known. */
+      code?: string;
+    };
 
 export function toActionFailure(error: unknown): ActionResult<never> {
   if (error instanceof ZodError) {
@@ -16,5 +23,11 @@ export function toActionFailure(error: unknown): ActionResult<never> {
     };
   }
   const { status, body } = toErrorBody(error);
-  return { ok: false, status, message: body.error.message, fields: body.error.fields };
+  return {
+    ok: false,
+    status,
+    message: body.error.message,
+    fields: body.error.fields,
+    code: body.error.code,
+  };
 }
