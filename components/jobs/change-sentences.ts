@@ -241,7 +241,7 @@ const drillSpec = (s: Spec) => ({
 });
 
 /** The sentences for one saved change of the job's settings. */
-export function specSentences(before: Spec, after: Spec): string[] {
+function specSentences(before: Spec, after: Spec): string[] {
   const lines: (string | null)[] = [];
   for (const [, describe] of SETTINGS) lines.push(...describe(before, after));
   for (const [which, label] of [

@@ -13,7 +13,7 @@ export type PortState =
   | { status: "failed"; message: string };
 
 /** Why this page cannot open a serial port, or `null` when it can. */
-export function serialUnavailableReason(): string | null {
+function serialUnavailableReason(): string | null {
   if (typeof window === "undefined") return null;
   if (!window.isSecureContext)
     return "This page is not on a secure address (https or this PC), so the browser will not open a serial port.";

@@ -9,7 +9,7 @@ export interface NavItem {
 }
 
 /** What each role may open, by the permission each page asks for; the pages check again. */
-export const NAV_ITEMS: readonly NavItem[] = [
+const NAV_ITEMS: readonly NavItem[] = [
   { href: "/board", label: "Bench board", permission: "see-board" },
   { href: "/jobs", label: "Jobs", permission: "list-jobs" },
   { href: "/customers", label: "Customers", permission: "read-customers" },

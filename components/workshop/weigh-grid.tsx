@@ -59,7 +59,7 @@ const fieldName = (cylinder: number, kind: PartKind) => `c${cylinder}_${kind}`;
 const queueId = (phase: WeighPhase, name: string) => `${phase}:${name}`;
 
 /** Where the unsaved weights of one job and weighing are kept between visits (localStorage). */
-export const queueStorageKey = (jobId: number, phase: WeighPhase) =>
+const queueStorageKey = (jobId: number, phase: WeighPhase) =>
   `counterpoise:weigh-queue:${jobId}:${phase}`;
 const PHASES: WeighPhase[] = ["initial", "final"];
 /** Marks the extra history entry that makes the browser's Back ask first (see WeighGrid). */

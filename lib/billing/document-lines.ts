@@ -136,7 +136,7 @@ export async function priceLines(
 }
 
 /** What pricing needs to know of the job a document is for. */
-export async function lineContextOf(db: Db, jobId: number): Promise<LineContext> {
+async function lineContextOf(db: Db, jobId: number): Promise<LineContext> {
   const job = await findJobById(db, jobId);
   return { cylinders: job?.spec.cylinders ?? null };
 }
@@ -183,7 +183,7 @@ export function lockedAt<T extends { version: number }>(
  * order given in place of the ones it had, and answers the totals for its header. The caller
  * owns the transaction.
  */
-export async function repriceDocumentLines(
+async function repriceDocumentLines(
   trx: Db,
   kind: DocumentKind,
   document: { id: number; lines: readonly DocumentLine[] },

@@ -25,12 +25,12 @@ export type QuoteView = Quote & { allowedActions: QuoteAction[] };
 export type InvoiceView = InvoiceWithPayments & { allowedActions: InvoiceAction[] };
 
 /** A quote as this person sees it, with the moves open to them (see quoteActions). */
-export function quoteView(quote: Quote, asker: Asker, invoiced: boolean): QuoteView {
+function quoteView(quote: Quote, asker: Asker, invoiced: boolean): QuoteView {
   return { ...quote, allowedActions: quoteActions(quote, asker, { invoiced }) };
 }
 
 /** An invoice as this person sees it, with the moves open to them (see invoiceActions). */
-export function invoiceView(invoice: InvoiceWithPayments, asker: Asker): InvoiceView {
+function invoiceView(invoice: InvoiceWithPayments, asker: Asker): InvoiceView {
   return { ...invoice, allowedActions: invoiceActions(invoice, asker) };
 }
 

@@ -141,11 +141,7 @@ export type NewCard = Omit<CardRowInput, "issuedBy" | "jobFingerprint"> & {
  * @throws NotFoundError when there is no such job; ConflictError (409) when `revision` is not
  *   the job's next one
  */
-export async function createCard(
-  db: DB,
-  card: NewCard,
-  actorId: number | null,
-): Promise<StoredCard> {
+async function createCard(db: DB, card: NewCard, actorId: number | null): Promise<StoredCard> {
   return db.transaction().execute(async (trx) => {
     // Locked on PostgreSQL: two issues of the same job's card take their turn.
     if (!(await lockExistingJob(trx, card.jobId))) throw new NotFoundError("job");

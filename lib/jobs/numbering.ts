@@ -13,7 +13,7 @@ export function jobSequenceName(year: number): string {
  *
  * @example formatJobNumber(2026, 7) // "2026-0007"
  */
-export function formatJobNumber(year: number, value: number): string {
+function formatJobNumber(year: number, value: number): string {
   return `${year}-${String(value).padStart(4, "0")}`;
 }
 

@@ -193,7 +193,7 @@ async function deliver(
  * counter settings' reply-to (else the shop's e-mail). MAIL_FROM as it is when the shop has no
  * name of its own yet.
  */
-export async function shopSender(
+async function shopSender(
   db: DB,
 ): Promise<{ from: string | { name: string; address: string }; replyTo: string | null }> {
   const [counter, shop] = await Promise.all([findCounterSettings(db), findShopSettings(db)]);

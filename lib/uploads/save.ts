@@ -100,7 +100,7 @@ export async function removeJobUpload(db: DB, id: number, actor: User): Promise<
  * @example await createUpload(db, { jobId, category: "arrival-photo", caption: null, originalName: "crank.jpg", … }, userId)
  * @throws NotFoundError when there is no such job
  */
-export async function createUpload(
+async function createUpload(
   db: DB,
   input: NewUpload,
   actorId: number | null,
