@@ -1,24 +1,15 @@
 "use client";
 
-import { startTransition, useActionState, useEffect, useId, useRef, useState } from "react";
+import { startTransition, useActionState, useRef, useState } from "react";
 import { mergeCustomerAction } from "@/app/(shop)/customers/actions";
 import { ActionMessage } from "@/components/ui/field";
 import type { Customer } from "@/db/customers";
-import { apiFetch } from "@/lib/api-client";
+import { CustomerPicker } from "./customer-picker";
 
 /** How a customer reads in the picker: name, company, e-mail and the shop's number for them. */
 function labelOf(c: Customer): string {
   return [c.name, c.company, c.email].filter(Boolean).join(" · ") + ` (no. ${c.id})`;
 }
-
-// The search waits this long after the last key before asking the server.
-const SEARCH_PAUSE_MS = 150;
-
-type Found =
-  | { state: "idle" }
-  | { state: "searching"; search: string }
-  | { state: "done"; search: string; customers: Customer[] }
-  | { state: "failed"; search: string; message: string };
 
 /**
  * Folds a customer entered twice into this one: the other customer's jobs, quotes, invoices,
@@ -29,82 +20,18 @@ type Found =
 export function MergeCustomerForm({ keepId, keepName }: { keepId: number; keepName: string }) {
   const [result, action, pending] = useActionState(mergeCustomerAction, null);
   const fields = result && !result.ok ? result.fields : undefined;
-  const listId = useId();
   const searchRef = useRef<HTMLInputElement>(null);
   const [search, setSearch] = useState("");
   const [chosen, setChosen] = useState<Customer | null>(null);
-  const [active, setActive] = useState(-1);
-  const [found, setFound] = useState<Found>({ state: "idle" });
   const [confirmed, setConfirmed] = useState(false);
 
-  useEffect(() => {
-    const typed = search.trim();
-    if (chosen || typed === "") return;
-    let current = true;
-    const timer = setTimeout(() => {
-      setFound({ state: "searching", search: typed });
-      apiFetch<{ customers: Customer[] }>(
-        `/api/customers?pageSize=8&search=${encodeURIComponent(typed)}`,
-      ).then(
-        ({ customers }) => {
-          if (current)
-            setFound({
-              state: "done",
-              search: typed,
-              customers: customers.filter((c) => c.id !== keepId),
-            });
-        },
-        (error: unknown) => {
-          if (current)
-            setFound({
-              state: "failed",
-              search: typed,
-              message: error instanceof Error ? error.message : "The search failed.",
-            });
-        },
-      );
-    }, SEARCH_PAUSE_MS);
-    return () => {
-      current = false;
-      clearTimeout(timer);
-    };
-  }, [search, chosen, keepId]);
-
-  const typed = search.trim();
-  const options =
-    !chosen && typed !== "" && found.state === "done" && found.search === typed
-      ? found.customers
-      : [];
-
-  const pick = (c: Customer) => {
-    setChosen(c);
-    setActive(-1);
-  };
   const change = () => {
     setChosen(null);
-    setActive(-1);
     // The box comes back once the choice is dropped; the cursor goes into it.
     setTimeout(() => searchRef.current?.focus(), 0);
   };
 
-  const onSearchKey = (e: React.KeyboardEvent<HTMLInputElement>) => {
-    if (e.key === "ArrowDown" && options.length) {
-      e.preventDefault();
-      setActive((a) => (a + 1) % options.length);
-    } else if (e.key === "ArrowUp" && options.length) {
-      e.preventDefault();
-      setActive((a) => (a <= 0 ? options.length - 1 : a - 1));
-    } else if (e.key === "Enter") {
-      // Enter in the search picks the highlighted customer; it never sends the merge.
-      e.preventDefault();
-      const picked = options[active] ?? (options.length === 1 ? options[0] : undefined);
-      if (picked) pick(picked);
-    } else if (e.key === "Escape") {
-      setActive(-1);
-    }
-  };
-
-  const errorId = `${listId}-error`;
+  const errorId = "merge-remove-error";
   return (
     <form
       // Sent by hand rather than as the form's action: React empties a form after its action,
@@ -137,55 +64,20 @@ export function MergeCustomerForm({ keepId, keepName }: { keepId: number; keepNa
             </button>
           </p>
         ) : (
-          <>
-            <input
-              id="merge-remove"
-              ref={searchRef}
-              className="field-input w-full max-w-md"
-              role="combobox"
-              aria-expanded={options.length > 0}
-              aria-controls={listId}
-              aria-autocomplete="list"
-              aria-activedescendant={active >= 0 ? `${listId}-${active}` : undefined}
-              aria-invalid={fields?.removeId ? true : undefined}
-              aria-describedby={fields?.removeId ? errorId : undefined}
-              placeholder="Name, company, e-mail or phone"
-              value={search}
-              onChange={(e) => {
-                setSearch(e.target.value);
-                setActive(-1);
-              }}
-              onKeyDown={onSearchKey}
-              autoComplete="off"
-            />
-            <ul
-              id={listId}
-              role="listbox"
-              aria-label="Customers found"
-              className="mt-2 max-w-md divide-y divide-graphite-100 rounded border border-graphite-200 bg-white empty:hidden"
-            >
-              {options.map((c, index) => (
-                <li
-                  key={c.id}
-                  id={`${listId}-${index}`}
-                  role="option"
-                  aria-selected={index === active}
-                  className={`cursor-pointer px-3 py-2 break-words ${index === active ? "bg-brass-100" : "hover:bg-brass-50"}`}
-                  onMouseDown={(e) => e.preventDefault()}
-                  onClick={() => pick(c)}
-                >
-                  {labelOf(c)}
-                </li>
-              ))}
-            </ul>
-            <div aria-live="polite" className="text-sm text-graphite-600">
-              {typed !== "" && found.state === "done" && found.search === typed && !options.length
-                ? `No other customer matches “${typed}”.`
-                : typed !== "" && found.state === "failed" && found.search === typed
-                  ? `Not searched: ${found.message}`
-                  : null}
-            </div>
-          </>
+          <CustomerPicker
+            id="merge-remove"
+            inputRef={searchRef}
+            className="field-input w-full max-w-md"
+            search={search}
+            onSearch={setSearch}
+            onPick={setChosen}
+            excludeId={keepId}
+            option={labelOf}
+            nothingFound={(typed) => `No other customer matches “${typed}”.`}
+            placeholder="Name, company, e-mail or phone"
+            invalid={Boolean(fields?.removeId)}
+            describedBy={fields?.removeId ? errorId : undefined}
+          />
         )}
         {fields?.removeId ? (
           <p id={errorId} className="mt-1 text-sm text-replace">

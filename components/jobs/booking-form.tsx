@@ -1,11 +1,12 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useMutation, useQuery } from "@tanstack/react-query";
+import { useMutation } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
-import { useId, useState } from "react";
+import { useState } from "react";
 import { type FieldErrors, type Resolver, useForm } from "react-hook-form";
 import { z } from "zod";
+import { CustomerPicker } from "@/components/customers/customer-picker";
 import type { Customer } from "@/db/customers";
 import { type BroughtItem, BROUGHT_ITEMS, type Job } from "@/db/jobs";
 import { LAYOUT_PRESETS } from "@/lib/balance";
@@ -152,24 +153,12 @@ function countErrors(errors: FieldErrors): number {
 /** Booking a job in at the counter: who, what engine, what came in, what is asked, when promised. */
 export function BookingForm({ timeZone }: { timeZone?: string } = {}) {
   const router = useRouter();
-  const listId = useId();
   const [search, setSearch] = useState("");
   const [customer, setCustomer] = useState<Customer | null>(null);
-  const [active, setActive] = useState(-1);
   const [pastConfirmed, setPastConfirmed] = useState<string | null>(null);
   const [askPast, setAskPast] = useState<string | null>(null);
   const [failure, setFailure] = useState<string | null>(null);
   const [serverFields, setServerFields] = useState<Record<string, string>>({});
-
-  const found = useQuery({
-    queryKey: ["customers", search],
-    queryFn: () =>
-      apiFetch<{ customers: Customer[] }>(
-        `/api/customers?pageSize=8&search=${encodeURIComponent(search)}`,
-      ),
-    enabled: search.trim().length > 0 && !customer,
-  });
-  const options = customer || search.trim() === "" ? [] : (found.data?.customers ?? []);
 
   const form = useForm<Values, unknown, Parsed>({
     resolver: zodResolver(bookingFormSchema) as unknown as Resolver<Values, unknown, Parsed>,
@@ -255,24 +244,6 @@ export function BookingForm({ timeZone }: { timeZone?: string } = {}) {
   const pick = (c: Customer) => {
     setCustomer(c);
     form.setValue("customerId", c.id, { shouldValidate: form.formState.isSubmitted });
-    setActive(-1);
-  };
-
-  const onSearchKey = (e: React.KeyboardEvent<HTMLInputElement>) => {
-    if (e.key === "ArrowDown" && options.length) {
-      e.preventDefault();
-      setActive((a) => (a + 1) % options.length);
-    } else if (e.key === "ArrowUp" && options.length) {
-      e.preventDefault();
-      setActive((a) => (a <= 0 ? options.length - 1 : a - 1));
-    } else if (e.key === "Enter") {
-      // Enter in the search picks the highlighted customer; it never books the job.
-      e.preventDefault();
-      const chosen = options[active] ?? (options.length === 1 ? options[0] : undefined);
-      if (chosen) pick(chosen);
-    } else if (e.key === "Escape") {
-      setActive(-1);
-    }
   };
 
   return (
@@ -332,48 +303,21 @@ export function BookingForm({ timeZone }: { timeZone?: string } = {}) {
                 Find by name, company, e-mail or phone
               </span>
             </label>
-            <input
+            {/* Enter in the search picks the highlighted customer; it never books the job. */}
+            <CustomerPicker
               id="customer-search"
-              className="field-input max-w-md"
-              role="combobox"
-              aria-expanded={options.length > 0}
-              aria-controls={listId}
-              aria-autocomplete="list"
-              aria-activedescendant={active >= 0 ? `${listId}-${active}` : undefined}
-              aria-describedby={errorId("customerId")}
-              aria-invalid={Boolean(errors.customerId ?? serverFields.customerId)}
-              value={search}
-              onChange={(e) => {
-                setSearch(e.target.value);
-                setActive(-1);
-              }}
-              onKeyDown={onSearchKey}
-              autoComplete="off"
-            />
-            <ul
-              id={listId}
-              role="listbox"
-              aria-label="Customers found"
-              className="mt-2 max-w-md divide-y divide-graphite-100 rounded border border-graphite-200 bg-white empty:hidden"
-            >
-              {options.map((c, index) => (
-                <li
-                  key={c.id}
-                  id={`${listId}-${index}`}
-                  role="option"
-                  aria-selected={index === active}
-                  className={`cursor-pointer px-3 py-2 ${index === active ? "bg-brass-100" : "hover:bg-brass-50"}`}
-                  onMouseDown={(e) => e.preventDefault()}
-                  onClick={() => pick(c)}
-                >
+              search={search}
+              onSearch={setSearch}
+              onPick={pick}
+              option={(c) => (
+                <>
                   <span className="font-semibold">{c.name}</span>{" "}
                   <span className="text-sm text-graphite-500">{c.company ?? c.email ?? ""}</span>
-                </li>
-              ))}
-            </ul>
-            {search.trim() && found.isSuccess && options.length === 0 ? (
-              <p className="mt-2 text-sm text-graphite-600">No customer found.</p>
-            ) : null}
+                </>
+              )}
+              invalid={Boolean(errors.customerId ?? serverFields.customerId)}
+              describedBy={errorId("customerId")}
+            />
             <button type="button" className="btn-secondary mt-2" onClick={() => setCreating(true)}>
               New customer
             </button>
