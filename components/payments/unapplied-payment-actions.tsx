@@ -1,23 +1,28 @@
 "use client";
 
 import { useId, useState } from "react";
+import { ChangedElsewhere, isStaleWrite } from "@/components/ui/changed-elsewhere";
 import type { UnappliedPayment } from "@/db/payments";
+import type { ApiError } from "@/lib/api-client";
 import { callPayments } from "./call";
 
 /**
  * "Apply as payment" and "Mark refunded" (with its note) for one online payment kept to
  * reconcile. The server decides whether it fits the invoice and says why not; `onDone` runs after
- * either worked, with the message to show.
+ * either worked, with the message to show. When someone else settled it since the page loaded
+ * (a stale write) the shared "changed elsewhere" notice offers `onReload`.
  */
 export function UnappliedPaymentActions({
   item,
   onDone,
+  onReload,
 }: {
   item: Pick<UnappliedPayment, "id" | "version" | "invoiceId">;
   onDone: (message: string) => void;
+  onReload: () => void;
 }) {
   const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
+  const [error, setError] = useState<{ message: string; refusal: ApiError } | null>(null);
   const [refunding, setRefunding] = useState(false);
   const [note, setNote] = useState("");
   const noteId = useId();
@@ -30,7 +35,7 @@ export function UnappliedPaymentActions({
       ...body,
     });
     setBusy(false);
-    if (!outcome.ok) return setError(outcome.message);
+    if (!outcome.ok) return setError({ message: outcome.message, refusal: outcome.error });
     setRefunding(false);
     onDone(done);
   }
@@ -82,7 +87,18 @@ export function UnappliedPaymentActions({
         </form>
       ) : null}
       <div aria-live="polite" className="text-sm">
-        {error ? <p className="text-replace">{error}</p> : null}
+        {error && isStaleWrite(error.refusal) ? (
+          <ChangedElsewhere
+            what="this payment"
+            error={error.refusal}
+            onReload={() => {
+              setError(null);
+              onReload();
+            }}
+          />
+        ) : error ? (
+          <p className="text-replace">{error.message}</p>
+        ) : null}
       </div>
     </div>
   );

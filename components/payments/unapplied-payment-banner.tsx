@@ -5,8 +5,8 @@ import { useRouter } from "next/navigation";
 import { useCallback, useEffect, useState } from "react";
 import type { UnappliedPaymentListed } from "@/db/payments";
 import { formatMoney } from "@/lib/billing/format";
-import { unappliedReasonText } from "@/lib/payments/reasons";
 import { callPayments } from "./call";
+import { PaymentReason } from "./payment-reason";
 import { UnappliedPaymentActions } from "./unapplied-payment-actions";
 
 /**
@@ -75,20 +75,18 @@ export function UnappliedPaymentBanner({
             <span className="font-mono">{formatMoney(item.amount, item.currency)}</span> was
             received online and not applied: refund it or apply it.
           </p>
-          <p className="text-sm text-graphite-700">
-            {unappliedReasonText(item.reason)}
-            {item.reference ? (
-              <>
-                {" "}
-                Payment service reference: <span className="font-mono">{item.reference}</span>.
-              </>
-            ) : null}{" "}
+          <PaymentReason reason={item.reason} reference={item.reference}>
             <Link href="/invoices/reconcile" className="underline underline-offset-4">
               All payments to reconcile
             </Link>
-          </p>
+          </PaymentReason>
           <UnappliedPaymentActions
             item={item}
+            onReload={() => {
+              void load();
+              if (onChanged) onChanged();
+              else router.refresh();
+            }}
             onDone={(done) => {
               setMessage(done);
               void load();

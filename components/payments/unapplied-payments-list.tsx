@@ -6,7 +6,7 @@ import { useState } from "react";
 import type { UnappliedPaymentListed } from "@/db/payments";
 import { formatMoney } from "@/lib/billing/format";
 import { shopDateTime } from "@/lib/dates/shop-time";
-import { unappliedReasonText } from "@/lib/payments/reasons";
+import { PaymentReason } from "./payment-reason";
 import { UnappliedPaymentActions } from "./unapplied-payment-actions";
 
 const STATE_LABEL: Record<UnappliedPaymentListed["status"], string> = {
@@ -66,18 +66,11 @@ export function UnappliedPaymentsList({
                 {STATE_LABEL[item.status]}
               </span>
             </div>
-            <p className="text-sm text-graphite-700">
-              {unappliedReasonText(item.reason)}
-              {item.reference ? (
-                <>
-                  {" "}
-                  Payment service reference: <span className="font-mono">{item.reference}</span>.
-                </>
-              ) : null}
-            </p>
+            <PaymentReason reason={item.reason} reference={item.reference} />
             {item.status === "open" ? (
               <UnappliedPaymentActions
                 item={item}
+                onReload={() => router.refresh()}
                 onDone={(done) => {
                   setMessage(done);
                   router.refresh();

@@ -162,3 +162,39 @@ describe("the list of payments to reconcile", () => {
     expect(second.querySelector("button")).toBeNull();
   });
 });
+
+describe("refusals on the actions", () => {
+  it("shows the shared changed-elsewhere notice, not the raw 409 text, when someone settled it first", async () => {
+    vi.stubGlobal("fetch", async (url: string, init: RequestInit = {}) => {
+      calls.push({ method: init.method ?? "GET", url, body: null });
+      if ((init.method ?? "GET") === "GET") return Response.json({ payments: open });
+      return Response.json(
+        { error: { code: "stale_write", message: "payment to reconcile changed (version 2)" } },
+        { status: 409 },
+      );
+    });
+    render(<UnappliedPaymentBanner invoiceId={12} />);
+    await userEvent.click(await screen.findByRole("button", { name: "Apply as payment" }));
+    const notice = await screen.findByTestId("changed-elsewhere");
+    expect(notice.textContent).toContain("someone else changed this payment");
+    expect(screen.queryByText(/version 2/)).toBeNull();
+    const reads = calls.filter((c) => c.method === "GET").length;
+    await userEvent.click(screen.getByRole("button", { name: "Load the latest" }));
+    await waitFor(() => expect(calls.filter((c) => c.method === "GET").length).toBe(reads + 1));
+    expect(refresh).toHaveBeenCalled();
+  });
+
+  it("says the server could not be reached in the API client's own words", async () => {
+    vi.stubGlobal("fetch", async (_url: string, init: RequestInit = {}) => {
+      if ((init.method ?? "GET") === "GET") return Response.json({ payments: open });
+      throw new TypeError("Failed to fetch");
+    });
+    render(<UnappliedPaymentBanner invoiceId={12} />);
+    await userEvent.click(await screen.findByRole("button", { name: "Apply as payment" }));
+    expect(
+      await screen.findByText(
+        "The server could not be reached. Check the connection and try again.",
+      ),
+    ).toBeTruthy();
+  });
+});
