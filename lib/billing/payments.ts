@@ -6,6 +6,7 @@ import { ConflictError, NotFoundError } from "@/db/errors";
 import { findInvoiceById, type Invoice } from "@/db/invoices";
 import { insertPayment, markPaymentSessionComplete, type Payment } from "@/db/payments";
 import { BillingInputError } from "./errors";
+import { formatMoney } from "./format";
 import { compareMoney, subtractMoney, sumMoney } from "./money";
 
 /** The invoice with its row locked for the rest of the transaction (see lockRow). */
@@ -46,7 +47,10 @@ async function addPayment(
     throw new BillingInputError("amount", "Enter the amount received.");
   }
   if (compareMoney(amount, owed) > 0) {
-    throw new BillingInputError("amount", `Only ${owed} is still owed on this invoice.`);
+    throw new BillingInputError(
+      "amount",
+      `Only ${formatMoney(owed, invoice.currency)} is still owed on this invoice.`,
+    );
   }
   const receivedAt = received.receivedAt ?? now.toISOString();
   const payment = await insertPayment(trx, {
