@@ -88,7 +88,7 @@ describe("one public address for every link", () => {
     expect(digest).toContain("NEXT_REDIRECT");
     const location = digest.split(";")[2] ?? "";
     const next = new URL(location, PUBLIC).searchParams.get("next");
-    expect(next).toBe("/pay/return?invoice=12&result=success");
+    expect(next).toBe("/pay/return?invoice=12&result=success&session_id=cs_x");
   });
 
   it("warns at start in production when links would point at this machine only", () => {
