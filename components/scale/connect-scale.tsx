@@ -5,6 +5,7 @@ import { formatMass } from "@/lib/balance";
 import {
   createReadingGate,
   type JobMassUnit,
+  readingAtJobResolution,
   readingInJobUnit,
   type ScaleReading,
 } from "@/lib/scale";
@@ -120,6 +121,8 @@ export function ConnectScale({ unit, resolution }: { unit: JobMassUnit; resoluti
   const [settings, setSettings] = useState<ScaleSettings>(DEFAULT_SCALE_SETTINGS);
   const [live, setLive] = useState<Live>({ kind: "waiting" });
   const [commandMessage, setCommandMessage] = useState<string | null>(null);
+  // Said once: the scale reads finer or coarser than the job's resolution.
+  const [stepNote, setStepNote] = useState<string | null>(null);
   const panel = useRef<HTMLElement | null>(null);
   const lastBox = useRef<HTMLInputElement | null>(null);
   const gate = useMemo(() => createReadingGate(resolution), [resolution]);
@@ -163,10 +166,12 @@ export function ConnectScale({ unit, resolution }: { unit: JobMassUnit; resoluti
       setLive({ kind: "error", text: reading.raw.trim() || reading.note || "" });
       return;
     }
-    const inUnit = readingInJobUnit(reading.value, reading.unit, unit);
+    const inUnit = readingAtJobResolution(reading.value, reading.unit, unit, resolution);
     if (!inUnit.ok) return setLive({ kind: "refused", message: inUnit.message });
+    setStepNote(inUnit.note);
+    // The figure shown and typed is the job's: at its scale resolution (the display rule).
     const figure =
-      scaleFigure(inUnit.value, unit) +
+      `${inUnit.value} ${unit}` +
       (reading.unit && reading.unit !== unit
         ? ` (the scale: ${scaleFigure(reading.value, reading.unit)})`
         : "");
@@ -284,6 +289,11 @@ export function ConnectScale({ unit, resolution }: { unit: JobMassUnit; resoluti
             </p>
           ) : null}
           {connected ? <LiveReading live={live} unit={unit} /> : null}
+          {connected && stepNote ? (
+            <p className="text-sm text-graphite-600" data-testid="scale-step-note">
+              {stepNote}
+            </p>
+          ) : null}
           {commandMessage ? <p className="text-sm text-replace">{commandMessage}</p> : null}
           <label className="flex items-center gap-2 text-sm">
             <input

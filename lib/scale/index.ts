@@ -1,3 +1,4 @@
+export { type JobReading, readingAtJobResolution, type ScaleStepFit } from "./at-job-resolution";
 export { createLineSplitter, lineSplitStream } from "./line-splitter";
 export { createScaleDecoder } from "./scale-decoder";
 export { parseBareNumber } from "./parse-bare-number";

@@ -185,18 +185,26 @@ describe("Connect scale", () => {
     box(1).focus();
     await fake.send("S D     312.48 g\r\n", "S D     498.71 g\r\n");
     expect(live().dataset.kind).toBe("settling");
-    expect(live().textContent).toContain("498.71 g");
+    // Shown at the job's 0.1 g: 498.71 rounds to 498.7 (formatMass, halves away from zero).
+    expect(live().textContent).toContain("498.7 g");
+    expect(live().textContent).not.toContain("498.71");
     expect(box(1)).toHaveProperty("value", "");
     await fake.send("S +\r\n");
     expect(live().textContent).toMatch(/Over the scale's capacity/);
     expect(box(1)).toHaveProperty("value", "");
     // The stable line arrives in three chunks, the CRLF itself split.
     await fake.send("S S     49", "8.60 g\r", "\n");
-    expect(box(1)).toHaveProperty("value", "498.60");
+    expect(box(1)).toHaveProperty("value", "498.6");
+    // Said once in the panel: the scale prints 0.01 g, the job records 0.1 g.
+    expect(screen.getAllByTestId("scale-step-note")).toHaveLength(1);
+    expect(screen.getByTestId("scale-step-note").textContent).toContain(
+      "The scale reads to 0.01 g; this job records to 0.1 g",
+    );
     expect(live().textContent).toMatch(/stable: in cylinder 1 piston, press Enter to save/);
     // The scale repeats the weight while the part sits on the pan: entered once.
     await fake.send("S S     498.60 g\r\n", "S S     498.60 g\r\n");
-    expect(box(1)).toHaveProperty("value", "498.60");
+    expect(box(1)).toHaveProperty("value", "498.6");
+    expect(screen.getAllByTestId("scale-step-note")).toHaveLength(1);
     expect(live().textContent).toMatch(/already entered: empty the pan/);
     expect(screen.getByTestId("saved").textContent).toBe("");
   });
@@ -210,20 +218,38 @@ describe("Connect scale", () => {
     box(1).focus();
     await fake.send("ST,GS,+00498.60  g\r\n", "ST,GS,+00498.60  g\r\n");
     await fake.send("US,GS,+00000.20  g\r\n", "ST,GS,+00512.30  g\r\n");
-    expect(screen.getByTestId("saved").textContent).toBe("1:498.60 | 2:512.30");
+    expect(screen.getByTestId("saved").textContent).toBe("1:498.6 | 2:512.3");
   });
 
-  it("converts a reading in ounces for a job in grams (17.500 oz = 496.117 g)", async () => {
-    // By hand: 17.5 × 28.349523125 = 496.1166546875 g (NIST Handbook 44 App. C); the scale's
-    // step 0.001 oz is 0.028 g, a tenth of it keeps 3 decimals → 496.117.
+  it("converts a reading in ounces for a job in grams (17.500 oz = 496.1 g at 0.1 g)", async () => {
+    // By hand: 17.5 × 28.349523125 = 496.1166546875 g (NIST Handbook 44 App. C), at the job's
+    // 0.1 g → 496.1. The scale's step 0.001 oz is 0.028 g, finer than the job's 0.1 g.
     const fake = installFakeSerial();
     render(<Bench />);
     await userEvent.click(await screen.findByRole("button", { name: "Connect scale" }));
     await screen.findByText(/Waiting for the scale/);
     box(1).focus();
     await fake.send("+   17.500 oz   \r\n");
-    expect(box(1)).toHaveProperty("value", "496.117");
-    expect(live().textContent).toContain("(the scale: 17.500 oz)");
+    expect(box(1)).toHaveProperty("value", "496.1");
+    expect(live().textContent).toContain("496.1 g (the scale: 17.500 oz)");
+    expect(screen.getByTestId("scale-step-note").textContent).toContain(
+      "The scale reads to 0.001 oz (0.028 g); this job records to 0.1 g",
+    );
+  });
+
+  it("says where the scale reads coarser than the job, and nothing where they match", async () => {
+    const fake = installFakeSerial();
+    render(<Bench />);
+    await userEvent.click(await screen.findByRole("button", { name: "Connect scale" }));
+    await screen.findByText(/Waiting for the scale/);
+    box(1).focus();
+    await fake.send("S D     498.6 g\r\n");
+    expect(screen.queryByTestId("scale-step-note")).toBeNull();
+    await fake.send("S D     499 g\r\n");
+    expect(live().textContent).toContain("499.0 g");
+    expect(screen.getByTestId("scale-step-note").textContent).toContain(
+      "The scale reads to 1 g; this job records to 0.1 g",
+    );
   });
 
   it("refuses a count and names it; a reading with no box to go into is not lost", async () => {
@@ -239,7 +265,7 @@ describe("Connect scale", () => {
     expect(live().textContent).toMatch(/click the weigh box for this part first/);
     box(2).focus();
     await fake.send("S S     498.60 g\r\n");
-    expect(box(2)).toHaveProperty("value", "498.60");
+    expect(box(2)).toHaveProperty("value", "498.6");
   });
 
   it("sends the print command on request, control characters written as \\r\\n", async () => {

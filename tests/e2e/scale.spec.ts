@@ -47,14 +47,18 @@ test("an in-line four's pistons weighed from a scale on a serial port", async ({
   // A part set on the pan: settling figures and an overload knock are shown, never entered.
   await feed(page, "S D     150.20 g\r\n", "S D     401.70 g\r\n", "S D     400.60 g\r\n");
   await expect(live).toHaveAttribute("data-kind", "settling");
-  await expect(live).toContainText("400.60 g");
+  // Shown at the job's scale resolution (0.1 g), and said once that the scale reads finer.
+  await expect(live).toContainText("400.6 g");
+  await expect(panel.getByTestId("scale-step-note")).toContainText(
+    "The scale reads to 0.01 g; this job records to 0.1 g",
+  );
   await feed(page, "S +\r\n");
   await expect(live).toContainText("Over the scale's capacity");
   await expect(piston(1)).toHaveValue("");
 
   // The stable line split across chunks, between its CR and LF too; repeated while it sits.
   await feed(page, "S S     40", "0.40 g\r", "\nS S     400.40 g\r\n", "S S     400.40 g\r\n");
-  await expect(piston(1)).toHaveValue("400.40");
+  await expect(piston(1)).toHaveValue("400.4");
   await expect(live).toContainText("already entered");
   // Not saved until the machinist presses Enter.
   await expect(page.getByTestId("cell-note-c1_piston")).not.toContainText("saved");
@@ -73,7 +77,7 @@ test("an in-line four's pistons weighed from a scale on a serial port", async ({
     await feed(page, "S D     312.40 g\r\n", `S D     ${weight.slice(0, -1)}7 g\r\n`);
     await feed(page, `S S     ${weight} g\r\n`, `S S     ${weight} g\r\n`);
     await expect(page.getByTestId(`cell-note-c${n}_piston`)).toContainText("saved");
-    await expect(piston(n)).toHaveValue(weight);
+    await expect(piston(n)).toHaveValue(weight.slice(0, -1)); // at the job's 0.1 g
   }
   await expect(page.getByLabel("Cylinder 1 Wrist pin, g")).toBeFocused();
 
@@ -84,8 +88,8 @@ test("an in-line four's pistons weighed from a scale on a serial port", async ({
   // What was saved is what the scale said.
   await page.reload();
   await expect(page.getByTestId("weigh-grid")).toHaveAttribute("data-ready", "true");
-  await expect(piston(1)).toHaveValue("400.40");
-  await expect(piston(4)).toHaveValue("400.90");
+  await expect(piston(1)).toHaveValue("400.4");
+  await expect(piston(4)).toHaveValue("400.9");
   await expect(page.getByLabel("Cylinder 1 Wrist pin, g")).toHaveValue("100.2");
   // The port settings were kept on this PC.
   await expect(page.getByTestId("connect-scale").getByLabel("Baud rate")).toHaveValue("4800");
