@@ -25,12 +25,15 @@ export function BuildRecordScreen({
   cylinders,
   readOnly,
   jobBore,
+  jobStroke = null,
 }: {
   initial: BuildRecordView;
   cylinders: number;
   readOnly: boolean;
   /** The job's bore as entered and its unit, offered when the finished bore is blank. */
   jobBore: { value: string; unit: "in" | "mm" } | null;
+  /** The job's stroke as entered and its unit, offered the same way when the stroke is blank. */
+  jobStroke?: { value: string; unit: "in" | "mm" } | null;
 }) {
   const editor = useBuildRecord(initial);
   const settings = initial.settings;
@@ -69,7 +72,7 @@ export function BuildRecordScreen({
           Lengths in {unit === "in" ? "inches" : "millimetres"}, shown as typed.
         </p>
       )}
-      <EngineFiguresSection {...section} jobBore={jobBore} />
+      <EngineFiguresSection {...section} jobBore={jobBore} jobStroke={jobStroke} />
       <RingGapsSection {...section} />
       <div className="grid gap-6 lg:grid-cols-2">
         <TdcSection {...section} />

@@ -2,7 +2,16 @@
 
 import { formatAngle } from "@/lib/build-record/format";
 import type { BuildRecordData } from "@/lib/build-record/schemas";
-import { bindSection, BuildPanel, Cell, LabelledCell, typed } from "./cells";
+import {
+  bindSection,
+  BuildPanel,
+  Cell,
+  LabelledCell,
+  StackCell,
+  StackRow,
+  StackTable,
+  typed,
+} from "./cells";
 import type { SectionProps } from "./use-build-record";
 
 type Check = BuildRecordData["cam"]["checks"][number];
@@ -62,69 +71,74 @@ export function CamSection(props: SectionProps) {
             ? `${formatAngle(results.installCentreline)}° ATDC`
             : "— (enter the cam card)"}
         </p>
-        <table className="text-sm">
-          <thead>
+        <StackTable
+          head={
             <tr className="text-left text-graphite-500">
               <th className="pr-2 font-semibold">#</th>
-              <th className="pr-2 font-semibold">Opening side</th>
-              <th className="pr-2 font-semibold">Closing side</th>
+              <th className="pr-2 font-semibold">Opening side (° ATDC)</th>
+              <th className="pr-2 font-semibold">Closing side (° ATDC)</th>
               <th className="pr-2 font-semibold">Final</th>
               <th className="pr-2 font-semibold">Centreline</th>
               <th className="font-semibold">Move</th>
             </tr>
-          </thead>
-          <tbody>
-            {cam.checks.map((check, i) => {
-              const r = results.cam[i];
-              const cl = r?.centreline;
-              const corr = r?.correction;
-              return (
-                <tr key={i} data-testid={`cam-check-${i + 1}`}>
-                  <td className="pr-2 font-mono">{i + 1}</td>
-                  {(["openingSide", "closingSide"] as const).map((side) => (
-                    <td key={side} className="py-0.5 pr-2">
-                      <Cell
-                        label={`Check ${i + 1} ${side === "openingSide" ? "opening" : "closing"} side (° ATDC)`}
-                        inputMode="text"
-                        className="w-20"
-                        value={check[side]}
-                        onChange={(v) => setCheck(i, { [side]: typed(v) })}
-                        onCommit={b.commit}
-                        error={b.error(`checks.${i}.${side}`)}
-                        {...b.ro}
-                      />
-                    </td>
-                  ))}
-                  <td className="pr-2 text-center">
-                    <input
-                      type="checkbox"
-                      aria-label={`Check ${i + 1}: crank turned twice, TDC re-checked`}
-                      title="Crank turned twice, TDC re-checked"
-                      checked={check.final}
-                      disabled={readOnly}
-                      onChange={(e) => {
-                        setCheck(i, { final: e.target.checked });
-                        b.commit();
-                      }}
+          }
+        >
+          {cam.checks.map((check, i) => {
+            const r = results.cam[i];
+            const cl = r?.centreline;
+            const corr = r?.correction;
+            return (
+              <StackRow key={i} title={`Check ${i + 1}`} data-testid={`cam-check-${i + 1}`}>
+                <StackCell deskOnly className="pr-2 font-mono">
+                  {i + 1}
+                </StackCell>
+                {(["openingSide", "closingSide"] as const).map((side) => (
+                  <StackCell
+                    key={side}
+                    label={`${side === "openingSide" ? "Opening" : "Closing"} side (° ATDC)`}
+                    className="py-0.5 pr-2"
+                  >
+                    <Cell
+                      label={`Check ${i + 1} ${side === "openingSide" ? "opening" : "closing"} side (° ATDC)`}
+                      inputMode="text"
+                      className="w-20"
+                      value={check[side]}
+                      onChange={(v) => setCheck(i, { [side]: typed(v) })}
+                      onCommit={b.commit}
+                      error={b.error(`checks.${i}.${side}`)}
+                      {...b.ro}
                     />
-                  </td>
-                  <td className="pr-2 font-mono">
-                    {cl?.ok ? `${formatAngle(cl.value.centreline)}°` : ""}
-                  </td>
-                  <td data-testid={`cam-move-${i + 1}`}>
-                    {cl && !cl.ok
-                      ? cl.refusal.message
-                      : corr?.ok
-                        ? corr.value.direction === "none"
-                          ? "On the card"
-                          : `${cl?.ok && cl.value.phasing ? `${formatAngle(cl.value.advance!.replace("-", ""))}° ${cl.value.phasing}: ` : ""}${corr.value.direction === "advance" ? "advance" : "retard"} the cam ${formatAngle(corr.value.move)}° (${formatAngle(corr.value.camDegrees, 2)}° at the sprocket)`
-                        : ""}
-                  </td>
-                </tr>
-              );
-            })}
-          </tbody>
-        </table>
+                  </StackCell>
+                ))}
+                <StackCell label="Final" className="pr-2 text-center">
+                  <input
+                    type="checkbox"
+                    aria-label={`Check ${i + 1}: crank turned twice, TDC re-checked`}
+                    title="Crank turned twice, TDC re-checked"
+                    checked={check.final}
+                    disabled={readOnly}
+                    onChange={(e) => {
+                      setCheck(i, { final: e.target.checked });
+                      b.commit();
+                    }}
+                  />
+                </StackCell>
+                <StackCell label="Centreline" className="pr-2 font-mono">
+                  {cl?.ok ? `${formatAngle(cl.value.centreline)}°` : ""}
+                </StackCell>
+                <StackCell label="Move" data-testid={`cam-move-${i + 1}`}>
+                  {cl && !cl.ok
+                    ? cl.refusal.message
+                    : corr?.ok
+                      ? corr.value.direction === "none"
+                        ? "On the card"
+                        : `${cl?.ok && cl.value.phasing ? `${formatAngle(cl.value.advance!.replace("-", ""))}° ${cl.value.phasing}: ` : ""}${corr.value.direction === "advance" ? "advance" : "retard"} the cam ${formatAngle(corr.value.move)}° (${formatAngle(corr.value.camDegrees, 2)}° at the sprocket)`
+                      : ""}
+                </StackCell>
+              </StackRow>
+            );
+          })}
+        </StackTable>
         {!readOnly ? (
           <button type="button" className="btn-secondary py-1 text-sm" onClick={addCheck}>
             Add a check

@@ -1,6 +1,12 @@
 "use client";
 
-import type { InputHTMLAttributes, KeyboardEvent, ReactNode } from "react";
+import {
+  type HTMLAttributes,
+  type InputHTMLAttributes,
+  type KeyboardEvent,
+  type ReactNode,
+  useId,
+} from "react";
 import { ChangedElsewhere } from "@/components/ui/changed-elsewhere";
 import type { BuildSection } from "@/lib/build-record/schemas";
 import type { SaveState, SectionProps } from "./use-build-record";
@@ -105,17 +111,130 @@ export function Cell({
   );
 }
 
-/** A labelled figure for the engine's own figures. */
-export function LabelledCell(props: Parameters<typeof Cell>[0] & { unit?: string }) {
-  const { unit, ...cell } = props;
+/** A figure the job already holds, offered in a blank box: Enter takes it. */
+export interface Offered {
+  value: string;
+  unit: string;
+}
+
+/**
+ * A labelled figure for the engine's own figures. `offered` (a figure the job holds) is said
+ * beside a blank box, never shown as grey text in it, and Enter in the blank box takes it.
+ */
+export function LabelledCell(
+  props: Parameters<typeof Cell>[0] & { unit?: string; offered?: Offered | null },
+) {
+  const { unit, offered, ...cell } = props;
+  const hintId = useId();
+  const offer = offered && !cell.value && !cell.readOnly ? offered : null;
   return (
-    <label className="flex items-center justify-between gap-2 text-sm">
-      <span className="text-graphite-700">
-        {props.label}
-        {unit ? <span className="text-graphite-500"> ({unit})</span> : null}
-      </span>
-      <Cell {...cell} />
-    </label>
+    <div>
+      <label className="flex items-center justify-between gap-2 text-sm">
+        <span className="text-graphite-700">
+          {props.label}
+          {unit ? <span className="text-graphite-500"> ({unit})</span> : null}
+        </span>
+        <Cell
+          {...cell}
+          aria-describedby={offer ? hintId : undefined}
+          onKeyDown={(e) => {
+            // Runs before the grid moves on, so the figure taken is saved on leaving the box.
+            if (offer && e.key === "Enter" && !e.shiftKey && e.currentTarget.value.trim() === "")
+              cell.onChange(offer.value);
+            cell.onKeyDown?.(e);
+          }}
+        />
+      </label>
+      {offer ? (
+        <p id={hintId} className="mt-0.5 text-right text-xs text-graphite-600">
+          Job: {offer.value} {offer.unit} — Enter takes it
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+/*
+ * The section tables, read at the bench and on a phone. From the md width up they are plain
+ * tables (one row per cylinder, valve or journal, Enter moving along the row); below it every row
+ * stacks as a card, each figure on its own line with its column's words beside it, so the worked
+ * out figures are never cut off at the panel's edge. The boxes stay in the same order either way.
+ */
+
+/** A section's table: the header row(s) in `head`, the rows (StackRow) as children. */
+export function StackTable({ head, children }: { head: ReactNode; children: ReactNode }) {
+  return (
+    <table className="text-sm max-md:block max-md:w-full">
+      <thead className="max-md:hidden">{head}</thead>
+      <tbody className="max-md:block">{children}</tbody>
+    </table>
+  );
+}
+
+/**
+ * One cylinder's, valve's or journal's row; `title` heads its card on a phone ("Cylinder 1,
+ * intake"). `twoUp` sets short figures two to a line on a phone (StackCell `wide` takes a line).
+ */
+export function StackRow({
+  title,
+  twoUp = false,
+  children,
+  ...rest
+}: { title: string; twoUp?: boolean; children: ReactNode } & HTMLAttributes<HTMLTableRowElement>) {
+  return (
+    <tr
+      className={`max-md:mb-3 max-md:border-t max-md:border-graphite-200 max-md:pt-2 ${
+        twoUp ? "max-md:grid max-md:grid-cols-2 max-md:gap-x-4" : "max-md:block"
+      }`}
+      {...rest}
+    >
+      <th
+        scope="row"
+        className="hidden text-left font-semibold max-md:col-span-2 max-md:block max-md:pb-1"
+      >
+        {title}
+      </th>
+      {children}
+    </tr>
+  );
+}
+
+/**
+ * A cell of a section's table. `label` is its column's words, shown beside it on a phone (a cell
+ * without one takes its line alone); `deskOnly` cells (the cylinder, the valve) are said by the
+ * card's title on a phone instead; `phoneOnly` cells (a group's heading) only on a phone.
+ */
+export function StackCell({
+  label,
+  wide = false,
+  deskOnly = false,
+  phoneOnly = false,
+  className = "",
+  children,
+  ...rest
+}: {
+  label?: string;
+  wide?: boolean;
+  deskOnly?: boolean;
+  phoneOnly?: boolean;
+  className?: string;
+  children?: ReactNode;
+} & Omit<HTMLAttributes<HTMLTableCellElement>, "className">) {
+  const phone = deskOnly
+    ? "max-md:hidden"
+    : label
+      ? "max-md:flex max-md:items-center max-md:justify-between max-md:gap-2 max-md:py-0.5 max-md:pr-0 max-md:text-right max-md:before:text-left max-md:before:font-sans max-md:before:text-graphite-600 max-md:before:content-[attr(data-label)]"
+      : "max-md:block max-md:py-0.5 max-md:pr-0";
+  return (
+    <td
+      data-label={label}
+      className={`${className} ${phone} ${wide ? "max-md:col-span-2" : ""} ${
+        phoneOnly ? "hidden max-md:block" : ""
+      }`}
+      {...rest}
+    >
+      {children}
+    </td>
   );
 }
 
@@ -136,7 +255,8 @@ export function BuildPanel({
   note?: ReactNode;
 }) {
   return (
-    // Wide tables (springs, rings, deck) scroll inside their panel on a phone, not the page.
+    // A table wider than the panel (a tablet's width) scrolls inside it, not the page; on a
+    // phone the tables stack (StackTable).
     <section
       className="panel min-w-0 overflow-x-auto p-4"
       aria-labelledby={`build-${section}`}

@@ -42,9 +42,11 @@ export function EngineFiguresSection(
   props: SectionProps & {
     /** The job's bore as entered and its unit, offered when the finished bore is blank. */
     jobBore: { value: string; unit: "in" | "mm" } | null;
+    /** The job's stroke as entered and its unit, offered when the stroke is blank. */
+    jobStroke?: { value: string; unit: "in" | "mm" } | null;
   },
 ) {
-  const { editor, results, settings, readOnly, jobBore } = props;
+  const { editor, results, settings, readOnly, jobBore, jobStroke } = props;
   const b = bindSection(props, "specs");
   const specs = editor.data.specs;
   const unit = specs.lengthUnit;
@@ -128,10 +130,14 @@ export function EngineFiguresSection(
               b.commit();
             }}
           />
+          {/* The job's figure is offered in words beside the box (Enter takes it), only when
+              the record is in the job's unit: a figure in the other unit would be misread. */}
           {cell(["bore"], "Finished bore", unit, {
-            placeholder: jobBore && jobBore.unit === unit ? jobBore.value : undefined,
+            offered: jobBore && jobBore.unit === unit ? jobBore : null,
           })}
-          {cell(["stroke"], "Stroke", unit)}
+          {cell(["stroke"], "Stroke", unit, {
+            offered: jobStroke && jobStroke.unit === unit ? jobStroke : null,
+          })}
           <h3 className="pt-2 text-sm font-semibold">Rings</h3>
           <label className="flex items-center justify-between gap-2 text-sm">
             <span className="text-graphite-700">Ring maker or set</span>

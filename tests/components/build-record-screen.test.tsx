@@ -53,9 +53,21 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-function renderScreen(data = emptyRecord(), readOnly = false) {
+type JobFigure = { value: string; unit: "in" | "mm" } | null;
+
+function renderScreen(
+  data = emptyRecord(),
+  readOnly = false,
+  job: { bore?: JobFigure; stroke?: JobFigure } = {},
+) {
   render(
-    <BuildRecordScreen initial={viewOf(data)} cylinders={4} readOnly={readOnly} jobBore={null} />,
+    <BuildRecordScreen
+      initial={viewOf(data)}
+      cylinders={4}
+      readOnly={readOnly}
+      jobBore={job.bore ?? null}
+      jobStroke={job.stroke ?? null}
+    />,
   );
   return userEvent.setup();
 }
@@ -218,5 +230,113 @@ describe("the build record screen", () => {
     await user.click(screen.getByLabelText("Finished bore", { exact: true }));
     await user.keyboard("4{Tab}");
     expect(api.calls).toEqual([]);
+  });
+
+  it("offers the job's bore and stroke in words beside the blank boxes, and Enter takes them", async () => {
+    const user = renderScreen(emptyRecord(), false, {
+      bore: { value: "4.030", unit: "in" },
+      stroke: { value: "3.480", unit: "in" },
+    });
+    const bore = screen.getByLabelText("Finished bore", { exact: true }) as HTMLInputElement;
+    const stroke = screen.getByLabelText("Stroke", { exact: true }) as HTMLInputElement;
+    // Said as the job's, never as grey text in the box that looks typed.
+    expect(bore.placeholder).toBe("");
+    expect(screen.getByText("Job: 4.030 in — Enter takes it")).toBeTruthy();
+    expect(screen.getByText("Job: 3.480 in — Enter takes it")).toBeTruthy();
+    expect(bore.getAttribute("aria-describedby")).toBeTruthy();
+    await user.click(bore);
+    await user.keyboard("{Enter}");
+    expect(bore.value).toBe("4.030");
+    expect(document.activeElement).toBe(stroke);
+    await user.keyboard("{Enter}");
+    expect(stroke.value).toBe("3.480");
+    expect(screen.queryByText(/Enter takes it/)).toBeNull();
+    await waitFor(() => expect(api.calls.length).toBeGreaterThanOrEqual(1));
+    expect(api.calls.at(-1)!.body).toMatchObject({
+      data: { bore: "4.030", stroke: "3.480", lengthUnit: "in" },
+    });
+  });
+
+  it("does not offer the job's bore to a record kept in the other unit (4.030 in is not 4.030 mm)", () => {
+    const data = emptyRecord();
+    data.specs = { ...data.specs, lengthUnit: "mm" };
+    renderScreen(data, false, { bore: { value: "4.030", unit: "in" } });
+    expect(screen.queryByText(/Enter takes it/)).toBeNull();
+  });
+
+  it("ring gaps: a target gap and what is still to file off, or why there is no target yet", () => {
+    const data = emptyRecord();
+    renderScreen(data);
+    const rings = document.querySelector('[data-section="rings"]') as HTMLElement;
+    const headings = [...rings.querySelectorAll("thead th")].map((th) => th.textContent);
+    expect(headings).toContain("Target gap (in)");
+    expect(headings).toContain("Still to file off");
+    expect(screen.getByTestId("ring-target-why").textContent).toBe(
+      "No target gap yet: enter the finished bore and the gap factors above.",
+    );
+    // The row's own cell says it too, for a screen reader (the dash alone says nothing).
+    expect(screen.getByTestId("ring-target-1-top").textContent).toContain(
+      "enter the finished bore and the gap factors above",
+    );
+  });
+
+  it("ring gaps: with the bore and the top factor, only the rings without a factor are named", () => {
+    const data = emptyRecord();
+    data.specs = {
+      ...data.specs,
+      bore: "4.030",
+      ringFactors: { top: "0.0045", second: null, oil: null },
+    };
+    renderScreen(data);
+    expect(screen.getByTestId("ring-target-why").textContent).toBe(
+      "No target gap for the second ring and oil rails: enter the gap factors above.",
+    );
+    // 0.0045 × 4.030 = 0.018135 in, shown to the bore's 0.001 plus one: 0.0181.
+    expect(screen.getByTestId("ring-target-1-top").textContent).toBe("0.0181");
+  });
+
+  it("bearing clearances: each of the eight readings has its own heading, box label and unit", () => {
+    renderScreen();
+    const section = document.querySelector('[data-section="clearances"]') as HTMLElement;
+    const headings = [...section.querySelectorAll("thead th")].map((th) => th.textContent);
+    expect(headings).toEqual(
+      expect.arrayContaining(["Bearing bore (in)", "Journal (in)", "Clearance (in)"]),
+    );
+    const places = ["Front vertical", "Front horizontal", "Rear vertical", "Rear horizontal"];
+    expect(headings.filter((h) => places.includes(h ?? ""))).toEqual([...places, ...places]);
+    const row = screen.getByTestId("clearance-main-1");
+    const labels = [...row.querySelectorAll("input[data-cell]")].map((i) =>
+      i.getAttribute("aria-label"),
+    );
+    expect(labels).toEqual([
+      "Main 1 bore front vertical (in)",
+      "Main 1 bore front horizontal (in)",
+      "Main 1 bore rear vertical (in)",
+      "Main 1 bore rear horizontal (in)",
+      "Main 1 journal front vertical (in)",
+      "Main 1 journal front horizontal (in)",
+      "Main 1 journal rear vertical (in)",
+      "Main 1 journal rear horizontal (in)",
+    ]);
+  });
+
+  it("every figure of a row carries its column's words for the stacked phone layout", () => {
+    renderScreen();
+    const spring = screen.getByTestId("spring-1-intake");
+    const labelled = [...spring.querySelectorAll("td[data-label]")].map((td) =>
+      td.getAttribute("data-label"),
+    );
+    expect(labelled).toEqual([
+      "Installed height",
+      "Shim",
+      "Load at height",
+      "Seat",
+      "Open",
+      "Coil-bind margin",
+    ]);
+    // The card's own title says which cylinder and valve (the Cyl column is blank on exhaust rows).
+    expect(
+      within(screen.getByTestId("spring-1-exhaust")).getByText("Cylinder 1, exhaust"),
+    ).toBeTruthy();
   });
 });

@@ -21,10 +21,9 @@ export default async function BuildRecordPage({ params }: { params: Promise<{ id
   }
   const record = await loadBuildRecord(getDb(), job, user);
   const s = job.spec;
-  const jobBore =
-    s.boreEntered !== null
-      ? { value: s.boreEntered, unit: s.lengthUnit === "in" ? ("in" as const) : ("mm" as const) }
-      : null;
+  const jobUnit = s.lengthUnit === "in" ? ("in" as const) : ("mm" as const);
+  const jobBore = s.boreEntered !== null ? { value: s.boreEntered, unit: jobUnit } : null;
+  const jobStroke = s.strokeEntered !== null ? { value: s.strokeEntered, unit: jobUnit } : null;
   const [cards, { timeZone }] = await Promise.all([
     listBuildCards(getDb(), job.id),
     findCounterSettings(getDb()),
@@ -37,6 +36,7 @@ export default async function BuildRecordPage({ params }: { params: Promise<{ id
         cylinders={s.cylinders ?? 8}
         readOnly={!may(user, "edit-build-record")}
         jobBore={jobBore}
+        jobStroke={jobStroke}
       />
     </div>
   );
