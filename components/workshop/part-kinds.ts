@@ -1,17 +1,26 @@
 import type { PartKind } from "@/db/schema";
 
-/** Column order at the bench and the labels a machinist expects. */
+/**
+ * Column order at the bench and the one set of part names, the same at every width and on
+ * every page (grid headers, the phone layout, history, the customer summary).
+ */
 export const WEIGH_COLUMNS: { kind: PartKind; label: string; short: string; optional: boolean }[] =
-  [
-    { kind: "piston", label: "Piston", short: "Piston", optional: false },
-    { kind: "wristPin", label: "Wrist pin", short: "Pin", optional: false },
-    { kind: "retainers", label: "Pin retainers (pair)", short: "Retainers", optional: true },
-    { kind: "rings", label: "Ring set", short: "Rings", optional: true },
-    { kind: "smallEnd", label: "Rod small end", short: "Small end", optional: false },
-    { kind: "bigEnd", label: "Rod big end", short: "Big end", optional: false },
-    { kind: "bearing", label: "Rod bearing shells", short: "Bearing", optional: true },
-    { kind: "rodTotal", label: "Whole rod (check)", short: "Rod total", optional: true },
-  ];
+  (
+    [
+      { kind: "piston", label: "Piston", optional: false },
+      { kind: "wristPin", label: "Wrist pin", optional: false },
+      { kind: "retainers", label: "Pin retainers", optional: true },
+      { kind: "rings", label: "Ring set", optional: true },
+      { kind: "smallEnd", label: "Small end", optional: false },
+      { kind: "bigEnd", label: "Big end", optional: false },
+      { kind: "bearing", label: "Rod bearing shells", optional: true },
+      { kind: "rodTotal", label: "Whole rod", optional: true },
+    ] as const
+  ).map((c) => ({
+    ...c,
+    // Kept for the grid's column headers: the same words as the label, never a shorter name.
+    short: c.label,
+  }));
 
 export const KIND_LABEL: Record<PartKind, string> = Object.fromEntries(
   WEIGH_COLUMNS.map((c) => [c.kind, c.label]),

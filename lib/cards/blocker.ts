@@ -8,7 +8,7 @@ const KIND_NAMES: Record<PartKind, string> = {
   rings: "ring set",
   smallEnd: "small end",
   bigEnd: "big end",
-  bearing: "rod bearing",
+  bearing: "rod bearing shells",
   rodTotal: "whole rod",
 };
 const LISTED_MISSING = 4;

@@ -13,7 +13,11 @@ import type { PartWeight } from "@/db/weights";
 // The weigh-in's plausibility rule, the same for the API, the plan and the grid: a weight far
 // from the rest of its kind (lib/balance/plausibility.ts) is held until the machinist confirms it.
 
-/** A part's name in a sentence, and the name of several of them. */
+/**
+ * A part's name in a sentence, and the name of several of them: the bench's words
+ * (components/workshop/part-kinds.ts) in lower case, so the grid, the history and the
+ * customer summary name a part alike.
+ */
 export const PART_NAMES: Record<PartKind, { one: string; many: string }> = {
   piston: { one: "piston", many: "pistons" },
   wristPin: { one: "wrist pin", many: "wrist pins" },
@@ -21,7 +25,7 @@ export const PART_NAMES: Record<PartKind, { one: string; many: string }> = {
   rings: { one: "ring set", many: "ring sets" },
   smallEnd: { one: "small end", many: "small ends" },
   bigEnd: { one: "big end", many: "big ends" },
-  bearing: { one: "rod bearing", many: "rod bearings" },
+  bearing: { one: "rod bearing shells", many: "sets of rod bearing shells" },
   rodTotal: { one: "whole rod", many: "whole rods" },
 };
 

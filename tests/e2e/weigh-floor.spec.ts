@@ -139,7 +139,7 @@ test("the readings box fits repeated readings, and a phone shows one card per cy
   expect(grid!.width).toBeLessThanOrEqual(356);
   const card = page.getByTestId("cylinder-2");
   await expect(card).toContainText("Cylinder 2");
-  const box = await card.getByLabel("Cylinder 2 Rod big end, g").boundingBox();
+  const box = await card.getByLabel("Cylinder 2 Big end, g").boundingBox();
   expect(box!.x + box!.width).toBeLessThanOrEqual(356);
   // The same keyboard order: Enter still goes down the pistons, card to card.
   await page.getByLabel("Cylinder 1 Piston, g").fill("");

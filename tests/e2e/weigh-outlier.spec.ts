@@ -6,10 +6,10 @@ import { signInAs } from "./helpers";
 const SET: Record<string, string[]> = {
   Piston: ["400.0", "401.2", "400.3", "400.9"],
   "Wrist pin": ["100.0", "100.1", "100.0", "100.2"],
-  "Pin retainers (pair)": ["1.5", "1.5", "1.6", "1.5"],
+  "Pin retainers": ["1.5", "1.5", "1.6", "1.5"],
   "Ring set": ["30.1", "30.0", "30.2", "30.1"],
-  "Rod small end": ["150.0", "150.4", "150.3", "150.2"],
-  "Rod big end": ["400.0", "400.2", "400.4", "400.1"],
+  "Small end": ["150.0", "150.4", "150.3", "150.2"],
+  "Big end": ["400.0", "400.2", "400.4", "400.1"],
 };
 
 async function bookFour(page: Page): Promise<number> {
