@@ -132,11 +132,25 @@ const GOING_BACK: readonly Action[] = ["withdraw", "void", "delete"];
 /** Moves that wait for saved lines: they act on what is stored, not on what is typed. */
 const NEEDS_SAVED_LINES: readonly Action[] = ["offer", "accept", "issue"];
 
-export function StatusLine({ outcome, testId }: { outcome: Outcome | null; testId: string }) {
+/**
+ * The one place a document (or the panel) says how the last move went; the next move replaces
+ * it. With nothing to report, unsaved lines are mentioned here instead of in a second line.
+ */
+export function StatusLine({
+  outcome,
+  testId,
+  unsaved = false,
+}: {
+  outcome: Outcome | null;
+  testId: string;
+  unsaved?: boolean;
+}) {
   return (
     <div aria-live="polite" className="min-h-6 text-sm" data-testid={testId}>
       {outcome ? (
         <p className={outcome.ok ? "text-within" : "text-replace"}>{outcome.message}</p>
+      ) : unsaved ? (
+        <p className="text-machine">Lines changed: save them before going on.</p>
       ) : null}
     </div>
   );
@@ -188,6 +202,12 @@ export function BillingDocument({
   const write = useBillingWrite<{ url?: string; paid?: boolean }>(jobId);
   const client = useQueryClient();
   const [leaving, setLeaving] = useState(false);
+  const [unsaved, setUnsaved] = useState(false);
+  // Changing the lines is the next move: whatever the last one said gives way to "Lines changed".
+  const linesChanged = (dirty: boolean) => {
+    setUnsaved(dirty);
+    if (dirty) report("save-lines", null);
+  };
   const { kind, doc } = item;
   const allowed = doc.allowedActions as readonly Action[];
   const what = kind === "quote" ? "this quote" : "this invoice";
@@ -254,7 +274,7 @@ export function BillingDocument({
       <div className="flex flex-wrap items-center gap-3">
         {heading}
         {kind === "quote" ? (
-          <BillingStatus kind="quote" status={doc.status} />
+          <BillingStatus kind="quote" status={doc.status} customerView={customerView} />
         ) : (
           <BillingStatus kind="invoice" status={doc.status} />
         )}
@@ -290,6 +310,7 @@ export function BillingDocument({
             run("save-lines", { url: saveUrl, method: "PUT", body: payload }, "Lines saved.")
           }
           actions={buttons}
+          onDirtyChange={linesChanged}
         />
       ) : (
         <>
@@ -369,7 +390,7 @@ export function BillingDocument({
           }}
         />
       ) : (
-        <StatusLine outcome={outcome} testId={messageTestId} />
+        <StatusLine outcome={outcome} testId={messageTestId} unsaved={unsaved} />
       )}
     </>
   );

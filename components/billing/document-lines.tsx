@@ -32,7 +32,7 @@ export function DocumentLines({
       <tbody>
         {lines.map((l) => (
           <tr key={l.id} className="border-b border-graphite-100">
-            <td className="py-1.5 pr-3 font-mono text-xs">{l.code}</td>
+            <td className="whitespace-nowrap py-1.5 pr-3 font-mono text-xs">{l.code}</td>
             <td className="py-1.5 pr-3">{l.description}</td>
             <td className="py-1.5 pr-3 text-right font-mono">{formatQuantity(l.quantity)}</td>
             <td className="py-1.5 pr-3 text-right font-mono">{money(l.unitPrice)}</td>

@@ -15,6 +15,9 @@ import {
 } from "./billing-document";
 import { jobBillingKey, useBillingWrite, useJobBilling } from "./use-job-billing";
 
+/** Where the panel's one message is shown: under the quote, the invoices' heading or an invoice. */
+type Where = "quote" | "invoices" | number;
+
 /**
  * A job's quote and invoices: one document view for both (components/billing/billing-document),
  * read through TanStack Query from `GET /api/jobs/:id/billing` (the page's render is its first
@@ -24,11 +27,12 @@ export function JobBillingPanel({ initial }: { initial: JobBilling }) {
   const { data } = useJobBilling(initial.job.id, initial);
   const billing = data ?? initial;
   const jobId = billing.job.id;
-  // Outcomes live here, not in the documents: "quote started" outlives the button that said it,
-  // and an invoice made from the quote is reported with the invoices.
-  const [quoteOutcome, setQuoteOutcome] = useState<Outcome | null>(null);
-  const [invoicesOutcome, setInvoicesOutcome] = useState<Outcome | null>(null);
-  const [invoiceOutcome, setInvoiceOutcome] = useState<Record<number, Outcome | null>>({});
+  // One message for the whole panel, kept here, not in the documents: "quote started" outlives
+  // the button that said it, and an invoice made from the quote is reported with the invoices.
+  // It is shown where the move was made, and the next move, anywhere, replaces it.
+  const [said, setSaid] = useState<{ where: Where; outcome: Outcome } | null>(null);
+  const say = (where: Where) => (o: Outcome | null) => setSaid(o ? { where, outcome: o } : null);
+  const at = (where: Where) => (said?.where === where ? said.outcome : null);
   const day = (iso: string | null) => (iso ? shopDate(new Date(iso), billing.timeZone) : "");
   const live = billing.quotes.find((q) => q.status !== "withdrawn");
   const past = billing.quotes.filter((q) => q !== live);
@@ -63,13 +67,13 @@ export function JobBillingPanel({ initial }: { initial: JobBilling }) {
             {...common}
             item={{ kind: "quote", doc: live }}
             messageTestId="quote-message"
-            outcome={quoteOutcome}
+            outcome={at("quote")}
             report={(action: Action, o) =>
-              action === "invoice" ? setInvoicesOutcome(o) : setQuoteOutcome(o)
+              action === "invoice" ? say("invoices")(o) : say("quote")(o)
             }
             heading={
               <h2 id="quote-heading" className="text-lg font-semibold">
-                Quote <span className="font-mono">{live.number}</span>
+                Quote <span className="whitespace-nowrap font-mono">{live.number}</span>
               </h2>
             }
           />
@@ -87,7 +91,7 @@ export function JobBillingPanel({ initial }: { initial: JobBilling }) {
                   void startWith(
                     { url: "/api/quotes", body: { jobId, lines: [] } },
                     "Quote started: add its lines.",
-                    setQuoteOutcome,
+                    say("quote"),
                   )
                 }
               >
@@ -98,7 +102,7 @@ export function JobBillingPanel({ initial }: { initial: JobBilling }) {
                 The shop has not sent a quote for this job yet.
               </p>
             )}
-            <StatusLine outcome={quoteOutcome} testId="quote-message" />
+            <StatusLine outcome={at("quote")} testId="quote-message" />
           </>
         )}
         {past.length > 0 ? (
@@ -125,7 +129,7 @@ export function JobBillingPanel({ initial }: { initial: JobBilling }) {
                 void startWith(
                   { url: "/api/invoices", body: { jobId, lines: [] } },
                   "Draft invoice started.",
-                  setInvoicesOutcome,
+                  say("invoices"),
                 )
               }
             >
@@ -133,7 +137,7 @@ export function JobBillingPanel({ initial }: { initial: JobBilling }) {
             </button>
           ) : null}
         </div>
-        <StatusLine outcome={invoicesOutcome} testId="invoices-message" />
+        <StatusLine outcome={at("invoices")} testId="invoices-message" />
         {billing.invoices.length === 0 ? (
           <p className="text-sm text-graphite-600">No invoices for this job yet.</p>
         ) : null}
@@ -143,16 +147,14 @@ export function JobBillingPanel({ initial }: { initial: JobBilling }) {
               {...common}
               item={{ kind: "invoice", doc: inv }}
               messageTestId={`invoice-${inv.id}-message`}
-              outcome={invoiceOutcome[inv.id] ?? null}
+              outcome={at(inv.id)}
               report={(action, o) =>
-                action === "delete" && o?.ok
-                  ? setInvoicesOutcome(o)
-                  : setInvoiceOutcome((all) => ({ ...all, [inv.id]: o }))
+                action === "delete" && o?.ok ? say("invoices")(o) : say(inv.id)(o)
               }
               heading={
                 <h3 className="font-semibold">
                   {inv.number ? (
-                    <span className="font-mono">{inv.number}</span>
+                    <span className="whitespace-nowrap font-mono">{inv.number}</span>
                   ) : (
                     `Draft invoice ${inv.id}`
                   )}

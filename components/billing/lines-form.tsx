@@ -1,8 +1,8 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { type ReactNode, useRef } from "react";
-import { type Resolver, useFieldArray, useForm } from "react-hook-form";
+import { type ReactNode, useEffect, useRef, useState } from "react";
+import { Controller, type Resolver, useFieldArray, useForm } from "react-hook-form";
 import type { z } from "zod";
 import type { DocumentLine } from "@/db/document-lines";
 import type { PriceItem } from "@/db/prices";
@@ -54,6 +54,7 @@ export function LinesForm({
   busy,
   onSave,
   actions,
+  onDirtyChange,
 }: {
   document: {
     version: number;
@@ -67,6 +68,8 @@ export function LinesForm({
   /** Saves; answers the field errors the server named (`lines.0.quantity`), if it refused. */
   onSave: (payload: LinesPayload) => Promise<Record<string, string> | null>;
   actions: (dirty: boolean) => ReactNode;
+  /** Told when the lines start or stop differing from what is saved (the page says so once). */
+  onDirtyChange?: (dirty: boolean) => void;
 }) {
   const form = useForm<Values, unknown, LinesPayload>({
     resolver: zodResolver(documentLinesSchema) as unknown as Resolver<
@@ -79,6 +82,25 @@ export function LinesForm({
   const { fields, append, remove, move } = useFieldArray({ control: form.control, name: "lines" });
   const rows = form.watch("lines");
   const dirty = form.formState.isDirty;
+  // The one-off price box being typed in shows the figure as typed; every other shows it as money.
+  const [pricing, setPricing] = useState<string | null>(null);
+  // Tell the page only when the lines start or stop differing, and that they no longer do when
+  // this form goes (a save remounts it on the new version).
+  const told = useRef({ dirty: false, onDirtyChange });
+  useEffect(() => {
+    told.current.onDirtyChange = onDirtyChange;
+  });
+  useEffect(() => {
+    if (told.current.dirty === dirty) return;
+    told.current.dirty = dirty;
+    told.current.onDirtyChange?.(dirty);
+  }, [dirty]);
+  useEffect(() => {
+    const t = told.current;
+    return () => {
+      if (t.dirty) t.onDirtyChange?.(false);
+    };
+  }, []);
   const errors = form.formState.errors.lines;
   const bodyRef = useRef<HTMLTableSectionElement>(null);
   const byId = new Map(prices.map((p) => [p.id, p] as const));
@@ -160,10 +182,12 @@ export function LinesForm({
         void submit();
       }}
     >
-      {/* relative: the screen-reader labels (absolute) stay inside the scrolling box */}
-      <div className="relative overflow-x-auto">
-        <table className="w-full text-left text-sm">
-          <thead className="border-b border-graphite-200 text-graphite-600">
+      {/* At phone width each line is a card (code, work, qty, each, amount, move/remove) and the
+          totals sit under the cards; from sm up the same table is a table, scrolling inside this
+          box if it must. relative: the screen-reader labels (absolute) stay inside that box. */}
+      <div className="relative sm:overflow-x-auto" data-testid="lines-box">
+        <table className="w-full text-left text-sm max-sm:block max-sm:[&_tfoot]:mt-2 max-sm:[&_tfoot]:block max-sm:[&_tfoot_td:empty]:hidden max-sm:[&_tfoot_tr]:flex max-sm:[&_tfoot_tr]:justify-end">
+          <thead className="border-b border-graphite-200 text-graphite-600 max-sm:hidden">
             <tr>
               <th className="py-2 pr-3 font-semibold">Code</th>
               <th className="py-2 pr-3 font-semibold">Work (as printed)</th>
@@ -175,22 +199,26 @@ export function LinesForm({
               </th>
             </tr>
           </thead>
-          <tbody ref={bodyRef}>
+          <tbody ref={bodyRef} className="max-sm:block max-sm:space-y-2">
             {fields.map((field, i) => {
               const r = rows[i] ?? {};
               const s = shown(r);
               const e = errors?.[i];
               const why = problem(i);
+              const priceBox = `${field.id}-unitPrice`;
               return (
                 <tr
                   key={field.id}
-                  className="border-b border-graphite-100 align-top"
+                  className="border-b border-graphite-100 align-top max-sm:grid max-sm:grid-cols-3 max-sm:gap-x-3 max-sm:gap-y-1 max-sm:rounded max-sm:border max-sm:border-graphite-200 max-sm:p-3"
                   data-testid={`line-${i + 1}`}
                 >
-                  <td className="py-1.5 pr-3 font-mono text-xs">
+                  <td className="whitespace-nowrap py-1.5 pr-3 font-mono text-xs max-sm:col-span-3 max-sm:py-0">
                     {s.oneOff ? <span className="text-graphite-500">one-off</span> : s.code}
                   </td>
-                  <td className="py-1.5 pr-3">
+                  <td className="py-1.5 pr-3 max-sm:col-span-3 max-sm:pr-0">
+                    <span aria-hidden="true" className="block text-xs text-graphite-600 sm:hidden">
+                      Work
+                    </span>
                     <label className="sr-only" htmlFor={`${field.id}-description`}>
                       Line {i + 1} work
                     </label>
@@ -200,7 +228,7 @@ export function LinesForm({
                       maxLength={200}
                       aria-invalid={e?.description ? true : undefined}
                       {...form.register(`lines.${i}.description`)}
-                      className={`field-input min-w-56 py-1 ${e?.description ? "border-replace" : ""}`}
+                      className={`field-input py-1 max-sm:w-full sm:min-w-56 ${e?.description ? "border-replace" : ""}`}
                     />
                     {why ? (
                       <p className="mt-1 text-xs text-replace" data-testid={`line-${i + 1}-error`}>
@@ -208,7 +236,10 @@ export function LinesForm({
                       </p>
                     ) : null}
                   </td>
-                  <td className="py-1.5 pr-3 text-right">
+                  <td className="py-1.5 pr-3 text-right max-sm:pr-0">
+                    <span aria-hidden="true" className="block text-xs text-graphite-600 sm:hidden">
+                      Qty
+                    </span>
                     <label className="sr-only" htmlFor={`${field.id}-quantity`}>
                       Line {i + 1} quantity
                     </label>
@@ -218,32 +249,64 @@ export function LinesForm({
                       inputMode="decimal"
                       aria-invalid={e?.quantity ? true : undefined}
                       {...form.register(`lines.${i}.quantity`)}
-                      className={`field-input w-20 py-1 text-right font-mono ${e?.quantity ? "border-replace" : ""}`}
+                      className={`field-input w-20 py-1 text-right font-mono max-sm:w-full ${e?.quantity ? "border-replace" : ""}`}
                     />
                   </td>
-                  <td className="py-1.5 pr-3 text-right font-mono">
+                  <td className="whitespace-nowrap py-1.5 pr-3 text-right font-mono max-sm:pr-0">
                     {s.oneOff ? (
                       <>
-                        <label className="sr-only" htmlFor={`${field.id}-unitPrice`}>
+                        <span
+                          aria-hidden="true"
+                          className="block font-sans text-xs text-graphite-600 sm:hidden"
+                        >
+                          Each
+                        </span>
+                        <label className="sr-only" htmlFor={priceBox}>
                           Line {i + 1} price each
                         </label>
-                        <input
-                          id={`${field.id}-unitPrice`}
-                          inputMode="decimal"
-                          placeholder="0.00"
-                          aria-invalid={e?.unitPrice ? true : undefined}
-                          {...form.register(`lines.${i}.unitPrice`)}
-                          className={`field-input w-24 py-1 text-right font-mono ${e?.unitPrice ? "border-replace" : ""}`}
+                        <Controller
+                          control={form.control}
+                          name={`lines.${i}.unitPrice`}
+                          render={({ field: box }) => {
+                            const typed = box.value ?? "";
+                            const asMoney = pricing !== priceBox && PRICE.test(typed.trim());
+                            return (
+                              <input
+                                id={priceBox}
+                                ref={box.ref}
+                                name={box.name}
+                                inputMode="decimal"
+                                placeholder="0.00"
+                                aria-invalid={e?.unitPrice ? true : undefined}
+                                value={asMoney ? money(typed.trim()) : typed}
+                                onFocus={() => setPricing(priceBox)}
+                                onChange={(ev) => box.onChange(ev.target.value)}
+                                onBlur={() => {
+                                  setPricing(null);
+                                  box.onBlur();
+                                }}
+                                className={`field-input w-24 py-1 text-right font-mono max-sm:w-full ${e?.unitPrice ? "border-replace" : ""}`}
+                              />
+                            );
+                          }}
                         />
                       </>
                     ) : (
-                      money(s.unitPrice)
+                      <>
+                        <span className="block font-sans text-xs text-graphite-600 sm:hidden">
+                          Each
+                        </span>
+                        {money(s.unitPrice)}
+                      </>
                     )}
                   </td>
-                  <td className="py-1.5 pr-3 text-right font-mono">
+                  <td className="whitespace-nowrap py-1.5 pr-3 text-right font-mono max-sm:pr-0">
+                    <span className="block font-sans text-xs text-graphite-600 sm:hidden">
+                      Amount
+                    </span>
                     {totals ? money(totals.lineTotals[i]!) : "—"}
                   </td>
-                  <td className="whitespace-nowrap py-1.5">
+                  <td className="whitespace-nowrap py-1.5 max-sm:col-span-3 max-sm:text-right">
                     {i > 0 ? (
                       <button
                         type="button"
@@ -315,9 +378,6 @@ export function LinesForm({
         </button>
         {actions(dirty)}
       </div>
-      {dirty ? (
-        <p className="text-sm text-machine">Lines changed: save them before going on.</p>
-      ) : null}
     </form>
   );
 }

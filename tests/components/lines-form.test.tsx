@@ -135,6 +135,51 @@ describe("the lines form of a draft quote or invoice", () => {
     });
   });
 
+  it("shows a one-off line's price as money once the box is left, and as typed while in it", async () => {
+    const onSave = vi.fn(async (_payload: LinesPayload) => null);
+    form(onSave);
+    await userEvent.click(screen.getByRole("button", { name: "Add a one-off line" }));
+    await userEvent.type(screen.getByLabelText("Line 3 work"), "Dress keyway by hand");
+    const price = screen.getByLabelText<HTMLInputElement>("Line 3 price each");
+    await userEvent.type(price, "40");
+    expect(price.value).toBe("40");
+    await userEvent.tab();
+    // 40 in US dollars, as the same list prices beside it are written ($285.00, $6.50)
+    expect(price.value).toBe("$40.00");
+    // the line's amount beside it: 1 × 40 = 40.00 (by hand)
+    expect(within(screen.getByTestId("line-3")).getAllByText("$40.00")).toHaveLength(1);
+    await userEvent.click(price);
+    expect(price.value).toBe("40");
+    await userEvent.tab();
+    await save();
+    await waitFor(() => expect(onSave).toHaveBeenCalled());
+    // what is sent is the figure typed, not the money shown
+    expect(onSave.mock.calls[0]![0].lines[2]).toEqual({
+      description: "Dress keyway by hand",
+      quantity: "1",
+      unitPrice: "40",
+    });
+  });
+
+  it("shows a saved one-off line's price as money, not as stored", () => {
+    render(
+      <LinesForm
+        document={{
+          version: 4,
+          lines: [{ ...line(13, "X", "1", "40.0000"), priceItemId: null, code: null }],
+          currency: "USD",
+          taxRate: "0",
+        }}
+        prices={[]}
+        cylinders={8}
+        busy={false}
+        onSave={async () => null}
+        actions={() => null}
+      />,
+    );
+    expect(screen.getByLabelText<HTMLInputElement>("Line 1 price each").value).toBe("$40.00");
+  });
+
   it("marks a quantity that is not a number, shows no totals, and puts a server refusal on its box", async () => {
     const onSave = vi.fn(async () => ({ "lines.0.quantity": "Only 4 cylinders on this job." }));
     form(onSave);

@@ -1,4 +1,5 @@
 import Link from "next/link";
+import type { ReactNode } from "react";
 import { BillingStatus } from "@/components/billing/billing-status";
 import { INVOICE_STATUS_LABEL } from "@/components/billing/labels";
 import { Pager } from "@/components/ui/pager";
@@ -41,6 +42,52 @@ export default async function InvoicesPage({
     reconciles ? countPaymentsToReconcile(getDb()) : Promise.resolve(0),
   ]);
   const statuses = INVOICE_STATUSES.filter((s) => customerId === undefined || s !== "draft");
+  // One set of cells for the table (from sm up) and the phone cards; numbers never wrap.
+  type Row = (typeof invoices)[number];
+  const columns: {
+    head: string;
+    mono?: boolean;
+    right?: boolean;
+    cell: (inv: Row) => ReactNode;
+  }[] = [
+    {
+      head: "Invoice",
+      mono: true,
+      cell: (inv) => (
+        <Link
+          href={`/jobs/${inv.jobId}/billing`}
+          className="underline decoration-graphite-300 underline-offset-4 hover:decoration-brass-500"
+        >
+          {inv.number ?? `Draft ${inv.id}`}
+        </Link>
+      ),
+    },
+    { head: "Job", mono: true, cell: (inv) => inv.jobNumber },
+    ...(customerId === undefined
+      ? [{ head: "Customer", cell: (inv: Row) => inv.customerName }]
+      : []),
+    {
+      head: "Issued",
+      mono: true,
+      cell: (inv) => (inv.issuedAt ? shopDate(new Date(inv.issuedAt), timeZone) : "—"),
+    },
+    {
+      head: "Total",
+      mono: true,
+      right: true,
+      cell: (inv) => formatMoney(inv.total, inv.currency),
+    },
+    {
+      head: "Still owed",
+      mono: true,
+      right: true,
+      cell: (inv) =>
+        inv.status === "issued"
+          ? formatMoney(subtractMoney(inv.total, inv.amountPaid), inv.currency)
+          : "—",
+    },
+    { head: "State", cell: (inv) => <BillingStatus kind="invoice" status={inv.status} /> },
+  ];
 
   return (
     <section>
@@ -85,19 +132,40 @@ export default async function InvoicesPage({
           </button>
         </form>
       </div>
-      <div className="panel overflow-x-auto">
+      {/* At phone width each invoice is a card: the same cells, each with its heading. */}
+      <ul className="space-y-2 sm:hidden" data-testid="invoice-cards">
+        {invoices.map((inv) => (
+          <li key={inv.id} className="panel p-3 text-sm" data-testid={`invoice-card-${inv.id}`}>
+            <dl className="grid grid-cols-[6rem_1fr] gap-x-3 gap-y-1">
+              {columns.map((c) => (
+                <div key={c.head} className="contents">
+                  <dt className="text-graphite-500">{c.head}</dt>
+                  <dd
+                    className={`min-w-0 ${c.mono ? "whitespace-nowrap font-mono" : "break-words"}`}
+                  >
+                    {c.cell(inv)}
+                  </dd>
+                </div>
+              ))}
+            </dl>
+          </li>
+        ))}
+        {invoices.length === 0 ? (
+          <li className="panel p-4 text-sm text-graphite-600">No invoices to show.</li>
+        ) : null}
+      </ul>
+      <div className="panel hidden overflow-x-auto sm:block">
         <table className="w-full text-left text-sm">
           <thead className="border-b border-graphite-200 bg-graphite-50 text-graphite-600">
             <tr>
-              <th className="px-4 py-2 font-semibold">Invoice</th>
-              <th className="px-4 py-2 font-semibold">Job</th>
-              {customerId === undefined ? (
-                <th className="px-4 py-2 font-semibold">Customer</th>
-              ) : null}
-              <th className="px-4 py-2 font-semibold">Issued</th>
-              <th className="px-4 py-2 text-right font-semibold">Total</th>
-              <th className="px-4 py-2 text-right font-semibold">Still owed</th>
-              <th className="px-4 py-2 font-semibold">State</th>
+              {columns.map((c) => (
+                <th
+                  key={c.head}
+                  className={`px-4 py-2 font-semibold ${c.right ? "text-right" : ""}`}
+                >
+                  {c.head}
+                </th>
+              ))}
             </tr>
           </thead>
           <tbody>
@@ -107,32 +175,14 @@ export default async function InvoicesPage({
                 className="border-b border-graphite-100 last:border-0"
                 data-testid={`invoice-row-${inv.id}`}
               >
-                <td className="px-4 py-2 font-mono">
-                  <Link
-                    href={`/jobs/${inv.jobId}/billing`}
-                    className="underline decoration-graphite-300 underline-offset-4 hover:decoration-brass-500"
+                {columns.map((c) => (
+                  <td
+                    key={c.head}
+                    className={`px-4 py-2 ${c.mono ? "whitespace-nowrap font-mono" : ""} ${c.right ? "text-right" : ""}`}
                   >
-                    {inv.number ?? `Draft ${inv.id}`}
-                  </Link>
-                </td>
-                <td className="px-4 py-2 font-mono">{inv.jobNumber}</td>
-                {customerId === undefined ? (
-                  <td className="px-4 py-2">{inv.customerName}</td>
-                ) : null}
-                <td className="px-4 py-2 font-mono">
-                  {inv.issuedAt ? shopDate(new Date(inv.issuedAt), timeZone) : "—"}
-                </td>
-                <td className="px-4 py-2 text-right font-mono">
-                  {formatMoney(inv.total, inv.currency)}
-                </td>
-                <td className="px-4 py-2 text-right font-mono">
-                  {inv.status === "issued"
-                    ? formatMoney(subtractMoney(inv.total, inv.amountPaid), inv.currency)
-                    : "—"}
-                </td>
-                <td className="px-4 py-2">
-                  <BillingStatus kind="invoice" status={inv.status} />
-                </td>
+                    {c.cell(inv)}
+                  </td>
+                ))}
               </tr>
             ))}
           </tbody>
