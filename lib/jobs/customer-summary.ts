@@ -4,6 +4,9 @@ import type { RotatingRecordInput } from "@/lib/validation/workshop";
 import type { Workshop } from "@/lib/workshop/load";
 import { PART_NAMES } from "@/lib/workshop/outliers";
 
+/** Between a figure and its unit, so the two never part at a line end. */
+const NBSP = "\u00a0";
+
 /** Rotating parts as a customer reads them. */
 const ROTATING_NAME: Record<RotatingPart, string> = {
   crankshaft: "Crankshaft",
@@ -25,7 +28,8 @@ const KIND_ORDER: PartKind[] = [
 
 /**
  * What was done on a job, in plain sentences for the customer: the parts weighed and matched,
- * the bobweight figure the crank was balanced with, each rotating part checked against its ISO
+ * the bobweights the crank was balanced with (each crankpin's figure as the balance card lists
+ * it, and the mean the set was built to), each rotating part checked against its ISO
  * 21940-11 balance grade. Nothing of the bench's working (no readings, targets or metal to take
  * off). Empty while nothing has been recorded.
  */
@@ -49,12 +53,24 @@ export function customerWorkDone(workshop: Workshop): string[] {
       `Matched: ${plan.reweighed} ${plan.reweighed === 1 ? "part" : "parts"} machined and weighed again to match the set.`,
     );
 
+  // The same per-crankpin figures the balance card lists, through the same display rule; where
+  // the pins differ, the one figure the set is built to is named as their mean.
+  const mass = (value: string) => `${formatDerivedMass(value, resolution)}${NBSP}${unit}`;
   const buildTo = plan.finished?.bobweightNeeded ? plan.finished.buildTo : [];
   for (const set of buildTo) {
     const rods = buildTo.length > 1 ? ` (${set.rodsPerPin} rods to a crankpin)` : "";
-    done.push(
-      `Bobweight for the crankshaft balance: ${formatDerivedMass(set.mass, resolution)} ${unit}${rods}.`,
-    );
+    const figures = set.pins.map((p) => mass(p.mass));
+    const pinNumbers = set.pins.map((p) => String(p.crankpin));
+    if (new Set(figures).size === 1)
+      done.push(
+        set.pins.length === 1
+          ? `Bobweight for the crankshaft balance${rods}: ${figures[0]} (crankpin ${pinNumbers[0]}).`
+          : `Bobweight for the crankshaft balance${rods}: ${figures[0]}, the same on crankpins ${joinWords(pinNumbers)}.`,
+      );
+    else
+      done.push(
+        `Bobweights for the crankshaft balance${rods}, one per crankpin as on the balance card: ${joinWords(set.pins.map((p, i) => `crankpin ${p.crankpin} ${figures[i]}`))}; built to their mean, ${mass(set.mass)}.`,
+      );
   }
 
   for (const record of rotating) {

@@ -98,7 +98,7 @@ describe("a customer's own job page", () => {
     const page = await customerPage();
     expect(page.props.workDone).toEqual([
       "Weighed: 8 pistons, 8 wrist pins, 8 pairs of pin retainers, 8 ring sets, 8 small ends, 8 big ends and 8 sets of rod bearing shells.",
-      "Bobweight for the crankshaft balance: 1796.00 g.",
+      "Bobweight for the crankshaft balance: 1796.00\u00a0g, the same on crankpins 1, 2, 3 and 4.",
       "Crankshaft balanced and checked within ISO balance grade G 2.5.",
     ]);
     const html = renderToStaticMarkup(<CustomerJob {...page.props} cards={null} />);
