@@ -6,7 +6,7 @@ import { Controller, type Resolver, useFieldArray, useForm } from "react-hook-fo
 import type { z } from "zod";
 import type { DocumentLine } from "@/db/document-lines";
 import type { PriceItem } from "@/db/prices";
-import { formatMoney } from "@/lib/billing/format";
+import { currencyPlaces, formatMoney } from "@/lib/billing/format";
 import { startingQuantity } from "@/lib/billing/quantity";
 import { computeTotals } from "@/lib/billing/totals";
 import { documentLinesSchema } from "@/lib/validation/billing";
@@ -106,6 +106,10 @@ export function LinesForm({
   const byId = new Map(prices.map((p) => [p.id, p] as const));
   const kept = new Map(document.lines.map((l) => [l.id, l] as const));
   const money = (a: string) => formatMoney(a, document.currency);
+  // A typed price shown as money only when money shows all of it: 40.125 stays as typed.
+  const places = currencyPlaces(document.currency) ?? 2;
+  const showsAsMoney = (p: string) =>
+    PRICE.test(p) && (p.split(".")[1] ?? "").replace(/0+$/, "").length <= places;
 
   const shown = (r: Row) => {
     if (r.lineId !== undefined) {
@@ -269,7 +273,7 @@ export function LinesForm({
                           name={`lines.${i}.unitPrice`}
                           render={({ field: box }) => {
                             const typed = box.value ?? "";
-                            const asMoney = pricing !== priceBox && PRICE.test(typed.trim());
+                            const asMoney = pricing !== priceBox && showsAsMoney(typed.trim());
                             return (
                               <input
                                 id={priceBox}

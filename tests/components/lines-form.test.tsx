@@ -151,6 +151,14 @@ describe("the lines form of a draft quote or invoice", () => {
     await userEvent.click(price);
     expect(price.value).toBe("40");
     await userEvent.tab();
+    // a price money would round (40.125 → $40.13) stays as typed, so what is shown is what is charged
+    await userEvent.clear(price);
+    await userEvent.type(price, "40.125");
+    await userEvent.tab();
+    expect(price.value).toBe("40.125");
+    await userEvent.clear(price);
+    await userEvent.type(price, "40");
+    await userEvent.tab();
     await save();
     await waitFor(() => expect(onSave).toHaveBeenCalled());
     // what is sent is the figure typed, not the money shown
