@@ -46,6 +46,12 @@ export function VerifiedCardView({ card }: { card: VerifiedCard }) {
         <Fact term="Verification code">
           <span className="font-mono">{card.verificationCode}</span>
         </Fact>
+        {/* Named on the card, as its first caution says: the scale resolution and the balancer. */}
+        <Fact term="Scale">
+          {card.equipment.scaleName ?? "Shop scale"}, resolution{" "}
+          <span className="font-mono">{`${card.equipment.resolution}\u00a0${card.bobweights.unit}`}</span>
+        </Fact>
+        <Fact term="Balancer">{card.equipment.balancerName ?? "Not named on the card"}</Fact>
       </dl>
       <section>
         <h2 className="mb-1 text-sm font-semibold text-graphite-600">Bobweights</h2>

@@ -35,6 +35,8 @@ export interface VerifiedCard {
   };
   /** The crankshaft's grade and whether its final readings are within it; null if not recorded. */
   crank: { grade: string | null; pass: boolean | null } | null;
+  /** The scale (its name where the shop gave one) and its resolution, and the balancer, as on the card. */
+  equipment: { scaleName: string | null; resolution: string; balancerName: string | null };
 }
 
 const NOT_FOUND_MESSAGE =
@@ -66,6 +68,11 @@ export function toVerifiedCard(card: StoredCard): VerifiedCard {
       })),
     },
     crank: crank?.recorded ? { grade: crank.grade, pass: crank.pass } : null,
+    equipment: {
+      scaleName: data.scaleName ?? null,
+      resolution: data.resolution,
+      balancerName: data.balancerName ?? null,
+    },
   };
 }
 
