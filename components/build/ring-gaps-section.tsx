@@ -130,7 +130,7 @@ export function RingGapsSection(props: SectionProps) {
             return (
               <StackRow
                 key={key}
-                title={`Cylinder ${c}, ${RING_WORDS[ring]}`}
+                title={`Cylinder ${c}, ${RING_WORDS[ring].toLowerCase()}`}
                 data-testid={`ring-${c}-${ring}`}
               >
                 <StackCell deskOnly className="pr-3 font-mono">

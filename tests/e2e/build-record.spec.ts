@@ -53,14 +53,22 @@ test("ring gaps, TDC and a cam check typed by keyboard, kept after a reload", as
   await expect(page.getByText(/supports the builder's judgement/)).toBeVisible();
 
   await page.getByRole("combobox", { name: "Lengths in" }).selectOption("in");
+  // The job's own bore and stroke are offered in words beside the blank boxes; Enter takes them.
+  await expect(page.getByText("Job: 4.030 in — Enter takes it")).toBeVisible();
+  await expect(page.getByText("Job: 3.480 in — Enter takes it")).toBeVisible();
   await page.getByLabel("Finished bore", { exact: true }).click();
-  await typeAndEnter(page, "4.030");
+  await page.keyboard.press("Enter");
+  await expect(page.getByLabel("Finished bore", { exact: true })).toHaveValue("4.030");
   // Enter moved on to the stroke at once.
   await expect(page.getByLabel("Stroke", { exact: true })).toBeFocused();
-  await typeAndEnter(page, "3.480");
+  await page.keyboard.press("Enter");
+  await expect(page.getByLabel("Stroke", { exact: true })).toHaveValue("3.480");
   await page.getByLabel("Top ring gap factor", { exact: true }).click();
   await typeAndEnter(page, ".0045");
   await expect(page.getByTestId("save-specs")).toHaveText("Saved");
+  await expect(page.getByTestId("ring-target-why")).toHaveText(
+    "No target gap for the second ring and oil rails: enter the gap factors above.",
+  );
 
   // 0.0045 × 4.030 = 0.018135 in; a 0.015 gap leaves 0.003135 to file (shown to 0.0001 in).
   await page.getByLabel("Cylinder 1 Top ring gap").click();
@@ -119,6 +127,49 @@ test("the demo's complete record reads back to the customer once collected", asy
   await expect(page.getByTestId("deck-ratio-1")).toContainText(":1");
   await expect(page.getByLabel("Cylinder 1 deck clearance")).toHaveAttribute("readonly", "");
   await expect(page.getByText("Read only")).toBeVisible();
+});
+
+test("at a phone's width (390 px) the worked-out figures stack per row and none is cut off", async ({
+  page,
+}) => {
+  await signInAs(page, "customer");
+  await page.goto("/jobs");
+  await page
+    .getByRole("row")
+    .filter({ hasText: "Flat-plane V8" })
+    .getByRole("link")
+    .first()
+    .click();
+  await page.getByRole("link", { name: "Build" }).click();
+  await expect(page.getByTestId("spring-1-intake")).toBeVisible();
+  await page.setViewportSize({ width: 390, height: 844 });
+
+  /** Shown, and wholly inside the phone's width (not hidden past a panel's edge). */
+  async function onScreen(what: ReturnType<Page["getByTestId"]>) {
+    await expect(what).toBeVisible();
+    const box = (await what.boundingBox())!;
+    expect(box.x).toBeGreaterThanOrEqual(0);
+    expect(box.x + box.width).toBeLessThanOrEqual(390);
+  }
+  // The demo's cylinder 1 intake: seat load 402 N as read; open 402 + 60 N/mm × 12.00 mm =
+  // 1122 N; coil-bind margin 40.00 − 12.00 − 26.50 = 1.50 mm.
+  const spring = page.getByTestId("spring-1-intake");
+  await onScreen(spring.getByText("1122", { exact: true }));
+  await expect(page.getByTestId("spring-margin-1-intake")).toHaveText("1.50");
+  await onScreen(page.getByTestId("spring-margin-1-intake"));
+  // Top ring: 0.0050 × 92.00 = 0.46 mm to file to; read 0.47, in the gap.
+  await expect(page.getByTestId("ring-status-1-top")).toHaveText("In gap");
+  await onScreen(page.getByTestId("ring-status-1-top"));
+  // Main 1: 60.048 − 59.996 = 0.052 mm tightest, 60.050 − 59.995 = 0.055 mm widest.
+  const main = page.getByTestId("clearance-main-1");
+  await onScreen(main.getByText("0.052–0.055", { exact: true }));
+  await onScreen(main.getByText(/^In the window/));
+  await onScreen(page.getByTestId("deck-ratio-1"));
+  // No section hides a column in a sideways scroll.
+  for (const section of await page.locator("section[data-section]").all()) {
+    const [scroll, client] = await section.evaluate((el) => [el.scrollWidth, el.clientWidth]);
+    expect(scroll).toBeLessThanOrEqual(client);
+  }
 });
 
 test("the build record is issued as a PDF whose code verifies publicly", async ({ page }) => {
