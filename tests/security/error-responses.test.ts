@@ -83,6 +83,7 @@ describe("an unexpected failure inside a route", () => {
     expect(result).toEqual({
       ok: false,
       status: 500,
+      code: GENERIC.error.code,
       message: GENERIC.error.message,
       fields: undefined,
     });
