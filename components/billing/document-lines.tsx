@@ -82,7 +82,8 @@ export function TotalsFoot({
             {label}
           </td>
           <td
-            className="py-1 text-right font-mono"
+            // Beside a trailing column (the editor's remove buttons) the amounts keep a gap: so do these.
+            className={`py-1 text-right font-mono${trailing ? " pr-3" : ""}`}
             data-testid={strong ? "document-total" : undefined}
           >
             {value}
