@@ -884,7 +884,7 @@ export function WeighGrid({
                   className="px-2 py-2 text-left font-semibold"
                   title={col.label}
                 >
-                  {col.short}
+                  {col.label}
                   {col.optional ? (
                     <span className="font-normal text-graphite-400"> (opt.)</span>
                   ) : null}
