@@ -19,6 +19,9 @@ export default defineConfig({
     exclude: ["tests/db/backup.test.ts", "tests/db/sqlite-schema.test.ts", "node_modules/**"],
     environment: "node",
     globalSetup: ["tests/helpers/pg-global-setup.ts"],
+    // No test reaches the real payment provider: a test that needs one starts our fake and points
+    // STRIPE_API_BASE at it; otherwise calls go to a closed loopback port and fail at once.
+    env: { STRIPE_API_BASE: "http://127.0.0.1:9" },
     setupFiles: ["tests/helpers/setup.ts", "tests/helpers/pg-setup.ts"],
     pool: "forks",
     maxWorkers: 2,
