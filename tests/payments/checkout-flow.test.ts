@@ -1,6 +1,5 @@
-import type { Server } from "node:http";
 import { renderToStaticMarkup } from "react-dom/server";
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
+import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import { POST as checkoutRoute } from "@/app/api/invoices/[id]/checkout/route";
 import PayReturnPage from "@/app/pay/return/page";
 import type { DB } from "@/db/client";
@@ -9,39 +8,17 @@ import { listPaymentsForInvoice, listUnappliedPayments } from "@/db/payments";
 import { createInvoice, issueInvoice } from "@/lib/billing/invoices";
 import { recordManualPayment } from "@/lib/billing/payments";
 import { resetEnvCache } from "@/lib/env";
-import { resetStripeClient, stripeClient } from "@/lib/payments/stripe";
-import { type FakePayments, startFakePayments } from "@/scripts/fake-payments";
+import { stripeClient } from "@/lib/payments/stripe";
 import { type BillingWorld, setUpBilling } from "../api/billing/fixtures";
 import { freshDb } from "../helpers/db";
 import { jsonRequest, params } from "../helpers/http";
 import { signInAs } from "../helpers/session";
-import { startWebhookAdapter, TEST_WEBHOOK_SECRET } from "./support";
+import { startProviderFakeForFile } from "./support";
 
-let fake: FakePayments;
-let adapter: Server;
+const provider = startProviderFakeForFile();
+const { atProvider, pay } = provider;
 let db: DB;
 let w: BillingWorld;
-
-beforeAll(async () => {
-  const hook = await startWebhookAdapter();
-  adapter = hook.server;
-  fake = await startFakePayments({
-    port: 0,
-    webhookUrl: hook.url,
-    webhookSecret: TEST_WEBHOOK_SECRET,
-  });
-  vi.stubEnv("STRIPE_API_BASE", fake.url);
-  resetEnvCache();
-  resetStripeClient();
-});
-
-afterAll(async () => {
-  await fake.stop();
-  await new Promise((r) => adapter.close(r));
-  vi.unstubAllEnvs();
-  resetEnvCache();
-  resetStripeClient();
-});
 
 beforeEach(async () => {
   db = await freshDb();
@@ -76,14 +53,14 @@ describe("paying an invoice online through the SDK and the local fake", () => {
     const { status, body } = await startCheckout(invoice.id);
     expect(status).toBe(201);
     expect(body).toMatchObject({ amount: "342.00", currency: "USD" });
-    expect(body.url).toBe(`${fake.url}/pay/${body.sessionId}`);
+    expect(body.url).toBe(`${provider.fake.url}/pay/${body.sessionId}`);
     expect(body.sessionId).toMatch(/^cs_test_/);
 
     const page = await (await fetch(body.url)).text();
     expect(page).toContain("$342.00");
     expect(page).toContain(`Invoice ${invoice.number}`);
 
-    const paid = await fetch(`${fake.url}/pay/${body.sessionId}/pay`, {
+    const paid = await fetch(`${provider.fake.url}/pay/${body.sessionId}/pay`, {
       method: "POST",
       redirect: "manual",
     });
@@ -91,7 +68,7 @@ describe("paying an invoice online through the SDK and the local fake", () => {
     expect(paid.headers.get("location")).toBe(
       `http://localhost/pay/return?invoice=${invoice.id}&result=success&session_id=${body.sessionId}`,
     );
-    expect(fake.deliveries.at(-1)).toMatchObject({
+    expect(provider.fake.deliveries.at(-1)).toMatchObject({
       type: "checkout.session.completed",
       status: 200,
     });
@@ -112,16 +89,19 @@ describe("paying an invoice online through the SDK and the local fake", () => {
     expect(html).toContain("Paid in full");
 
     // Pressing Pay again on a finished session sends nothing more.
-    const deliveries = fake.deliveries.length;
-    await fetch(`${fake.url}/pay/${body.sessionId}/pay`, { method: "POST", redirect: "manual" });
-    expect(fake.deliveries.length).toBe(deliveries);
+    const deliveries = provider.fake.deliveries.length;
+    await fetch(`${provider.fake.url}/pay/${body.sessionId}/pay`, {
+      method: "POST",
+      redirect: "manual",
+    });
+    expect(provider.fake.deliveries.length).toBe(deliveries);
   });
 
   it("leaves the invoice unpaid when the customer declines", async () => {
     const invoice = await issued();
     signInAs(w.users.customer);
     const { body } = await startCheckout(invoice.id);
-    const declined = await fetch(`${fake.url}/pay/${body.sessionId}/decline`, {
+    const declined = await fetch(`${provider.fake.url}/pay/${body.sessionId}/decline`, {
       method: "POST",
       redirect: "manual",
     });
@@ -129,7 +109,10 @@ describe("paying an invoice online through the SDK and the local fake", () => {
     expect(declined.headers.get("location")).toBe(
       `http://localhost/pay/return?invoice=${invoice.id}&result=cancelled`,
     );
-    expect(fake.deliveries.at(-1)).toMatchObject({ type: "checkout.session.expired", status: 200 });
+    expect(provider.fake.deliveries.at(-1)).toMatchObject({
+      type: "checkout.session.expired",
+      status: 200,
+    });
     expect(await findInvoiceById(db, invoice.id)).toMatchObject({
       status: "issued",
       amountPaid: "0.00",
@@ -175,9 +158,7 @@ describe("paying an invoice online through the SDK and the local fake", () => {
 
   it("answers 502 when the payment service cannot be reached", async () => {
     const invoice = await issued();
-    vi.stubEnv("STRIPE_API_BASE", "http://127.0.0.1:9");
-    resetEnvCache();
-    resetStripeClient();
+    provider.pointAt("http://127.0.0.1:9");
     const quiet = vi.spyOn(console, "error").mockImplementation(() => {});
     try {
       signInAs(w.users.customer);
@@ -186,23 +167,9 @@ describe("paying an invoice online through the SDK and the local fake", () => {
       expect(body.error.code).toBe("payment_provider");
     } finally {
       quiet.mockRestore();
-      vi.stubEnv("STRIPE_API_BASE", fake.url);
-      resetEnvCache();
-      resetStripeClient();
     }
   });
 });
-
-/** The session as the provider holds it (the fake answers the SDK's read). */
-async function atProvider(sessionId: string): Promise<{ status: string; amount_total: number }> {
-  const res = await fetch(`${fake.url}/v1/checkout/sessions/${sessionId}`, {
-    headers: { authorization: "Bearer sk_test_local" },
-  });
-  return res.json();
-}
-
-const pay = (sessionId: string) =>
-  fetch(`${fake.url}/pay/${sessionId}/pay`, { method: "POST", redirect: "manual" });
 
 const sessionRows = (invoiceId: number) =>
   db
@@ -226,9 +193,9 @@ describe("one payment page per invoice and amount", () => {
     ]);
 
     await pay(first.body.sessionId);
-    const deliveries = fake.deliveries.length;
+    const deliveries = provider.fake.deliveries.length;
     await pay(second.body.sessionId); // the same page: already paid, nothing more is taken
-    expect(fake.deliveries.length).toBe(deliveries);
+    expect(provider.fake.deliveries.length).toBe(deliveries);
     expect(await listPaymentsForInvoice(db, invoice.id)).toHaveLength(1);
     expect(await findInvoiceById(db, invoice.id)).toMatchObject({ status: "paid" });
     // Paid: no page is offered any more.
@@ -255,9 +222,9 @@ describe("one payment page per invoice and amount", () => {
       { id: fresh.body.sessionId, status: "open", amount: "332.00" },
     ]);
     // The closed page takes no money.
-    const deliveries = fake.deliveries.length;
+    const deliveries = provider.fake.deliveries.length;
     await pay(old.body.sessionId);
-    expect(fake.deliveries.length).toBe(deliveries);
+    expect(provider.fake.deliveries.length).toBe(deliveries);
   });
 
   it("keeps to reconcile a payment on the old page made after cash was taken, and opens a new one", async () => {
@@ -266,7 +233,7 @@ describe("one payment page per invoice and amount", () => {
     const old = await startCheckout(invoice.id);
     await recordManualPayment(db, invoice.id, { method: "cash", amount: "10.00" }, null);
     await pay(old.body.sessionId); // 342.00 taken where 332.00 is owed
-    expect(fake.deliveries.at(-1)).toMatchObject({
+    expect(provider.fake.deliveries.at(-1)).toMatchObject({
       type: "checkout.session.completed",
       status: 200,
     });
@@ -295,7 +262,7 @@ describe("one payment page per invoice and amount", () => {
       await bothThere;
       return create(...args);
     });
-    const created = fake.deliveries.length;
+    const created = provider.fake.deliveries.length;
     const [a, b] = await Promise.all([startCheckout(invoice.id), startCheckout(invoice.id)]);
     expect(arrived).toBe(2);
     expect([a.status, b.status]).toEqual([201, 201]);
@@ -304,7 +271,7 @@ describe("one payment page per invoice and amount", () => {
       { id: a.body.sessionId, status: "open", amount: "342.00" },
     ]);
     // The loser's page was opened at the provider and closed again there.
-    const closed = fake.deliveries
+    const closed = provider.fake.deliveries
       .slice(created)
       .filter((d) => d.type === "checkout.session.expired");
     expect(closed).toHaveLength(1);
@@ -338,10 +305,13 @@ describe("a page paid while its notice is still on the way", () => {
     resetEnvCache();
     try {
       await pay(old.body.sessionId);
-      expect(fake.deliveries.at(-1)).toMatchObject({ sessionId: old.body.sessionId, status: 400 });
+      expect(provider.fake.deliveries.at(-1)).toMatchObject({
+        sessionId: old.body.sessionId,
+        status: 400,
+      });
     } finally {
       vi.unstubAllEnvs();
-      vi.stubEnv("STRIPE_API_BASE", fake.url);
+      vi.stubEnv("STRIPE_API_BASE", provider.fake.url);
       resetEnvCache();
     }
     await recordManualPayment(db, invoice.id, { method: "cash", amount: "10.00" }, null);

@@ -1,51 +1,22 @@
-import type { Server } from "node:http";
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
+import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import type { DB } from "@/db/client";
 import { findInvoiceById } from "@/db/invoices";
 import { listPaymentsForInvoice } from "@/db/payments";
 import { takeCounterPayment } from "@/lib/billing/counter-payments";
 import { createInvoice, issueInvoice, voidInvoice } from "@/lib/billing/invoices";
-import { resetEnvCache } from "@/lib/env";
 import { startCheckout } from "@/lib/payments/checkout";
-import { resetStripeClient } from "@/lib/payments/stripe";
-import { type FakePayments, startFakePayments } from "@/scripts/fake-payments";
 import { type BillingWorld, setUpBilling } from "../api/billing/fixtures";
 import { freshDb } from "../helpers/db";
-import { startWebhookAdapter, TEST_WEBHOOK_SECRET } from "./support";
+import { startProviderFakeForFile } from "./support";
 
 // Money taken at the counter, or a void, closes the invoice's open payment page at the provider
 // at once; when the provider cannot be reached the counter's work stands, the failure is kept on
 // the page's row and the next checkout closes it.
 
-let fake: FakePayments;
-let adapter: Server;
+const provider = startProviderFakeForFile();
+const { atProvider, pay, pointAt: pointProviderAt } = provider;
 let db: DB;
 let w: BillingWorld;
-
-function pointProviderAt(url: string) {
-  vi.stubEnv("STRIPE_API_BASE", url);
-  resetEnvCache();
-  resetStripeClient();
-}
-
-beforeAll(async () => {
-  const hook = await startWebhookAdapter();
-  adapter = hook.server;
-  fake = await startFakePayments({
-    port: 0,
-    webhookUrl: hook.url,
-    webhookSecret: TEST_WEBHOOK_SECRET,
-  });
-  pointProviderAt(fake.url);
-});
-
-afterAll(async () => {
-  await fake.stop();
-  await new Promise((r) => adapter.close(r));
-  vi.unstubAllEnvs();
-  resetEnvCache();
-  resetStripeClient();
-});
 
 beforeEach(async () => {
   db = await freshDb();
@@ -54,10 +25,7 @@ beforeEach(async () => {
   vi.spyOn(console, "warn").mockImplementation(() => {});
 });
 
-afterEach(() => {
-  vi.restoreAllMocks();
-  pointProviderAt(fake.url);
-});
+afterEach(() => vi.restoreAllMocks());
 
 async function issued(jobId = w.job.id) {
   const draft = await createInvoice(
@@ -70,16 +38,6 @@ async function issued(jobId = w.job.id) {
 
 const openPage = (invoiceId: number) =>
   startCheckout(db, invoiceId, w.users.customer, "http://localhost/api/checkout");
-
-async function atProvider(sessionId: string): Promise<{ status: string }> {
-  const res = await fetch(`${fake.url}/v1/checkout/sessions/${sessionId}`, {
-    headers: { authorization: "Bearer sk_test_local" },
-  });
-  return res.json();
-}
-
-const pay = (sessionId: string) =>
-  fetch(`${fake.url}/pay/${sessionId}/pay`, { method: "POST", redirect: "manual" });
 
 const sessionRow = (id: string) =>
   db
@@ -107,9 +65,9 @@ describe("closing the online payment page when the invoice changes at the counte
       close_failed_at: null,
       close_error: null,
     });
-    const deliveries = fake.deliveries.length;
+    const deliveries = provider.fake.deliveries.length;
     await pay(page.sessionId);
-    expect(fake.deliveries.length).toBe(deliveries); // nothing paid on the old page
+    expect(provider.fake.deliveries.length).toBe(deliveries); // nothing paid on the old page
     // 342.00 − 10.00 = 332.00 still owed, from the cash alone.
     expect(await findInvoiceById(db, invoice.id)).toMatchObject({ amountPaid: "10.00" });
     expect(await listPaymentsForInvoice(db, invoice.id)).toHaveLength(1);
@@ -145,7 +103,7 @@ describe("closing the online payment page when the invoice changes at the counte
     expect((await atProvider(page.sessionId)).status).toBe("open"); // still payable until retried
 
     // The provider is back: the next checkout (here for another invoice) closes it first.
-    pointProviderAt(fake.url);
+    pointProviderAt(provider.fake.url);
     const other = await issued(w.otherJob.id);
     await startCheckout(db, other.id, w.otherCustomer, "http://localhost/api/checkout");
     expect((await atProvider(page.sessionId)).status).toBe("expired");

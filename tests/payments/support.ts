@@ -1,9 +1,13 @@
 import { createServer, type Server } from "node:http";
 import type { AddressInfo } from "node:net";
 import Stripe from "stripe";
+import { afterAll, afterEach, beforeAll, vi } from "vitest";
 import { POST as webhookRoute } from "@/app/api/payments/webhook/route";
 import type { DB } from "@/db/client";
 import { insertPaymentSession, type PaymentSession } from "@/db/payments";
+import { resetEnvCache } from "@/lib/env";
+import { resetStripeClient } from "@/lib/payments/stripe";
+import { type FakePayments, startFakePayments } from "@/scripts/fake-payments";
 import { noParams } from "../helpers/http";
 
 export const TEST_WEBHOOK_SECRET = "whsec_local";
@@ -112,4 +116,66 @@ export async function startWebhookAdapter(): Promise<{ url: string; server: Serv
   await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", resolve));
   const { port } = server.address() as AddressInfo;
   return { url: `http://127.0.0.1:${port}/api/payments/webhook`, server };
+}
+
+/** Our payment-provider fake for one test file, with the SDK pointed at it. */
+export interface ProviderFake {
+  /** The running fake (its address and the notices it delivered). */
+  readonly fake: FakePayments;
+  /** Points the SDK at `url` (the fake, or a closed port to play an unreachable provider). */
+  pointAt(url: string): void;
+  /** The session as the provider holds it (the fake answers the SDK's read). */
+  atProvider(sessionId: string): Promise<{ status: string; amount_total: number }>;
+  /** The customer presses Pay on the session's page. */
+  pay(sessionId: string): Promise<Response>;
+}
+
+/**
+ * Starts the fake provider and a webhook adapter it notifies before the file's tests, points the
+ * SDK at it, and stops both after; each test ends pointed at the fake again.
+ */
+export function startProviderFakeForFile(): ProviderFake {
+  let fake: FakePayments | undefined;
+  let adapter: Server | undefined;
+  const pointAt = (url: string) => {
+    vi.stubEnv("STRIPE_API_BASE", url);
+    resetEnvCache();
+    resetStripeClient();
+  };
+  const running = () => {
+    if (!fake) throw new Error("the payment fake starts in beforeAll");
+    return fake;
+  };
+  beforeAll(async () => {
+    const hook = await startWebhookAdapter();
+    adapter = hook.server;
+    fake = await startFakePayments({
+      port: 0,
+      webhookUrl: hook.url,
+      webhookSecret: TEST_WEBHOOK_SECRET,
+    });
+    pointAt(fake.url);
+  });
+  afterEach(() => pointAt(running().url));
+  afterAll(async () => {
+    await fake?.stop();
+    await new Promise((r) => adapter?.close(r));
+    vi.unstubAllEnvs();
+    resetEnvCache();
+    resetStripeClient();
+  });
+  return {
+    get fake() {
+      return running();
+    },
+    pointAt,
+    async atProvider(sessionId) {
+      const res = await fetch(`${running().url}/v1/checkout/sessions/${sessionId}`, {
+        headers: { authorization: "Bearer sk_test_local" },
+      });
+      return res.json();
+    },
+    pay: (sessionId) =>
+      fetch(`${running().url}/pay/${sessionId}/pay`, { method: "POST", redirect: "manual" }),
+  };
 }
