@@ -22,8 +22,8 @@ import {
   waitForOk,
 } from "./support/app-server";
 
-// The request edge over real HTTP against `next start`: each finding of the outside attack,
-// reproduced as it was sent. Client addresses in X-Forwarded-For are from the documentation
+// The request edge over real HTTP against `next start`: each attack sent as an attacker would
+// send it. Client addresses in X-Forwarded-For are from the documentation
 // ranges (RFC 5737); they only name a sign-in's origin to the throttle, nothing is sent there.
 
 const PORT = Number(process.env.E2E_PORT ?? 3100);
@@ -80,7 +80,7 @@ async function addAccount(
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
 
-test.describe("cross-site requests (finding 1)", () => {
+test.describe("cross-site requests", () => {
   test("a page on another port of the same host cannot make the owner's browser add an owner", async ({
     page,
     request,
@@ -145,7 +145,7 @@ test.describe("cross-site requests (finding 1)", () => {
   });
 });
 
-test.describe("after signing in (finding 2)", () => {
+test.describe("after signing in", () => {
   for (const next of ["/%5Cevil.test/phish", "/%09/evil.test/phish", "//evil.test/phish"]) {
     test(`next=${next} lands on the jobs list, not another host`, async ({ page, baseURL }) => {
       const phished: string[] = [];
@@ -166,7 +166,7 @@ test.describe("after signing in (finding 2)", () => {
   }
 });
 
-test.describe("one request cannot stall the server (finding 3)", () => {
+test.describe("one request cannot stall the server", () => {
   test("a 9.9 MB body of nested brackets is refused at once, and the health check is not held up", async ({
     request,
   }) => {
@@ -200,7 +200,7 @@ test.describe("one request cannot stall the server (finding 3)", () => {
   });
 });
 
-test.describe("signing in (findings 4 and 5)", () => {
+test.describe("signing in", () => {
   test("an e-mail with no account takes as long to refuse as a wrong password", async ({
     request,
     baseURL,
@@ -277,7 +277,7 @@ test.describe("signing in (findings 4 and 5)", () => {
   });
 });
 
-test.describe("no 500 without signing in (finding 8)", () => {
+test.describe("no 500 without signing in", () => {
   test("a card check naming 32 767 codes is refused with 422", async ({ request }) => {
     const alphabet = "0123456789ABCDEFGHJKMNPQRSTVWXYZ";
     const code = (n: number) =>
@@ -309,7 +309,7 @@ test.describe("no 500 without signing in (finding 8)", () => {
   });
 });
 
-test.describe("headers (findings 10 and 11)", () => {
+test.describe("headers", () => {
   test("an uploaded image keeps its own sandbox policy", async ({ request, baseURL }) => {
     const job = await bookJobOverHttp(baseURL!, {
       customerId: await createCustomerOverHttp(baseURL!, { name: "Sandbox Check" }),
@@ -371,7 +371,7 @@ function withNewSession(cookie: string, setCookies: string[]): string {
     .join("; ");
 }
 
-test.describe("sessions that end (finding 7)", () => {
+test.describe("sessions that end", () => {
   test("after sign-out the same cookie is refused: 401 on the API, sign-in page with the note", async ({
     request,
     baseURL,
@@ -462,7 +462,7 @@ test.describe("sessions that end (finding 7)", () => {
   });
 });
 
-test.describe("rate limits (finding 9)", () => {
+test.describe("rate limits", () => {
   test("checking card codes in bulk from one address is 429 with Retry-After once the hour's codes are spent", async ({
     baseURL,
   }) => {
@@ -502,7 +502,7 @@ test.describe("rate limits (finding 9)", () => {
   });
 });
 
-test.describe("limits that work (finding 13), on servers of this spec's own", () => {
+test.describe("limits that work, on servers of this spec's own", () => {
   const port = PORT + 7;
 
   test("UPLOAD_MAX_MB above 10 takes a 12 MB photo, and HSTS=on reaches every answer", async () => {
