@@ -5,11 +5,11 @@ import PayReturnPage from "@/app/pay/return/page";
 import type { DB } from "@/db/client";
 import { findInvoiceById } from "@/db/invoices";
 import { listPaymentsForInvoice, listUnappliedPayments } from "@/db/payments";
-import { createInvoice, issueInvoice } from "@/lib/billing/invoices";
+import { createInvoice } from "@/lib/billing/invoices";
 import { recordManualPayment } from "@/lib/billing/payments";
 import { resetEnvCache } from "@/lib/env";
 import { stripeClient } from "@/lib/payments/stripe";
-import { type BillingWorld, setUpBilling } from "../api/billing/fixtures";
+import { type BillingWorld, issueBalancingInvoice, setUpBilling } from "../api/billing/fixtures";
 import { freshDb } from "../helpers/db";
 import { jsonRequest, params } from "../helpers/http";
 import { signInAs } from "../helpers/session";
@@ -29,14 +29,7 @@ beforeEach(async () => {
 
 afterEach(() => vi.restoreAllMocks());
 
-async function issued(jobId = w.job.id) {
-  const draft = await createInvoice(
-    db,
-    { jobId, lines: [{ priceItemId: w.prices.balance.id, quantity: "1" }] },
-    null,
-  );
-  return issueInvoice(db, draft.id, null); // 342.00
-}
+const issued = (jobId = w.job.id) => issueBalancingInvoice(db, w, jobId); // 342.00
 
 async function startCheckout(invoiceId: number) {
   const res = await checkoutRoute(

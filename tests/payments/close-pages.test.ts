@@ -3,9 +3,9 @@ import type { DB } from "@/db/client";
 import { findInvoiceById } from "@/db/invoices";
 import { listPaymentsForInvoice } from "@/db/payments";
 import { takeCounterPayment } from "@/lib/billing/counter-payments";
-import { createInvoice, issueInvoice, voidInvoice } from "@/lib/billing/invoices";
+import { voidInvoice } from "@/lib/billing/invoices";
 import { startCheckout } from "@/lib/payments/checkout";
-import { type BillingWorld, setUpBilling } from "../api/billing/fixtures";
+import { type BillingWorld, issueBalancingInvoice, setUpBilling } from "../api/billing/fixtures";
 import { freshDb } from "../helpers/db";
 import { startProviderFakeForFile } from "./support";
 
@@ -27,14 +27,7 @@ beforeEach(async () => {
 
 afterEach(() => vi.restoreAllMocks());
 
-async function issued(jobId = w.job.id) {
-  const draft = await createInvoice(
-    db,
-    { jobId, lines: [{ priceItemId: w.prices.balance.id, quantity: "1" }] },
-    null,
-  );
-  return issueInvoice(db, draft.id, null); // 285.00 + 20 % tax = 342.00
-}
+const issued = (jobId = w.job.id) => issueBalancingInvoice(db, w, jobId); // 342.00
 
 const openPage = (invoiceId: number) =>
   startCheckout(db, invoiceId, w.users.customer, "http://localhost/api/checkout");

@@ -4,8 +4,7 @@ import PayReturnPage from "@/app/pay/return/page";
 import type { DB } from "@/db/client";
 import { insertUnappliedPayment } from "@/db/payments";
 import { recordManualPayment } from "@/lib/billing/payments";
-import { createInvoice, issueInvoice } from "@/lib/billing/invoices";
-import { type BillingWorld, setUpBilling } from "../api/billing/fixtures";
+import { type BillingWorld, issueBalancingInvoice, setUpBilling } from "../api/billing/fixtures";
 import { freshDb } from "../helpers/db";
 import { signInAs } from "../helpers/session";
 import { storeSession } from "./support";
@@ -26,14 +25,7 @@ beforeEach(async () => {
 
 afterEach(() => vi.restoreAllMocks());
 
-async function issued(jobId = w.job.id) {
-  const draft = await createInvoice(
-    db,
-    { jobId, lines: [{ priceItemId: w.prices.balance.id, quantity: "1" }] },
-    null,
-  );
-  return issueInvoice(db, draft.id, null); // 342.00 with tax
-}
+const issued = (jobId = w.job.id) => issueBalancingInvoice(db, w, jobId); // 342.00
 
 function hold(invoiceId: number, sessionId: string, reason: string, amount = "342.00") {
   return insertUnappliedPayment(db, {

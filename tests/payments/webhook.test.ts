@@ -7,11 +7,11 @@ import {
   listUnappliedPayments,
   markPaymentSessionExpired,
 } from "@/db/payments";
-import { createInvoice, issueInvoice, voidInvoice } from "@/lib/billing/invoices";
+import { voidInvoice } from "@/lib/billing/invoices";
 import { recordManualPayment } from "@/lib/billing/payments";
 import { rejectedNotificationCount } from "@/lib/payments/webhook";
 import { freshDb } from "../helpers/db";
-import { type BillingWorld, setUpBilling } from "../api/billing/fixtures";
+import { type BillingWorld, issueBalancingInvoice, setUpBilling } from "../api/billing/fixtures";
 import { completedEvent, deliver, storeSession, webhookRequest } from "./support";
 
 // The invoice: BAL-I4 285.00 + 20 % tax 57.00 = 342.00 (34200 cents at the provider).
@@ -20,14 +20,7 @@ let db: DB;
 let w: BillingWorld;
 let invoiceId: number;
 
-async function issued(jobId: number) {
-  const draft = await createInvoice(
-    db,
-    { jobId, lines: [{ priceItemId: w.prices.balance.id, quantity: "1" }] },
-    null,
-  );
-  return (await issueInvoice(db, draft.id, null)).id;
-}
+const issued = async (jobId: number) => (await issueBalancingInvoice(db, w, jobId)).id;
 
 beforeEach(async () => {
   db = await freshDb();

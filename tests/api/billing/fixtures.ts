@@ -4,6 +4,7 @@ import type { PriceItem } from "@/db/prices";
 import type { Role } from "@/db/schema";
 import { updateShopSettings } from "@/lib/settings/shop-settings";
 import type { User } from "@/db/users";
+import { createInvoice, issueInvoice } from "@/lib/billing/invoices";
 import { createPriceItem } from "@/lib/billing/prices";
 import { createJob } from "@/lib/jobs/save";
 import { addOneOfEachRole, addTestCustomer, addTestUser } from "../../helpers/db";
@@ -77,4 +78,17 @@ export async function setUpBilling(db: DB, taxRate = "20"): Promise<BillingWorld
     ),
   };
   return { users, otherCustomer, job, otherJob, prices };
+}
+
+/**
+ * An issued invoice with one balancing line on `jobId` (the customer's job by default):
+ * 285.00 + 20 % tax = 342.00 in a world set up with tax at 20.
+ */
+export async function issueBalancingInvoice(db: DB, w: BillingWorld, jobId = w.job.id) {
+  const draft = await createInvoice(
+    db,
+    { jobId, lines: [{ priceItemId: w.prices.balance.id, quantity: "1" }] },
+    null,
+  );
+  return issueInvoice(db, draft.id, null);
 }
